@@ -1,0 +1,112 @@
+// The analysis result: what `analyze --json` prints, what the report draws and what the live view shows.
+// SI units throughout; every `_u` is a standard uncertainty (k = 1).
+
+/** Fault and health counts of a run. */
+export interface RunCounts {
+  readonly crc_errors: number;
+  /** Lines rejected for any other reason (too long, bad field, non-ASCII, truncated). */
+  readonly bad_lines: number;
+  /** Lines missing by sequence gaps within a boot. */
+  readonly lines_lost: number;
+  /** Edges the device reported dropped (`lost` of T, summed over boots). */
+  readonly device_lost: number;
+  readonly rejected_passes: number;
+  readonly bridged_gaps: number;
+  /** Time-base restarts after the first hello. */
+  readonly reboots: number;
+  /** `disconnect` annotations in the journal. */
+  readonly disconnects: number;
+  readonly unknown_kinds: number;
+}
+
+/** One line of the uncertainty budget: the relative standard uncertainty this input contributes to g. */
+export interface BudgetLine {
+  readonly name: string;
+  readonly u_rel_g: number;
+  /** Human note: the input's value and standard uncertainty. */
+  readonly note?: string;
+}
+
+/** A correction considered for g: its size, and whether it was applied. */
+export interface CorrectionLine {
+  readonly name: string;
+  /** Relative change of the period it accounts for (ΔT/T0). */
+  readonly period_rel: number;
+  readonly applied: boolean;
+  readonly why: string;
+}
+
+/** One swing: a full period from every second pass, with the amplitude measured on it. */
+export interface SwingRow {
+  readonly index: number;
+  /** Pass time, seconds since run start on the corrected device timebase joined to host time. */
+  readonly t_s: number;
+  readonly transit_s: number;
+  readonly half_period_s: number | null;
+  readonly period_s: number | null;
+  readonly amplitude_deg: number | null;
+  /** The period reduced to zero amplitude with the exact law. */
+  readonly period0_s: number | null;
+  /** Flags such as `bridged`, `rejected:<reason>`, `boot-start`. */
+  readonly flags: readonly string[];
+}
+
+/** Damping fits of amplitude vs time. */
+export interface DampingFit {
+  readonly model: 'linear' | 'quadratic' | 'constant' | 'mixed';
+  /** Criterion value (lower is better), e.g. AIC. */
+  readonly score: number;
+  /** Coefficients of dA/dt = −(a0 + a1·A + a2·A²), A in radians, t in seconds. */
+  readonly a0: number;
+  readonly a1: number;
+  readonly a2: number;
+  readonly rms_residual_deg: number;
+}
+
+/** Series for plots (report and live view). Arrays are parallel within each object. */
+export interface PlotSeries {
+  readonly periodVsAmplitude: { readonly amplitude_deg: number[]; readonly period_s: number[] };
+  readonly amplitudeVsTime: { readonly t_s: number[]; readonly amplitude_deg: number[] };
+  readonly halfPeriodAlternation: { readonly t_s: number[]; readonly diff_s: number[] };
+  readonly clockResiduals: { readonly host_s: number[]; readonly residual_s: number[] };
+  readonly gRunning: { readonly t_s: number[]; readonly g: number[]; readonly g_u: number[] };
+}
+
+/** The whole analysis of a journal (or of the lines seen so far, live). */
+export interface AnalysisResult {
+  readonly T0_s: number | null;
+  readonly T0_u_s: number | null;
+  readonly g_m_s2: number | null;
+  readonly g_u_m_s2: number | null;
+  readonly clock_ppm: number | null;
+  readonly clock_u_ppm: number | null;
+  /** How the clock correction was obtained. */
+  readonly clock_source: 'host' | 'pps' | 'nominal' | 'given';
+  readonly gate_offset_m: number | null;
+  readonly gate_offset_u_m: number | null;
+  readonly B: number | null;
+  readonly B_u: number | null;
+  readonly C: number | null;
+  readonly C_u: number | null;
+  readonly amplitude_start_deg: number | null;
+  readonly amplitude_end_deg: number | null;
+  readonly Q: number | null;
+  readonly damping_model: DampingFit['model'] | null;
+  readonly damping_fits: readonly DampingFit[];
+  readonly passes: number;
+  readonly periods: number;
+  readonly counts: RunCounts;
+  readonly budget: readonly BudgetLine[];
+  readonly corrections: readonly CorrectionLine[];
+  readonly expected_g_m_s2: number | null;
+  /** (g − expected) / combined standard uncertainty, when the expected g is known. */
+  readonly g_diff_sigma: number | null;
+  readonly warnings: readonly string[];
+  readonly run: {
+    readonly start_iso: string | null;
+    readonly duration_s: number;
+    readonly source: string | null;
+    readonly firmware: string | null;
+    readonly hz_nominal: number | null;
+  };
+}
