@@ -1,16 +1,68 @@
-// The HTML run report (placeholder until the report lands): one self-contained page from an AnalysisResult.
+// The HTML run report: one self-contained XHTML-compatible page (inline CSS and SVG, no script, no network)
+// drawn from the same AnalysisResult that `analyze --json` prints.
 import type { AnalysisResult } from '../analysis/result.ts';
-import type { Rig } from '../../protocol/rig.ts';
+import { esc } from './escape.ts';
+import { headerSection } from './header-section.ts';
+import { notesSection } from './notes-section.ts';
+import { periodRatio } from './period-law.ts';
+import { amplitudePlot, qPlot } from './plots/damping-plots.ts';
+import { figure } from './plots/figure.ts';
+import { periodPlot } from './plots/period-plot.ts';
+import { alternationPlot, clockPlot, gRunningPlot } from './plots/timing-plots.ts';
+import type { ReportMeta } from './report-meta.ts';
+import { detailsTable, missingSection, resultBox } from './result-section.ts';
+import { seriesOf } from './series.ts';
+import { STYLES } from './styles.ts';
+import { budgetTable, correctionsTable, countsSection, warningsSection } from './tables-section.ts';
 
-/** Facts about the journal the report is tied to. */
-export interface ReportMeta {
-  readonly journalName: string;
-  readonly journalSha256: string;
-  readonly rig: Rig | null;
-  readonly csvName: string | null;
+export type { ReportMeta } from './report-meta.ts';
+
+function plotsSection(r: AnalysisResult): string {
+  const s = seriesOf(r);
+  const gate = r.gate_offset_m !== null ? ` The mean difference corresponds to a gate offset of ${(r.gate_offset_m * 1000).toFixed(2)} mm.` : '';
+  const clock = r.clock_ppm !== null ? ` The fitted rate error is ${r.clock_ppm.toFixed(1)} ppm.` : '';
+  // The log-axis option works without script: a checkbox whose :checked state swaps the two drawings by CSS.
+  const toggle = `<input type="checkbox" id="amp-log-toggle" class="toggle"/><label class="toggle-l" for="amp-log-toggle">logarithmic amplitude axis</label>`;
+  const amp = `<div class="amp-lin">${amplitudePlot(r, s, 'linear')}</div><div class="amp-log">${amplitudePlot(r, s, 'log')}</div>`;
+  const figs = [
+    figure('fig-period', 1, 'Period against amplitude', 'Each full period (every second pass) at its measured amplitude, the exact law through the fitted T0, and the fit T0(1 + Bθ0² + Cθ0⁴); below, the data and the exact law minus that fit.', periodPlot(r, s, periodRatio)),
+    figure('fig-amplitude', 2, 'Amplitude against time', 'Amplitude per swing from its transit time, with each damping fit started from the first swing; the chosen model is solid. The log axis turns exponential decay into a straight line.', amp, toggle),
+    figure('fig-q', 3, 'Q against amplitude', 'Q = π·θ0/Δθ0 per cycle from the chosen damping fit; the diamond is the Q reported above.', qPlot(r, s)),
+    figure('fig-alternation', 4, 'Half-period alternation', `Difference between neighbouring half-periods; it alternates in sign when the beam is off the lowest point.${gate}`, alternationPlot(s)),
+    figure('fig-clock', 5, 'Clock offset', `Host receive time of each heartbeat minus the device time mapped through the fitted clock line; USB latency only ever adds delay, so the fit follows the lower envelope.${clock}`, clockPlot(r, s)),
+    figure('fig-g', 6, 'Running estimate of g', 'g from the swings up to each time, with its expanded uncertainty band (k = 2).', gRunningPlot(r, s)),
+  ];
+  return `<section id="plots"><h2>Plots</h2>${figs.join('')}</section>`;
 }
 
-/** Renders the report page. */
+function footer(meta: ReportMeta): string {
+  const csv = meta.csvName
+    ? `The per-swing table is in <a href="${esc(meta.csvName)}" data-key="csv">${esc(meta.csvName)}</a>.`
+    : 'Run <code>halfswing analyze JOURNAL --csv FILE</code> for the per-swing table.';
+  return `<footer id="footer"><p>${csv}</p><p>Made by halfswing from <code>${esc(meta.journalName)}</code> (SHA-256 ${esc(meta.journalSha256.slice(0, 16))}…). SI units; uncertainties are standard (k = 1) unless marked.</p></footer>`;
+}
+
+/** Renders the report page (a complete document, UTF-8, LF line ends). */
 export function renderReport(result: AnalysisResult, meta: ReportMeta): string {
-  return `<!DOCTYPE html><html><head><meta charset="utf-8"/><title>halfswing run report</title></head><body><pre>${JSON.stringify({ meta, result }, null, 1).replace(/&/g, '&amp;').replace(/</g, '&lt;')}</pre></body></html>\n`;
+  const title = `Pendulum run report — ${meta.rig?.name ?? meta.journalName}`;
+  return (
+    `<!DOCTYPE html>\n<html xmlns="http://www.w3.org/1999/xhtml" lang="en"><head><meta charset="utf-8"/>` +
+    `<meta name="viewport" content="width=device-width, initial-scale=1"/><title>${esc(title)}</title><style>${STYLES}</style></head>\n<body>\n` +
+    [
+      headerSection(result, meta),
+      resultBox(result),
+      missingSection(result, meta.rig !== null),
+      notesSection(result, meta.rig, periodRatio),
+      detailsTable(result),
+      plotsSection(result),
+      budgetTable(result),
+      correctionsTable(result),
+      countsSection(result),
+      warningsSection(result),
+      footer(meta),
+    ]
+      .filter(Boolean)
+      .join('\n') +
+    `\n</body></html>\n`
+  );
 }

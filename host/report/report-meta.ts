@@ -1,0 +1,10 @@
+// Facts about the journal a report is tied to, given by the caller (the analyze command).
+import type { Rig } from '../../protocol/rig.ts';
+
+/** Facts about the journal the report is tied to. */
+export interface ReportMeta {
+  readonly journalName: string;
+  readonly journalSha256: string;
+  readonly rig: Rig | null;
+  readonly csvName: string | null;
+}

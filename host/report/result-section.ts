@@ -1,0 +1,92 @@
+// The result box: T0, g with its expanded uncertainty, the expected local g, the clock correction; then the
+// secondary results (B, C, gate offset, amplitudes, Q) and what could not be computed and why.
+import type { AnalysisResult } from '../analysis/result.ts';
+import { esc } from './escape.ts';
+import { fixed, sig, valueU } from './format.ts';
+import { modelName } from './plots/damping-plots.ts';
+
+/** A number with its key, so a reader (and the tests) can tie it to the `--json` field it shows. */
+function num(key: string, text: string): string {
+  return `<span class="num" data-key="${esc(key)}">${esc(text)}</span>`;
+}
+
+function pm(v: number, u: number | null, keyV: string, keyU: string, scale = 1): string {
+  const f = valueU(v * scale, u === null ? null : u * scale);
+  return `${num(keyV, f.value)}${f.u !== null ? ` <span class="pm">±</span> ${num(keyU, f.u)}` : ''}`;
+}
+
+const missing = '<span class="muted">not available</span>';
+
+const CLOCK_SOURCE: Record<AnalysisResult['clock_source'], string> = {
+  host: 'fitted from heartbeats against the host clock (lower envelope of delay)',
+  pps: 'measured against a 1 PPS reference',
+  nominal: 'none: the nominal rate was used',
+  given: 'given on the command line',
+};
+
+/** The headline box. */
+export function resultBox(r: AnalysisResult): string {
+  const T0 = r.T0_s !== null ? `${pm(r.T0_s, r.T0_u_s, 'T0_s', 'T0_u_s')} s` : missing;
+  let g = missing;
+  if (r.g_m_s2 !== null) {
+    const U = r.g_u_m_s2 !== null ? 2 * r.g_u_m_s2 : null;
+    const f = valueU(r.g_m_s2, U);
+    const u = r.g_u_m_s2 !== null ? valueU(r.g_m_s2, r.g_u_m_s2).u : null;
+    g =
+      `${num('g_m_s2', f.value)}${f.u !== null ? ` <span class="pm">±</span> ${num('g_U_k2', f.u)}` : ''} m/s²` +
+      (u !== null ? `<span class="sub">U at k = 2; standard uncertainty u = ${num('g_u_m_s2', u)} m/s²</span>` : '');
+  }
+  let expected = '<span class="muted">unknown: add latitude_deg and elevation_m to the rig file</span>';
+  if (r.expected_g_m_s2 !== null) {
+    const d = r.g_diff_sigma !== null ? `<span class="sub">difference ${num('g_diff_sigma', fixed(r.g_diff_sigma, 2))} σ (in units of u)</span>` : '';
+    expected = `${num('expected_g_m_s2', fixed(r.expected_g_m_s2, 5))} m/s²${d}`;
+  }
+  const clock =
+    r.clock_ppm !== null
+      ? `${pm(r.clock_ppm, r.clock_u_ppm, 'clock_ppm', 'clock_u_ppm')} ppm<span class="sub">${esc(CLOCK_SOURCE[r.clock_source])}</span>`
+      : `${missing}<span class="sub">${esc(CLOCK_SOURCE[r.clock_source])}</span>`;
+  return (
+    `<section class="result" id="result"><h2>Result</h2><dl>` +
+    `<div class="big"><dt>T0, period at zero amplitude</dt><dd>${T0}</dd></div>` +
+    `<div class="big"><dt>g, local acceleration of gravity</dt><dd>${g}</dd></div>` +
+    `<div><dt>expected local g (WGS-84 normal gravity, free-air)</dt><dd>${expected}</dd></div>` +
+    `<div><dt>clock correction used</dt><dd>${clock}</dd></div>` +
+    `</dl><p class="small">Uncertainties after “±” are standard uncertainties (k = 1) unless marked k = 2.</p></section>`
+  );
+}
+
+/** Secondary results, as a compact table. */
+export function detailsTable(r: AnalysisResult): string {
+  const rows: [string, string, string][] = [];
+  const add = (k: string, v: string, ref = ''): void => void rows.push([k, v, ref]);
+  add('B (θ0² coefficient)', r.B !== null ? pm(r.B, r.B_u, 'B', 'B_u') : missing, 'simple pendulum: 1/16 = 0.0625');
+  add('C (θ0⁴ coefficient)', r.C !== null ? pm(r.C, r.C_u, 'C', 'C_u') : missing, 'simple pendulum: 11/3072 ≈ 0.003581');
+  add('gate offset from the lowest point', r.gate_offset_m !== null ? `${pm(r.gate_offset_m, r.gate_offset_u_m, 'gate_offset_mm', 'gate_offset_u_mm', 1000)} mm` : missing, 'positive: toward the release side');
+  add(
+    'amplitude, first → last swing',
+    r.amplitude_start_deg !== null && r.amplitude_end_deg !== null
+      ? `${num('amplitude_start_deg', fixed(r.amplitude_start_deg, 2))}° → ${num('amplitude_end_deg', fixed(r.amplitude_end_deg, 2))}°`
+      : missing,
+  );
+  add('Q at the median amplitude', r.Q !== null ? num('Q', sig(r.Q, 4)) : missing);
+  add('damping model chosen', r.damping_model !== null ? esc(modelName(r.damping_model)) : missing, 'lowest criterion score among the fits');
+  add('passes used / full periods', `${num('passes', String(r.passes))} / ${num('periods', String(r.periods))}`);
+  return (
+    `<section id="details"><h2>Further results</h2><table class="tbl"><tbody>` +
+    rows.map(([k, v, ref]) => `<tr><th scope="row">${esc(k)}</th><td class="n">${v}</td><td class="ref">${esc(ref)}</td></tr>`).join('') +
+    `</tbody></table></section>`
+  );
+}
+
+/** What could not be computed and what the run or the rig file would need; empty when nothing is missing. */
+export function missingSection(r: AnalysisResult, hasRig: boolean): string {
+  const items: string[] = [];
+  if (r.T0_s === null) items.push(`T0: needs full periods from every second pass; this journal gave ${r.passes} valid passes and ${r.periods} periods.`);
+  if (r.g_m_s2 === null) items.push(hasRig ? 'g: needs T0 first.' : 'g: needs T0 and a rig description with the pendulum length.');
+  if (r.B === null) items.push('B and C: the fit of period against amplitude needs periods over a range of amplitudes (a decay of several degrees).');
+  if (r.damping_model === null) items.push('Damping and Q: need amplitudes over enough swings to see them decay.');
+  if (r.gate_offset_m === null) items.push('Gate offset: needs consecutive half-periods and an amplitude.');
+  if (r.clock_ppm === null && r.clock_source === 'host') items.push('Clock correction: needs heartbeats over a long enough run; the nominal rate was used.');
+  if (items.length === 0) return '';
+  return `<section class="missing" id="missing"><h2>Not computed</h2><ul>${items.map((i) => `<li>${esc(i)}</li>`).join('')}</ul></section>`;
+}
