@@ -1,0 +1,5 @@
+// The benchmarks in the order `npm run bench` runs them.
+import type { Benchmark } from './benchmark.ts';
+import { ingest } from './ingest.ts';
+
+export const BENCHMARKS: readonly Benchmark[] = [ingest];

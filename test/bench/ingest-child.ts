@@ -1,0 +1,28 @@
+// Child process of the ingest benchmark: reads a journal in one mode and prints {lines, wallS, maxRssMiB} as JSON.
+//   read     the journal read line by line, nothing done with the lines (the pure I/O baseline)
+//   analyze  every entry pushed through the run pipeline, then the full result computed
+import { createReadStream } from 'node:fs';
+import { createInterface } from 'node:readline';
+import { performance } from 'node:perf_hooks';
+import { analyzeJournal } from './analysis-part.ts';
+
+const [mode, file] = process.argv.slice(2);
+if ((mode !== 'read' && mode !== 'analyze') || !file) {
+  process.stderr.write('usage: ingest-child.ts read|analyze JOURNAL\n');
+  process.exit(2);
+}
+
+const t0 = performance.now();
+let lines = 0;
+let summary: Record<string, unknown> = {};
+if (mode === 'read') {
+  // The same line reader as host/journal/read-journal.ts, so the ratio isolates the decoding and analysis.
+  const rl = createInterface({ input: createReadStream(file, { encoding: 'latin1' }), crlfDelay: Infinity });
+  for await (const _line of rl) lines++;
+} else {
+  const r = await analyzeJournal(file);
+  lines = r.entries;
+  summary = r.summary;
+}
+const wallS = (performance.now() - t0) / 1000;
+process.stdout.write(`${JSON.stringify({ mode, lines, wallS, maxRssMiB: process.resourceUsage().maxRSS / 1024, summary })}\n`);

@@ -1,0 +1,81 @@
+// Small sample statistics for the benchmarks: mean, spread, quantiles, and the least-squares slope bound.
+
+export function mean(xs: readonly number[]): number {
+  let s = 0;
+  for (const x of xs) s += x;
+  return s / xs.length;
+}
+
+/** Sample standard deviation (n − 1). */
+export function stdev(xs: readonly number[]): number {
+  const m = mean(xs);
+  let s = 0;
+  for (const x of xs) s += (x - m) ** 2;
+  return Math.sqrt(s / (xs.length - 1));
+}
+
+/** Root mean square about zero (for errors against truth). */
+export function rms(xs: readonly number[]): number {
+  let s = 0;
+  for (const x of xs) s += x * x;
+  return Math.sqrt(s / xs.length);
+}
+
+/** Quantile by linear interpolation between order statistics (q in [0, 1]). */
+export function quantile(xs: readonly number[], q: number): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const pos = (s.length - 1) * q;
+  const lo = Math.floor(pos);
+  const hi = Math.min(lo + 1, s.length - 1);
+  return s[lo]! + (s[hi]! - s[lo]!) * (pos - lo);
+}
+
+export function min(xs: readonly number[]): number {
+  return xs.reduce((a, b) => Math.min(a, b), Infinity);
+}
+
+export function max(xs: readonly number[]): number {
+  return xs.reduce((a, b) => Math.max(a, b), -Infinity);
+}
+
+/**
+ * Standard deviation of the least-squares slope of N equally spaced points with iid jitter σ:
+ * σ·sqrt(12 / (N(N² − 1))). Bevington & Robinson, "Data Reduction and Error Analysis", ch. 6 (from memory);
+ * the same value is the Cramér–Rao bound for Gaussian jitter, Kay, "Fundamentals of Statistical Signal
+ * Processing" vol. I, Example 3.4 (from memory).
+ */
+export function lsSlopeSigma(sigma: number, n: number): number {
+  return sigma * Math.sqrt(12 / (n * (n * n - 1)));
+}
+
+/** Least-squares straight line y = a + b·x. */
+export function fitLine(xs: readonly number[], ys: readonly number[]): { a: number; b: number } {
+  const mx = mean(xs);
+  const my = mean(ys);
+  let sxy = 0;
+  let sxx = 0;
+  for (let i = 0; i < xs.length; i++) {
+    sxy += (xs[i]! - mx) * (ys[i]! - my);
+    sxx += (xs[i]! - mx) ** 2;
+  }
+  const b = sxy / sxx;
+  return { a: my - b * mx, b };
+}
+
+/** Seeded uniform RNG on [0, 1) (mulberry32), so every benchmark input is reproducible. */
+export function seededUniform(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Standard normal deviates from a uniform source (Box–Muller). */
+export function seededNormal(seed: number): () => number {
+  const u = seededUniform(seed);
+  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
+}
