@@ -1,6 +1,7 @@
 // The view's store outside React: feeds entries to the pipeline and publishes throttled snapshots.
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { decodeLine } from '../../protocol/decode.ts';
+import { parseRig, type Rig } from '../../protocol/rig.ts';
 
 /** The part of the run pipeline the store drives. */
 export interface PipelineLike<L, R> {
@@ -20,6 +21,10 @@ export interface StoreSnapshot<L, R> {
   /** Wall-clock ms when the newest line arrived (for estimating "now" between lines). */
   readonly lastArrivalMs: number | null;
   readonly entries: number;
+  /** Median host spacing of the recent heartbeat lines (seconds), null before two of them. */
+  readonly heartbeatInterval_s: number | null;
+  /** The rig from the journal's latest `#rig` line, when it is valid. */
+  readonly rig: Rig | null;
   /** Increments on every publish. */
   readonly version: number;
 }
@@ -59,6 +64,18 @@ function isHello(line: string): boolean {
   return d.ok && d.record.kind === 'H';
 }
 
+/** Longest time between publishes while no line arrives. */
+const IDLE_PUBLISH_MS = 1000;
+/** Heartbeat arrivals kept for the spacing estimate. */
+const BEATS_KEPT = 9;
+
+/** Median of the spacings of increasing times (a lost or late heartbeat does not move it). */
+export function medianSpacing(times: readonly number[]): number | null {
+  if (times.length < 2) return null;
+  const d = times.slice(1).map((t, i) => t - times[i]!).filter((x) => x > 0).sort((a, b) => a - b);
+  return d.length ? d[Math.floor((d.length - 1) / 2)]! : null;
+}
+
 /** Creates a store; the publish timer runs until `stop()`. */
 export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L, R> {
   const liveMs = 1000 / (opts.liveHz ?? 10);
@@ -73,8 +90,10 @@ export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L
   let lastHost: number | null = null;
   let firstHost: number | null = null;
   let lastArrival: number | null = null;
+  const beats: number[] = [];
+  let rig: Rig | null = null;
   let result = pipeline.result();
-  let snap: StoreSnapshot<L, R> = { live: pipeline.live(), result, lastHost_s: null, firstHost_s: null, lastArrivalMs: null, entries: 0, version: 0 };
+  let snap: StoreSnapshot<L, R> = { live: pipeline.live(), result, lastHost_s: null, firstHost_s: null, lastArrivalMs: null, entries: 0, heartbeatInterval_s: null, rig: null, version: 0 };
   const listeners = new Set<() => void>();
 
   const publish = (forceResult: boolean): void => {
@@ -84,13 +103,19 @@ export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L
       resultStale = false;
       lastResultMs = now;
     }
-    snap = { live: pipeline.live(), result, lastHost_s: lastHost, firstHost_s: firstHost, lastArrivalMs: lastArrival, entries, version: snap.version + 1 };
+    snap = { live: pipeline.live(), result, lastHost_s: lastHost, firstHost_s: firstHost, lastArrivalMs: lastArrival, entries, heartbeatInterval_s: medianSpacing(beats), rig, version: snap.version + 1 };
     dirty = false;
     for (const l of listeners) l();
   };
 
+  // Publishing also when nothing arrived keeps time-based warnings (a stalled device) moving.
+  let lastPublishMs = -Infinity;
   const timer = opts.timers.setInterval(() => {
-    if (dirty || resultStale) publish(false);
+    const now = opts.nowMs();
+    if (dirty || resultStale || now - lastPublishMs >= IDLE_PUBLISH_MS) {
+      lastPublishMs = now;
+      publish(false);
+    }
   }, liveMs);
 
   return {
@@ -100,7 +125,16 @@ export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L
         if (entry.kind === 'magic') context.length = 0;
         else if (entry.kind === 'start') context.splice(0, context.length, ...context.filter((c) => c.kind === 'magic'));
         context.push(entry);
-      } else if (entry.kind === 'data' && isHello(entry.line)) lastHello = entry;
+        if (entry.kind === 'rig') {
+          const r = parseRig(entry.json);
+          rig = r.ok ? r.rig : null;
+        }
+      } else if (entry.kind === 'data') {
+        if (entry.line.startsWith('T ')) {
+          beats.push(entry.hostUs / 1e6);
+          if (beats.length > BEATS_KEPT) beats.shift();
+        } else if (isHello(entry.line)) lastHello = entry;
+      }
       pipeline.push(entry);
       entries++;
       if (entry.kind === 'data' || entry.kind === 'annotation') {

@@ -67,7 +67,7 @@ export function warningsFor(w: WarningInput): ViewWarning[] {
     if (gap > SILENT_HEARTBEATS * w.heartbeatInterval_s) out.push({ reason: 'heartbeats-missing', text: `no heartbeat for ${gap.toFixed(0)} s: device stalled or link lost?` });
   }
   if (w.gateOffset_m !== null && Math.abs(w.gateOffset_m) > GATE_OFFSET_WARN_M && Math.abs(w.gateOffset_m) > 2 * (w.gateOffset_u_m ?? 0))
-    out.push({ reason: 'gate-offset', text: `gate ${(Math.abs(w.gateOffset_m) * 1000).toFixed(1)} mm off the lowest point: ${gateHint(w.gateOffset_m, w.gateOffset_u_m)}` });
+    out.push({ reason: 'gate-offset', text: `gate ${(Math.abs(w.gateOffset_m) * 1000).toFixed(1)} mm off the lowest point: ${gateHint(w.gateOffset_m, w.gateOffset_u_m)} to centre it` });
   const share = clockShare(w.budget);
   if (share > CLOCK_SHARE_WARN)
     out.push({ reason: 'clock-dominates', text: `clock uncertainty is ${(share * 100).toFixed(0)}% of the g budget: run longer for a better clock fit` });
@@ -82,5 +82,5 @@ export function gateHint(offset_m: number | null, u_m: number | null): string {
   if (offset_m === null || !Number.isFinite(offset_m)) return 'not known yet';
   const mm = Math.abs(offset_m) * 1000;
   if (Math.abs(offset_m) <= Math.max(2 * (u_m ?? 0), 0.0002)) return 'centred';
-  return `move it ${mm.toFixed(1)} mm ${offset_m > 0 ? 'away from' : 'toward'} the release side`;
+  return `move ${mm.toFixed(1)} mm ${offset_m > 0 ? 'away from' : 'toward'} release side`;
 }

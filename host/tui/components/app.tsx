@@ -1,0 +1,110 @@
+// The live view: subscribes to the store's snapshots, lays out the panels, and turns keys into effects.
+import React, { useRef, useState, useSyncExternalStore } from 'react';
+import { Box, useInput, useStdout } from 'ink';
+import type { AnalysisResult } from '../../analysis/result.ts';
+import type { LiveState } from '../../pipeline/live-state.ts';
+import type { LiveStore, StoreSnapshot } from '../live-store.ts';
+import { expectsLines, type FeedStatus } from '../feed.ts';
+import { INITIAL_UI, reduceKey, type KeyEffect, type UiState } from '../keys.ts';
+import { layoutFor } from '../layout.ts';
+import { buildViewModel } from '../view-model.ts';
+import { ChartBox } from './chart-box.tsx';
+import { Footer, HealthLine, WarningLine } from './footer.tsx';
+import { HelpPanel } from './help-panel.tsx';
+import { NumbersPanel } from './numbers-panel.tsx';
+import { StatusBar } from './status-bar.tsx';
+
+export interface AppProps {
+  readonly store: LiveStore<LiveState, AnalysisResult>;
+  readonly status: () => FeedStatus;
+  /** Wall clock in ms, to advance "now" between lines. */
+  readonly nowMs: () => number;
+  readonly onEffect: (effect: KeyEffect) => void;
+  /** Keys are read only from a TTY (raw mode needs one). */
+  readonly interactive: boolean;
+}
+
+/** Host seconds now: the last line's time, advanced at the feed's speed while lines are still due. */
+export function estimateNow(snap: StoreSnapshot<unknown, unknown>, feed: FeedStatus, nowMs: number): number {
+  if (snap.lastHost_s === null) return 0;
+  if (!expectsLines(feed.connection) || snap.lastArrivalMs === null) return snap.lastHost_s;
+  return snap.lastHost_s + (Math.max(0, nowMs - snap.lastArrivalMs) / 1000) * (feed.speed ?? 1);
+}
+
+export function App({ store, status, nowMs, onEffect, interactive }: AppProps): React.JSX.Element {
+  const live = useSyncExternalStore(store.subscribe, store.getSnapshot);
+  const [ui, setUi] = useState<UiState>(INITIAL_UI);
+  const frozen = useRef<StoreSnapshot<LiveState, AnalysisResult> | null>(null);
+  const { stdout } = useStdout();
+  const feed = status();
+
+  useInput(
+    (input, key) => {
+      const { state, effect } = reduceKey(ui, { input, ctrl: key.ctrl, return: key.return, escape: key.escape, backspace: key.backspace, delete: key.delete }, { writesJournal: feed.writesJournal });
+      if (state.paused && !ui.paused) frozen.current = store.getSnapshot();
+      setUi(state);
+      if (effect) onEffect(effect);
+    },
+    { isActive: interactive },
+  );
+
+  const snap = ui.paused && frozen.current ? frozen.current : live;
+  const now = estimateNow(snap, feed, ui.paused ? (snap.lastArrivalMs ?? 0) : nowMs());
+  const vm = buildViewModel({
+    feed,
+    live: snap.live,
+    result: snap.result,
+    rig: snap.rig,
+    now_s: now,
+    since_s: snap.firstHost_s ?? 0,
+    heartbeatInterval_s: snap.heartbeatInterval_s,
+    paused: ui.paused,
+  });
+  const L = layoutFor(stdout.columns, stdout.rows);
+
+  const periodChart = {
+    width: L.plotWidth,
+    height: L.chartHeight,
+    x: { label: 'amplitude θ0 (°)', tickSuffix: '°', minSpan: 2 },
+    y: { label: 'period T (s)   · measured  ─ exact law through T0', minSpan: 0.0005 },
+    series: [
+      { xs: vm.periodCurve.xs, ys: vm.periodCurve.ys, style: 'line' as const, tone: 'law' },
+      { xs: vm.periodPoints.xs, ys: vm.periodPoints.ys, style: 'dots' as const, tone: 'points' },
+    ],
+    emptyText: 'periods appear after two swings',
+  };
+  const amplitudeChart = {
+    width: L.plotWidth,
+    height: L.height - L.statusLines - 3 - L.chartHeight,
+    x: { label: 'time (min)', minSpan: 0.5 },
+    y: { label: `amplitude θ0 (°)   · measured  ─ ${vm.amplitudeCurve.xs.length ? 'fitted decay' : 'decay fit to come'}`, minSpan: 0.5 },
+    series: [
+      { xs: vm.amplitudeCurve.xs, ys: vm.amplitudeCurve.ys, style: 'line' as const, tone: 'fit' },
+      { xs: vm.amplitudePoints.xs, ys: vm.amplitudePoints.ys, style: 'dots' as const, tone: 'points' },
+    ],
+    emptyText: 'amplitudes appear after the first swing',
+  };
+
+  return (
+    <Box flexDirection="column" width={L.width}>
+      <StatusBar title={vm.title} items={vm.status} width={L.width} lines={L.statusLines} />
+      <Box flexDirection="row" height={L.height - L.statusLines - 3}>
+        {ui.mode.kind === 'help' ? (
+          <HelpPanel warnings={vm.warnings} width={L.width} />
+        ) : (
+          <>
+            <NumbersPanel rows={vm.numbers} width={L.numbersWidth} />
+            <Box width={1} />
+            <Box flexDirection="column" width={L.plotWidth}>
+              <ChartBox spec={periodChart} />
+              <ChartBox spec={amplitudeChart} />
+            </Box>
+          </>
+        )}
+      </Box>
+      <HealthLine items={vm.health} />
+      <WarningLine warnings={vm.warnings} />
+      <Footer ui={ui} />
+    </Box>
+  );
+}

@@ -1,0 +1,134 @@
+// The live view's shell: feeds the store from a feed, shows ink on a terminal or plain lines elsewhere, and shuts down one way.
+import React from 'react';
+import { render } from 'ink';
+import type { AnalysisResult } from '../analysis/result.ts';
+import type { LiveState } from '../pipeline/live-state.ts';
+import type { JournalEntry } from '../../protocol/journal.ts';
+import { createLiveStore, type PipelineLike, type Timers } from './live-store.ts';
+import type { Feed, FeedStatus } from './feed.ts';
+import type { KeyEffect } from './keys.ts';
+import { App, estimateNow } from './components/app.tsx';
+import { buildViewModel } from './view-model.ts';
+import { plainStatusLine } from './plain-status.ts';
+
+type Stream = NodeJS.WritableStream & { isTTY?: boolean; columns?: number; rows?: number };
+
+export interface RunViewOptions {
+  readonly feed: Feed;
+  readonly createPipeline: () => PipelineLike<LiveState, AnalysisResult> & { restartEstimates?: () => void };
+  readonly stdout: Stream;
+  readonly stderr: Stream;
+  readonly stdin: NodeJS.ReadableStream & { isTTY?: boolean };
+  /** Wall clock, ms (monotonic). */
+  readonly nowMs: () => number;
+  readonly timers: Timers & { setTimeout(fn: () => void, ms: number): unknown; clearTimeout(handle: unknown): void };
+  /** Subscribes to SIGINT/SIGTERM/SIGHUP; returns an unsubscribe. */
+  readonly onSignal: (handler: (signal: string) => void) => () => void;
+  /** Seconds between plain status lines without a terminal. */
+  readonly plainEvery_s?: number;
+  /** Longest wait for the feed to close on shutdown (ms) before giving up on it. */
+  readonly closeTimeoutMs?: number;
+}
+
+/** Entries for the view come from the feed; pushing them must never stall the render loop for long. */
+async function pump(entries: AsyncIterable<JournalEntry>, push: (e: JournalEntry) => void, yieldEvery = 2000): Promise<void> {
+  let n = 0;
+  for await (const e of entries) {
+    push(e);
+    // A fast replay hands over entries without waiting; let timers (render, keys) run now and then.
+    if (++n % yieldEvery === 0) await new Promise((r) => setTimeout(r, 0));
+  }
+}
+
+/** Runs the view until the user quits, a signal arrives, or (without a terminal) the feed ends; resolves to the exit code. */
+export async function runLiveView(opts: RunViewOptions): Promise<number> {
+  const store = createLiveStore<LiveState, AnalysisResult>({ createPipeline: opts.createPipeline, nowMs: opts.nowMs, timers: opts.timers });
+  const interactive = Boolean(opts.stdout.isTTY && opts.stdin.isTTY);
+  let ended: FeedStatus['connection'] | null = null;
+  let failure: unknown = null;
+  const status = (): FeedStatus => {
+    const s = opts.feed.status();
+    return ended && s.connection.kind !== 'ended' ? { ...s, connection: ended } : s;
+  };
+
+  let finish!: (code: number) => void;
+  const done = new Promise<number>((r) => (finish = r));
+  let shuttingDown = false;
+  let unmount: (() => void) | null = null;
+  let plainTimer: unknown = null;
+
+  const shutdown = async (code: number): Promise<void> => {
+    if (shuttingDown) return;
+    shuttingDown = true;
+    // Order: stop intake and flush the journal, then take the screen down, then exit.
+    const closing = opts.feed.close().catch((e: unknown) => {
+      failure ??= e;
+    });
+    let hard: unknown = null;
+    await Promise.race([closing, new Promise<void>((r) => (hard = opts.timers.setTimeout(r, opts.closeTimeoutMs ?? 5000)))]);
+    opts.timers.clearTimeout(hard);
+    store.stop();
+    if (plainTimer !== null) opts.timers.clearInterval(plainTimer);
+    unmount?.();
+    finish(code);
+  };
+  const offSignal = opts.onSignal(() => void shutdown(0));
+
+  const onEffect = (e: KeyEffect): void => {
+    if (e.kind === 'quit') void shutdown(0);
+    else if (e.kind === 'restart') store.restart();
+    else if (e.kind === 'note') opts.feed.note?.(e.text).catch((err: unknown) => opts.stderr.write(`halfswing: note not written: ${(err as Error).message}\n`));
+  };
+
+  const pumping = pump(opts.feed.entries, (e) => store.push(e)).then(
+    () => {
+      ended = { kind: 'ended', why: 'end of input' };
+      store.flush();
+      if (!interactive) void shutdown(0);
+    },
+    (e: unknown) => {
+      failure = e;
+      ended = { kind: 'ended', why: (e as Error).message ?? 'failed' };
+      store.flush();
+      if (!interactive) void shutdown(1);
+    },
+  );
+
+  const vmNow = () => {
+    const snap = store.getSnapshot();
+    const feed = status();
+    return buildViewModel({
+      feed,
+      live: snap.live,
+      result: snap.result,
+      rig: snap.rig,
+      now_s: estimateNow(snap, feed, opts.nowMs()),
+      since_s: snap.firstHost_s ?? 0,
+      heartbeatInterval_s: snap.heartbeatInterval_s,
+      paused: false,
+    });
+  };
+
+  if (interactive) {
+    const ink = render(<App store={store} status={status} nowMs={opts.nowMs} onEffect={onEffect} interactive />, {
+      stdout: opts.stdout as NodeJS.WriteStream,
+      stderr: opts.stderr as NodeJS.WriteStream,
+      stdin: opts.stdin as NodeJS.ReadStream,
+      exitOnCtrlC: false,
+      patchConsole: false,
+      maxFps: 10,
+    });
+    unmount = () => {
+      ink.unmount();
+    };
+  } else {
+    plainTimer = opts.timers.setInterval(() => opts.stdout.write(`${plainStatusLine(vmNow())}\n`), (opts.plainEvery_s ?? 5) * 1000);
+  }
+
+  const code = await done;
+  offSignal();
+  if (!interactive) opts.stdout.write(`${plainStatusLine(vmNow())}\n`);
+  void pumping;
+  if (failure) throw failure;
+  return code;
+}

@@ -1,0 +1,233 @@
+// The live screen as data: every label, value and warning formatted from one snapshot (pure, no React).
+import type { AnalysisResult } from '../analysis/result.ts';
+import type { LiveState } from '../pipeline/live-state.ts';
+import type { Rig } from '../../protocol/rig.ts';
+import { periodRatio } from '../analysis/elliptic.ts';
+import { expectsLines, type FeedStatus } from './feed.ts';
+import { formatBytes, formatDuration, formatFixed, formatSpeed, formatWithU } from './format.ts';
+import { gateHint, warningsFor, type ViewWarning } from './warnings.ts';
+
+/** Everything the screen is drawn from. */
+export interface ViewInput {
+  readonly feed: FeedStatus;
+  readonly live: LiveState;
+  readonly result: AnalysisResult;
+  readonly rig: Rig | null;
+  /** Host seconds now on the run's time base (the last line's time, advanced by the wall clock while lines are due). */
+  readonly now_s: number;
+  /** Host seconds of the first line since the estimates were last restarted. */
+  readonly since_s: number;
+  readonly heartbeatInterval_s: number | null;
+  readonly paused: boolean;
+}
+
+/** How a value should stand out. */
+export type Tone = 'normal' | 'good' | 'bad' | 'muted' | 'accent';
+
+export interface StatusItem {
+  readonly label: string;
+  readonly value: string;
+  readonly tone: Tone;
+}
+
+export interface NumberRow {
+  readonly label: string;
+  readonly value: string;
+  readonly unit: string;
+  readonly note?: string;
+  readonly tone: Tone;
+}
+
+export interface HealthItem {
+  readonly label: string;
+  readonly count: number;
+}
+
+export interface PlotData {
+  readonly xs: number[];
+  readonly ys: number[];
+}
+
+export interface ViewModel {
+  readonly title: string;
+  readonly status: readonly StatusItem[];
+  readonly numbers: readonly NumberRow[];
+  readonly health: readonly HealthItem[];
+  readonly warnings: readonly ViewWarning[];
+  /** Measured periods (s) against amplitude (°), and the exact law through T0. */
+  readonly periodPoints: PlotData;
+  readonly periodCurve: PlotData;
+  /** Amplitude (°) against time (min), and the fitted decay. */
+  readonly amplitudePoints: PlotData;
+  readonly amplitudeCurve: PlotData;
+}
+
+const STANDARD_G = 9.80665;
+
+function connectionItem(feed: FeedStatus): StatusItem {
+  const c = feed.connection;
+  switch (c.kind) {
+    case 'simulated':
+      return { label: 'link', value: 'simulated', tone: 'good' };
+    case 'opening':
+      return { label: 'link', value: 'opening port', tone: 'accent' };
+    case 'waiting-hello':
+      return { label: 'link', value: 'waiting for hello', tone: 'accent' };
+    case 'connected':
+      return { label: 'link', value: 'connected', tone: 'good' };
+    case 'reconnecting':
+      return { label: 'link', value: `reconnecting (try ${c.retries})`, tone: 'bad' };
+    case 'following':
+      return { label: 'journal', value: 'following', tone: 'good' };
+    case 'replaying':
+      return { label: 'journal', value: 'replaying', tone: 'good' };
+    case 'ended':
+      return { label: 'link', value: `ended: ${c.why}`, tone: 'muted' };
+  }
+}
+
+/** The period to expect next: T0, else the last period, else one from the rig's length at standard gravity. */
+export function expectedPeriod(live: LiveState, result: AnalysisResult, rig: Rig | null): number | null {
+  if (result.T0_s !== null) return result.T0_s;
+  if (live.periodS !== null) return live.periodS;
+  return rig ? 2 * Math.PI * Math.sqrt(rig.length_m / STANDARD_G) : null;
+}
+
+/** Seconds of true (host) time per nominal device second, from the clock fit; 1 when not known. */
+function clockScale(result: AnalysisResult): number {
+  return result.clock_ppm !== null ? 1 / (1 + result.clock_ppm * 1e-6) : 1;
+}
+
+/** Decay of amplitude by the fitted law dA/dt = −(a0 + a1·A + a2·A²), A in radians, from (t0, A0); RK4 on the plot's own grid. */
+export function decayCurve(fit: { a0: number; a1: number; a2: number }, t0_s: number, a0_deg: number, t1_s: number, steps = 120): PlotData {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  const f = (a: number): number => -(fit.a0 + fit.a1 * a + fit.a2 * a * a);
+  let a = (a0_deg * Math.PI) / 180;
+  const h = (t1_s - t0_s) / steps;
+  for (let i = 0; i <= steps; i++) {
+    xs.push((t0_s + i * h) / 60);
+    ys.push((a * 180) / Math.PI);
+    const k1 = f(a);
+    const k2 = f(a + (h / 2) * k1);
+    const k3 = f(a + (h / 2) * k2);
+    const k4 = f(a + h * k3);
+    a = Math.max(0, a + (h / 6) * (k1 + 2 * k2 + 2 * k3 + k4));
+  }
+  return { xs, ys };
+}
+
+function plots(input: ViewInput): Pick<ViewModel, 'periodPoints' | 'periodCurve' | 'amplitudePoints' | 'amplitudeCurve'> {
+  const { live, result } = input;
+  const k = clockScale(result);
+  const r = live.recent;
+  const periodPoints: PlotData = { xs: [], ys: [] };
+  const amplitudePoints: PlotData = { xs: [], ys: [] };
+  for (let i = 0; i < r.t_s.length; i++) {
+    const a = r.amplitude_deg[i];
+    const p = r.period_s[i];
+    if (a === null || a === undefined) continue;
+    amplitudePoints.xs.push(r.t_s[i]! / 60);
+    amplitudePoints.ys.push(a);
+    if (p !== null && p !== undefined) {
+      periodPoints.xs.push(a);
+      periodPoints.ys.push(p * k);
+    }
+  }
+  const periodCurve: PlotData = { xs: [], ys: [] };
+  if (result.T0_s !== null && periodPoints.xs.length > 0) {
+    const top = Math.max(...periodPoints.xs);
+    for (let i = 0; i <= 60; i++) {
+      const a = (top * 1.05 * i) / 60;
+      periodCurve.xs.push(a);
+      periodCurve.ys.push(result.T0_s * periodRatio((a * Math.PI) / 180));
+    }
+  }
+  const fit = result.damping_fits.find((d) => d.model === result.damping_model);
+  const amplitudeCurve =
+    fit && amplitudePoints.xs.length > 1
+      ? decayCurve(fit, amplitudePoints.xs[0]! * 60, amplitudePoints.ys[0]!, amplitudePoints.xs[amplitudePoints.xs.length - 1]! * 60)
+      : { xs: [], ys: [] };
+  return { periodPoints, periodCurve, amplitudePoints, amplitudeCurve };
+}
+
+/** Builds the screen's data from a snapshot. */
+export function buildViewModel(input: ViewInput): ViewModel {
+  const { feed, live, result, rig } = input;
+  const hello = live.hello;
+  const status: StatusItem[] = [
+    { label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: feed.sourceLabel, tone: 'accent' },
+  ];
+  if (feed.speed !== null) status.push({ label: 'speed', value: formatSpeed(feed.speed), tone: feed.speed === 1 ? 'normal' : 'accent' });
+  status.push({ label: 'device', value: hello ? `fw ${hello.fw}, protocol ${hello.proto}` : 'no hello yet', tone: hello ? 'normal' : 'muted' });
+  status.push(connectionItem(feed));
+  status.push({
+    label: 'clock',
+    value: result.clock_ppm !== null ? `${formatWithU(result.clock_ppm, result.clock_u_ppm, 1).replace(/^(?=\d)/, '+')} ppm` : 'not fitted yet',
+    tone: result.clock_ppm !== null ? 'normal' : 'muted',
+  });
+  status.push({ label: 'run', value: formatDuration(input.now_s), tone: 'normal' });
+  if (feed.journal) status.push({ label: 'file', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal' });
+  else if (feed.sourceKind !== 'watch') status.push({ label: 'file', value: 'not journaled', tone: 'muted' });
+
+  const [h1, h2] = live.halfPeriodsS;
+  const expected = result.expected_g_m_s2;
+  const numbers: NumberRow[] = [
+    { label: 'half-periods', value: `${formatFixed(h1, 5)}  ${formatFixed(h2, 5)}`, unit: 's', tone: 'normal' },
+    { label: 'period', value: formatFixed(live.periodS, 5), unit: 's', tone: 'normal' },
+    { label: 'amplitude', value: formatFixed(live.amplitudeDeg, 2), unit: '°', tone: 'normal' },
+    { label: 'T0', value: formatWithU(result.T0_s, result.T0_u_s, 5), unit: 's', tone: result.T0_s !== null ? 'accent' : 'muted' },
+    { label: 'g', value: formatWithU(result.g_m_s2, result.g_u_m_s2, 4), unit: 'm/s²', tone: result.g_m_s2 !== null ? 'accent' : 'muted' },
+  ];
+  if (expected !== null)
+    numbers.push({
+      label: 'local g',
+      value: formatFixed(expected, 4),
+      unit: 'm/s²',
+      note: result.g_diff_sigma !== null ? `${formatFixed(result.g_diff_sigma, 1, true)}σ` : undefined,
+      tone: result.g_diff_sigma !== null && Math.abs(result.g_diff_sigma) > 2 ? 'bad' : 'normal',
+    });
+  numbers.push({ label: 'Q', value: result.Q !== null ? result.Q.toFixed(0) : '—', unit: '', tone: 'normal' });
+  numbers.push({
+    label: 'gate offset',
+    value: result.gate_offset_m !== null ? formatFixed(result.gate_offset_m * 1000, 1, true) : '—',
+    unit: 'mm',
+    note: gateHint(result.gate_offset_m, result.gate_offset_u_m),
+    tone: 'normal',
+  });
+  numbers.push({ label: 'passes', value: String(Math.max(live.passes, result.passes)), unit: '', tone: 'normal' });
+
+  const c = result.counts.crc_errors + result.counts.bad_lines >= live.counts.crc_errors + live.counts.bad_lines ? result.counts : live.counts;
+  const health: HealthItem[] = [
+    { label: 'line errors', count: c.crc_errors + c.bad_lines },
+    { label: 'lost', count: c.lines_lost },
+    { label: 'drops', count: c.device_lost },
+    { label: 'rejected', count: c.rejected_passes },
+    { label: 'reboots', count: c.reboots },
+    { label: 'disconnects', count: c.disconnects },
+  ];
+
+  const lastPass = live.recent.t_s.length ? live.recent.t_s[live.recent.t_s.length - 1]! : null;
+  const warnings = warningsFor({
+    now_s: input.now_s,
+    lastPass_s: lastPass,
+    since_s: input.since_s,
+    expectedPeriod_s: expectedPeriod(live, result, rig),
+    gateOffset_m: result.gate_offset_m,
+    gateOffset_u_m: result.gate_offset_u_m,
+    budget: result.budget,
+    lastHeartbeat_s: live.heartbeatAgeS !== null && live.lastHostUs !== null ? live.lastHostUs / 1e6 - live.heartbeatAgeS : null,
+    heartbeatInterval_s: input.heartbeatInterval_s,
+    expectingLines: expectsLines(feed.connection),
+    disconnected: feed.connection.kind === 'reconnecting',
+  });
+
+  return {
+    title: `halfswing ${feed.sourceKind}${input.paused ? ' · display paused' : ''}`,
+    status,
+    numbers,
+    health,
+    warnings,
+    ...plots(input),
+  };
+}
