@@ -7,10 +7,15 @@ export function signed(s: string): string {
   return s.replace(/^-/, MINUS);
 }
 
-/** Decimal places that show `u` to `sig` significant figures (0 or more). */
+/** Decimal places that show `u` to `sig` significant figures (negative: round to tens, hundreds…). */
 export function decimalsFor(u: number, sig = 2): number {
   if (!(u > 0) || !Number.isFinite(u)) return 0;
-  return Math.max(0, sig - 1 - Math.floor(Math.log10(u)));
+  return sig - 1 - Math.floor(Math.log10(u));
+}
+
+/** `v` rounded at `d` decimals where d may be negative (d = −1 rounds to tens). */
+function place(v: number, d: number): string {
+  return d >= 0 ? fixed(v, d) : fixed(Math.round(v / 10 ** -d) * 10 ** -d, 0);
 }
 
 /** `v` with `d` decimals, typographic minus, "−0" shown as "0". */
@@ -23,7 +28,7 @@ export function fixed(v: number, d: number): string {
 export function valueU(v: number, u: number | null): { value: string; u: string | null } {
   if (u === null || !(u > 0) || !Number.isFinite(u)) return { value: sig(v, 6), u: null };
   const d = decimalsFor(u, 2);
-  return { value: fixed(v, d), u: fixed(u, d) };
+  return { value: place(v, d), u: place(u, d) };
 }
 
 /** `v` to `n` significant figures, plain decimal notation. */

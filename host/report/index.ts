@@ -1,24 +1,23 @@
 // The HTML run report: one self-contained XHTML-compatible page (inline CSS and SVG, no script, no network)
 // drawn from the same AnalysisResult that `analyze --json` prints.
 import type { AnalysisResult } from '../analysis/result.ts';
+import { periodRatio } from '../analysis/elliptic.ts';
 import { esc } from './escape.ts';
 import { headerSection } from './header-section.ts';
 import { notesSection } from './notes-section.ts';
-import { periodRatio } from './period-law.ts';
 import { amplitudePlot, qPlot } from './plots/damping-plots.ts';
 import { figure } from './plots/figure.ts';
 import { periodPlot } from './plots/period-plot.ts';
 import { alternationPlot, clockPlot, gRunningPlot } from './plots/timing-plots.ts';
 import type { ReportMeta } from './report-meta.ts';
 import { detailsTable, missingSection, resultBox } from './result-section.ts';
-import { seriesOf } from './series.ts';
 import { STYLES } from './styles.ts';
 import { budgetTable, correctionsTable, countsSection, warningsSection } from './tables-section.ts';
 
 export type { ReportMeta } from './report-meta.ts';
 
 function plotsSection(r: AnalysisResult): string {
-  const s = seriesOf(r);
+  const s = r.plots;
   const gate = r.gate_offset_m !== null ? ` The mean difference corresponds to a gate offset of ${(r.gate_offset_m * 1000).toFixed(2)} mm.` : '';
   const clock = r.clock_ppm !== null ? ` The fitted rate error is ${r.clock_ppm.toFixed(1)} ppm.` : '';
   // The log-axis option works without script: a checkbox whose :checked state swaps the two drawings by CSS.

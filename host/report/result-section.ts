@@ -2,7 +2,7 @@
 // secondary results (B, C, gate offset, amplitudes, Q) and what could not be computed and why.
 import type { AnalysisResult } from '../analysis/result.ts';
 import { esc } from './escape.ts';
-import { fixed, sig, valueU } from './format.ts';
+import { duration, fixed, sig, valueU } from './format.ts';
 import { modelName } from './plots/damping-plots.ts';
 
 /** A number with its key, so a reader (and the tests) can tie it to the `--json` field it shows. */
@@ -59,8 +59,10 @@ export function resultBox(r: AnalysisResult): string {
 export function detailsTable(r: AnalysisResult): string {
   const rows: [string, string, string][] = [];
   const add = (k: string, v: string, ref = ''): void => void rows.push([k, v, ref]);
-  add('B (θ0² coefficient)', r.B !== null ? pm(r.B, r.B_u, 'B', 'B_u') : missing, 'simple pendulum: 1/16 = 0.0625');
-  add('C (θ0⁴ coefficient)', r.C !== null ? pm(r.C, r.C_u, 'C', 'C_u') : missing, 'simple pendulum: 11/3072 ≈ 0.003581');
+  add('B (θ0² coefficient)', r.B !== null ? pm(r.B, r.B_u, 'B', 'B_u') : missing, `simple pendulum: 1/16 = ${sig(r.B_theory, 4)}`);
+  add('C (θ0⁴ coefficient)', r.C !== null ? pm(r.C, r.C_u, 'C', 'C_u') : missing, `simple pendulum: 11/3072 ≈ ${sig(r.C_theory, 4)}`);
+  add('T0 of that fit', r.T0_fit_s !== null ? `${num('T0_fit_s', sig(r.T0_fit_s, 8))} s` : missing, 'its intercept; compare with T0 above');
+  add('effective length L_eff', r.L_eff_m !== null ? `${num('L_eff_m', sig(r.L_eff_m, 6))} m` : missing, 'pivot to centre of oscillation, after corrections');
   add('gate offset from the lowest point', r.gate_offset_m !== null ? `${pm(r.gate_offset_m, r.gate_offset_u_m, 'gate_offset_mm', 'gate_offset_u_mm', 1000)} mm` : missing, 'positive: toward the release side');
   add(
     'amplitude, first → last swing',
@@ -68,8 +70,17 @@ export function detailsTable(r: AnalysisResult): string {
       ? `${num('amplitude_start_deg', fixed(r.amplitude_start_deg, 2))}° → ${num('amplitude_end_deg', fixed(r.amplitude_end_deg, 2))}°`
       : missing,
   );
-  add('Q at the median amplitude', r.Q !== null ? num('Q', sig(r.Q, 4)) : missing);
+  add('Q at the median amplitude', r.Q !== null ? (r.Q_u !== null ? pm(r.Q, r.Q_u, 'Q', 'Q_u') : num('Q', sig(r.Q, 4))) : missing, r.median_amplitude_deg !== null ? `median amplitude ${fixed(r.median_amplitude_deg, 2)}°` : '');
+  add('amplitude time constant', r.damping_tau_s !== null ? `${num('damping_tau_s', sig(r.damping_tau_s, 3))} s` : missing, 'A / |dA/dt| at the median amplitude');
   add('damping model chosen', r.damping_model !== null ? esc(modelName(r.damping_model)) : missing, 'lowest criterion score among the fits');
+  if (r.clock_drift_ppm_per_h !== null) add('clock drift', `${num('clock_drift_ppm_per_h', sig(r.clock_drift_ppm_per_h, 2))} ppm/h`, r.clock_span_s !== null ? `over ${duration(r.clock_span_s)} of heartbeats` : '');
+  const sens = r.amplitude_sensitivity;
+  if (sens !== null)
+    add(
+      'amplitude sensitivity',
+      `${esc(sig(sens.per_width_deg_per_mm, 2))}°/mm of flag width; ${esc(sig(sens.per_delay_difference_deg_per_us, 2))}°/µs of sensor delay difference`,
+      `at ${fixed(sens.at_amplitude_deg, 1)}°`,
+    );
   add('passes used / full periods', `${num('passes', String(r.passes))} / ${num('periods', String(r.periods))}`);
   return (
     `<section id="details"><h2>Further results</h2><table class="tbl"><tbody>` +

@@ -57,6 +57,12 @@ const COUNT_LABELS: Record<keyof RunCounts, string> = {
   reboots: 'device restarts',
   disconnects: 'disconnects',
   unknown_kinds: 'records of unknown kind',
+  glitches: 'glitches dropped',
+  bounces: 'bounces merged',
+  edge_resyncs: 'edge sequences resynchronised',
+  unsequenced_passes: 'passes too few to start a beat',
+  long_gaps: 'gaps too long to bridge',
+  malformed_journal_lines: 'malformed journal lines',
 };
 
 /** The fault and health counts, non-zero ones marked. */

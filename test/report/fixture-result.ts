@@ -1,7 +1,7 @@
 // A synthetic analysis result for rendering tests (input only; the end-to-end test uses the simulator instead).
 import type { AnalysisResult } from '../../host/analysis/result.ts';
 import type { Rig } from '../../protocol/rig.ts';
-import { periodRatio } from '../../host/report/period-law.ts';
+import { periodRatio } from '../../host/analysis/elliptic.ts';
 
 const DEG = Math.PI / 180;
 
@@ -22,7 +22,7 @@ export function syntheticResult(over: Partial<AnalysisResult> = {}, n = 300, a0D
     time += T;
   }
   const g = (4 * Math.PI ** 2 * 1.0) / T0 ** 2;
-  const base: AnalysisResult & { series: unknown } = {
+  const base: AnalysisResult = {
     T0_s: T0,
     T0_u_s: 3.1e-6,
     g_m_s2: g,
@@ -46,7 +46,7 @@ export function syntheticResult(over: Partial<AnalysisResult> = {}, n = 300, a0D
     ],
     passes: 2 * n,
     periods: n,
-    counts: { crc_errors: 2, bad_lines: 0, lines_lost: 3, device_lost: 0, rejected_passes: 1, bridged_gaps: 1, reboots: 0, disconnects: 0, unknown_kinds: 0 },
+    counts: { crc_errors: 2, bad_lines: 0, lines_lost: 3, device_lost: 0, rejected_passes: 1, bridged_gaps: 1, reboots: 0, disconnects: 0, unknown_kinds: 0, glitches: 4, bounces: 0, edge_resyncs: 0, unsequenced_passes: 0, long_gaps: 0, malformed_journal_lines: 0 },
     budget: [
       { name: 'length L', u_rel_g: 0.001, note: 'L = 1.0000 m, u = 1.0 mm' },
       { name: 'timing', u_rel_g: 3.1e-6, note: 'from the scatter of periods' },
@@ -60,12 +60,25 @@ export function syntheticResult(over: Partial<AnalysisResult> = {}, n = 300, a0D
     g_diff_sigma: (g - 9.8105) / 0.00123,
     warnings: ['a short run: the clock rate is uncertain'],
     run: { start_iso: '2026-03-14T09:30:00.000Z', duration_s: time, source: 'sim: scenario classroom', firmware: 'halfswing-fw 1.0', hz_nominal: 2e6 },
-    series: {
+    T0_fit_s: T0 * 1.000001,
+    B_theory: 1 / 16,
+    C_theory: 11 / 3072,
+    Q_u: 12,
+    damping_tau_s: tau,
+    median_amplitude_deg: amp[Math.floor(n / 2)]!,
+    clock_drift_ppm_per_h: 0.05,
+    clock_span_s: time,
+    L_eff_m: 1.00009,
+    amplitude_sensitivity: { at_amplitude_deg: 21, per_width_deg_per_mm: 0.7, per_delay_difference_deg_per_us: 0.002 },
+    settings: { glitch_s: 0.0002, bounce_s: 0.0005 },
+    swings: [],
+    plots: {
       periodVsAmplitude: { amplitude_deg: amp, period_s: per },
       amplitudeVsTime: { t_s: t, amplitude_deg: amp },
       halfPeriodAlternation: { t_s: t, diff_s: amp.map((a, i) => (i % 2 ? 1 : -1) * (4 * 0.0004) / (Math.PI * a * DEG) / 2) },
       clockResiduals: { host_s: t.filter((_, i) => i % 5 === 0), residual_s: t.filter((_, i) => i % 5 === 0).map((_, i) => 2e-4 * Math.abs(Math.sin(i * 7.1)) ** 3) },
       gRunning: { t_s: t.slice(5), g: t.slice(5).map((_, i) => g + 0.01 / (i + 1)), g_u: t.slice(5).map((_, i) => 0.00123 * Math.sqrt(300 / (i + 6))) },
+      qVsAmplitude: { amplitude_deg: [28, 24, 20, 17], Q: [1390, 1420, 1401, 1415] },
     },
   };
   return { ...base, ...over };

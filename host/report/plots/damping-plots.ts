@@ -1,8 +1,7 @@
 // Figures: amplitude against time with the damping fits (linear and log axes), and Q against amplitude.
-import type { AnalysisResult, DampingFit } from '../../analysis/result.ts';
+import type { AnalysisResult, DampingFit, PlotSeries } from '../../analysis/result.ts';
 import { renderChart, type SeriesSpec, type Tone } from '../svg/chart.ts';
 import type { ScaleKind } from '../svg/scale.ts';
-import type { ReportSeries } from '../series.ts';
 import { dampingCurve, qOfAmplitude } from './damping-curve.ts';
 import { linspace, noData, timeUnit } from './figure.ts';
 
@@ -20,11 +19,10 @@ export function modelName(m: DampingFit['model']): string {
 
 const DASHES = ['', '8 4', '3 3', '10 3 2 3'];
 
-function finitePoints(s: ReportSeries): { t: number[]; a: number[] } {
+function finitePoints(s: PlotSeries): { t: number[]; a: number[] } {
   const at = s.amplitudeVsTime;
   const t: number[] = [];
   const a: number[] = [];
-  if (!at) return { t, a };
   for (let i = 0; i < Math.min(at.t_s.length, at.amplitude_deg.length); i++) {
     if (Number.isFinite(at.t_s[i]!) && Number.isFinite(at.amplitude_deg[i]!)) {
       t.push(at.t_s[i]!);
@@ -40,7 +38,7 @@ function orderedFits(r: AnalysisResult): DampingFit[] {
 }
 
 /** Amplitude against time on a linear or a log amplitude axis. */
-export function amplitudePlot(r: AnalysisResult, s: ReportSeries, yScale: ScaleKind): string {
+export function amplitudePlot(r: AnalysisResult, s: PlotSeries, yScale: ScaleKind): string {
   const { t, a } = finitePoints(s);
   if (t.length === 0) return noData('no amplitudes: amplitude comes from each pass’s transit time, so the run needs complete passes and the rig’s flag width.');
   const tu = timeUnit(Math.max(...t));
@@ -66,22 +64,20 @@ export function amplitudePlot(r: AnalysisResult, s: ReportSeries, yScale: ScaleK
 }
 
 /** Q against amplitude: the chosen fit's curve, measured points when given, and the headline Q at the median amplitude. */
-export function qPlot(r: AnalysisResult, s: ReportSeries): string {
+export function qPlot(r: AnalysisResult, s: PlotSeries): string {
   const { a } = finitePoints(s);
   const fit = r.damping_fits.find((f) => f.model === r.damping_model);
-  const measured = s.qVsAmplitude;
+  const measured = s.qVsAmplitude.Q.length > 0 ? s.qVsAmplitude : null;
   if ((!fit || r.T0_s === null || a.length < 2) && !measured) return noData('no damping fit: Q needs amplitudes over enough swings to see them decay.');
   const series: SeriesSpec[] = [];
-  if (measured) series.push({ kind: 'points', label: 'from neighbouring swings', x: measured.amplitude_deg, y: measured.Q, shape: 'square', tone: 3 });
+  if (measured) series.push({ kind: 'points', label: 'measured in windows of the run', x: measured.amplitude_deg, y: measured.Q, shape: 'square', tone: 3 });
   if (fit && r.T0_s !== null && a.length >= 2) {
     const T0 = r.T0_s;
     const grid = linspace(Math.min(...a), Math.max(...a), 100);
     series.push({ kind: 'line', label: `${modelName(fit.model)} fit`, x: grid, y: grid.map((v) => qOfAmplitude(fit, T0, v)), tone: 2 });
   }
-  if (r.Q !== null && a.length > 0) {
-    const sorted = [...a].sort((x, y) => x - y);
-    const med = sorted[Math.floor((sorted.length - 1) / 2)]! / 2 + sorted[Math.ceil((sorted.length - 1) / 2)]! / 2;
-    series.push({ kind: 'points', label: 'Q at the median amplitude', x: [med], y: [r.Q], shape: 'diamond', tone: 1 });
+  if (r.Q !== null && r.median_amplitude_deg !== null) {
+    series.push({ kind: 'points', label: 'Q at the median amplitude', x: [r.median_amplitude_deg], y: [r.Q], shape: 'diamond', tone: 1 });
   }
   return renderChart({ id: 'q', title: 'Quality factor against amplitude', xLabel: 'amplitude θ0 (degrees)', panels: [{ yLabel: 'Q', series }], plotHeight: 240 });
 }

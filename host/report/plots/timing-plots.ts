@@ -1,13 +1,12 @@
 // Figures: half-period alternation (the gate's offset from the lowest point), clock residuals, running g.
-import type { AnalysisResult } from '../../analysis/result.ts';
+import type { AnalysisResult, PlotSeries } from '../../analysis/result.ts';
 import { renderChart, type SeriesSpec } from '../svg/chart.ts';
-import type { ReportSeries } from '../series.ts';
 import { maxAbs, noData, smallTimeUnit, timeUnit } from './figure.ts';
 
 /** Difference of consecutive half-periods over time; a constant non-zero level means the gate is off centre. */
-export function alternationPlot(s: ReportSeries): string {
+export function alternationPlot(s: PlotSeries): string {
   const h = s.halfPeriodAlternation;
-  if (!h || h.t_s.length === 0) return noData('no half-periods: the run needs consecutive passes in both directions.');
+  if (h.t_s.length === 0) return noData('no half-periods: the run needs consecutive passes in both directions.');
   const tu = timeUnit(maxAbs(h.t_s));
   const u = smallTimeUnit(maxAbs(h.diff_s));
   return renderChart({
@@ -29,9 +28,9 @@ export function alternationPlot(s: ReportSeries): string {
 }
 
 /** Heartbeat arrival delay after the fitted lower-envelope line, against host time. */
-export function clockPlot(r: AnalysisResult, s: ReportSeries): string {
+export function clockPlot(r: AnalysisResult, s: PlotSeries): string {
   const c = s.clockResiduals;
-  if (!c || c.host_s.length === 0)
+  if (c.host_s.length === 0)
     return noData(r.clock_source === 'host' ? 'no heartbeats with host receive times in the journal.' : `the clock correction is ${r.clock_source}, not fitted from heartbeats.`);
   const tu = timeUnit(maxAbs(c.host_s));
   const u = smallTimeUnit(maxAbs(c.residual_s));
@@ -43,9 +42,9 @@ export function clockPlot(r: AnalysisResult, s: ReportSeries): string {
 }
 
 /** The running estimate of g with its expanded (k = 2) band, and the expected local g when known. */
-export function gRunningPlot(r: AnalysisResult, s: ReportSeries): string {
+export function gRunningPlot(r: AnalysisResult, s: PlotSeries): string {
   const g = s.gRunning;
-  if (!g || g.t_s.length === 0) return noData('no running estimate of g: it needs T0, so enough full periods, and the rig’s length.');
+  if (g.t_s.length === 0) return noData('no running estimate of g: it needs T0, so enough full periods, and the rig’s length.');
   const tu = timeUnit(maxAbs(g.t_s));
   const x = g.t_s.map((v) => v / tu.div);
   const series: SeriesSpec[] = [

@@ -40,7 +40,8 @@ export function linearTicks(lo: number, hi: number, count = 5): { ticks: number[
 export function logTicks(lo: number, hi: number): number[] {
   const d0 = Math.floor(Math.log10(lo));
   const d1 = Math.ceil(Math.log10(hi));
-  const mantissas = d1 - d0 > 4 ? [1] : d1 - d0 > 2 ? [1, 3] : [1, 2, 5];
+  const decades = Math.log10(hi / lo);
+  const mantissas = decades > 5 ? [1] : decades > 2.5 ? [1, 3] : [1, 2, 5];
   const out: number[] = [];
   for (let d = d0; d <= d1; d++) {
     for (const m of mantissas) {

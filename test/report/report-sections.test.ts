@@ -1,0 +1,108 @@
+import { describe, expect, it } from 'vitest';
+import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import { renderReport, type ReportMeta } from '../../host/report/index.ts';
+import type { AnalysisResult } from '../../host/analysis/result.ts';
+import { syntheticResult, syntheticRig } from './fixture-result.ts';
+import { expectReportMatchesJson } from './report-numbers.ts';
+
+const meta: ReportMeta = { journalName: 'bench-a.journal', journalSha256: 'c0ffee'.padEnd(64, '0'), rig: syntheticRig, csvName: 'bench-a.csv' };
+
+const SECTIONS = ['run', 'rig', 'result', 'details', 'plots', 'fig-period', 'fig-amplitude', 'fig-q', 'fig-alternation', 'fig-clock', 'fig-g', 'budget', 'corrections', 'counts', 'warnings', 'footer'];
+
+const emptyPlots: AnalysisResult['plots'] = {
+  periodVsAmplitude: { amplitude_deg: [], period_s: [] },
+  amplitudeVsTime: { t_s: [], amplitude_deg: [] },
+  halfPeriodAlternation: { t_s: [], diff_s: [] },
+  clockResiduals: { host_s: [], residual_s: [] },
+  gRunning: { t_s: [], g: [], g_u: [] },
+  qVsAmplitude: { amplitude_deg: [], Q: [] },
+};
+
+/** A result of a run too short for any fit: two passes, nothing computed. */
+function tooShort(): AnalysisResult {
+  return syntheticResult({
+    T0_s: null, T0_u_s: null, g_m_s2: null, g_u_m_s2: null, clock_ppm: null, clock_u_ppm: null, gate_offset_m: null, gate_offset_u_m: null,
+    B: null, B_u: null, C: null, C_u: null, amplitude_start_deg: null, amplitude_end_deg: null, Q: null, Q_u: null, damping_model: null, damping_fits: [],
+    passes: 2, periods: 0, budget: [], corrections: [], g_diff_sigma: null, T0_fit_s: null, damping_tau_s: null, median_amplitude_deg: null,
+    clock_drift_ppm_per_h: null, clock_span_s: null, L_eff_m: null, amplitude_sensitivity: null, plots: emptyPlots,
+    warnings: ['only 2 passes: too few for a period'],
+  });
+}
+
+describe('report page', () => {
+  const html = renderReport(syntheticResult(), meta);
+
+  it('is well-formed XML (XHTML-compatible) and needs no script or network', () => {
+    expect(XMLValidator.validate(html)).toBe(true);
+    expect(html).not.toMatch(/<script|<link|<img|<iframe|@import|url\((?!#)/i);
+    // The only URLs are XML namespace names, which are never fetched.
+    const urls = [...html.matchAll(/https?:\/\/[^\s"'<]+/g)].map((m) => m[0]);
+    expect(new Set(urls)).toEqual(new Set(['http://www.w3.org/1999/xhtml', 'http://www.w3.org/2000/svg']));
+  });
+
+  it('has every section, six figures and seven charts (amplitude twice: linear and log)', () => {
+    for (const id of SECTIONS) expect(html, id).toContain(`id="${id}"`);
+    expect(html.match(/<figure /g)).toHaveLength(6);
+    expect(html.match(/<svg xmlns="http:\/\/www.w3.org\/2000\/svg" class="chart"/g)).toHaveLength(7);
+    expect(html).toContain('<a href="bench-a.csv"');
+    expect(html).not.toContain('id="missing"');
+  });
+
+  it('shows the same numbers as the JSON of the same result, to the precision shown', () => {
+    const json = JSON.parse(JSON.stringify(syntheticResult())) as Record<string, unknown>;
+    expect(expectReportMatchesJson(html, json)).toBeGreaterThan(30);
+  });
+
+  it('escapes every string from the journal and the rig', () => {
+    const evil = '<script>alert(1)</script> & "q" \u0007';
+    const r = syntheticResult({ warnings: [`warn ${evil}`], run: { ...syntheticResult().run, source: `src ${evil}`, firmware: `fw ${evil}` } });
+    const page = renderReport(r, { ...meta, journalName: `j ${evil}`, rig: { ...syntheticRig, name: `rig ${evil}` }, csvName: `c ${evil}.csv` });
+    expect(XMLValidator.validate(page)).toBe(true);
+    expect(page).not.toContain('<script>');
+    const text = JSON.stringify(new XMLParser({ htmlEntities: true, processEntities: true }).parse(page));
+    for (const p of ['warn', 'src', 'fw', 'rig', 'j']) expect(text).toContain(`${p} <script>alert(1)</script> & \\"q\\" \ufffd`);
+  });
+
+  it('a run too short for any fit still gives a valid page that says what is missing', () => {
+    const r = tooShort();
+    const page = renderReport(r, meta);
+    expect(XMLValidator.validate(page)).toBe(true);
+    for (const id of SECTIONS) expect(page, id).toContain(`id="${id}"`);
+    expect(page).toContain('id="missing"');
+    expect(page).toContain('T0: needs full periods from every second pass; this journal gave 2 valid passes and 0 periods.');
+    expect(page).toContain('B and C:');
+    expect(page.match(/class="nodata"/g)!.length).toBeGreaterThanOrEqual(6);
+    expect(page).not.toContain('class="chart"');
+    expect(page).toContain('only 2 passes: too few for a period');
+    expectReportMatchesJson(page, JSON.parse(JSON.stringify(r)));
+  });
+
+  it('without a rig it says which file to give', () => {
+    const page = renderReport(tooShort(), { ...meta, rig: null, csvName: null });
+    expect(page).toContain('No rig description');
+    expect(page).toContain('--csv FILE');
+    expect(XMLValidator.validate(page)).toBe(true);
+  });
+});
+
+describe('notes', () => {
+  it('a large release angle brings the exact-law note; 1.7 % at 30°', () => {
+    // 2K(sin 15°)/π = 1.017408, from K(15°) = 1.5981420021 (Abramowitz & Stegun Table 17.5, recalled from memory).
+    const page = renderReport(syntheticResult({}, 300, 30), meta);
+    expect(page.includes('at 30.0° the period is 1.7 % longer')).toBe(true);
+    expect(page.includes('<li class="note-safety"')).toBe(false);
+  });
+
+  it('a release beyond 45° adds the safety caution with the speed at the bottom', () => {
+    const r = syntheticResult({}, 100, 60);
+    const page = renderReport(r, meta);
+    // v = √(2gL(1 − cos 60°)) = √(9.81) ≈ 3.1 m/s for L = 1 m (energy conservation).
+    expect(page).toContain('passes the gate at about 3.1 m/s');
+    expect(page).toContain('qualified supervision');
+  });
+
+  it('small amplitudes and a centred gate bring no notes at all', () => {
+    const page = renderReport(syntheticResult({ gate_offset_m: 0.0002 }, 300, 8), meta);
+    expect(page.includes('id="notes"')).toBe(false);
+  });
+});
