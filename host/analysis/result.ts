@@ -17,6 +17,18 @@ export interface RunCounts {
   /** `disconnect` annotations in the journal. */
   readonly disconnects: number;
   readonly unknown_kinds: number;
+  /** Blocked intervals shorter than the glitch width, dropped. */
+  readonly glitches: number;
+  /** Unblocked gaps shorter than the bounce gap, merged into one transit. */
+  readonly bounces: number;
+  /** Mismatched edge sequences (two block starts in a row, or an end without a start) that were resynchronised. */
+  readonly edge_resyncs: number;
+  /** Passes too few in a boot to start a beat, left out without blame. */
+  readonly unsequenced_passes: number;
+  /** Gaps longer than the bridging limit (they start a new segment). */
+  readonly long_gaps: number;
+  /** Journal lines that are not journal format (malformed). */
+  readonly malformed_journal_lines: number;
 }
 
 /** One line of the uncertainty budget: the relative standard uncertainty this input contributes to g. */
@@ -70,6 +82,17 @@ export interface PlotSeries {
   readonly halfPeriodAlternation: { readonly t_s: number[]; readonly diff_s: number[] };
   readonly clockResiduals: { readonly host_s: number[]; readonly residual_s: number[] };
   readonly gRunning: { readonly t_s: number[]; readonly g: number[]; readonly g_u: number[] };
+  /** Q measured in windows of the run, against the window's mean amplitude. */
+  readonly qVsAmplitude: { readonly amplitude_deg: number[]; readonly Q: number[] };
+}
+
+/** How sensitive the amplitude is to the inputs of the transit-time solution, at the run's median amplitude. */
+export interface AmplitudeSensitivityReport {
+  readonly at_amplitude_deg: number;
+  /** dθ0/dw, degrees per millimetre of flag width. */
+  readonly per_width_deg_per_mm: number;
+  /** dθ0/dΔ, degrees per microsecond of (blocking − unblocking) sensor delay difference. */
+  readonly per_delay_difference_deg_per_us: number;
 }
 
 /** The whole analysis of a journal (or of the lines seen so far, live). */
@@ -102,6 +125,25 @@ export interface AnalysisResult {
   /** (g − expected) / combined standard uncertainty, when the expected g is known. */
   readonly g_diff_sigma: number | null;
   readonly warnings: readonly string[];
+  /** T0 of the fit T = T0(1 + Bθ0² + Cθ0⁴), for comparison with the exact reduction. */
+  readonly T0_fit_s: number | null;
+  /** The simple-pendulum values B = 1/16 and C = 11/3072, for comparison. */
+  readonly B_theory: number;
+  readonly C_theory: number;
+  readonly Q_u: number | null;
+  /** Amplitude time constant A/|dA/dt| at the median amplitude. */
+  readonly damping_tau_s: number | null;
+  readonly median_amplitude_deg: number | null;
+  readonly clock_drift_ppm_per_h: number | null;
+  readonly clock_span_s: number | null;
+  readonly L_eff_m: number | null;
+  readonly amplitude_sensitivity: AmplitudeSensitivityReport | null;
+  /** Edge cleaning settings used, seconds. */
+  readonly settings: { readonly glitch_s: number; readonly bounce_s: number };
+  /** One row per pass (rejected ones flagged), in time order. Not part of `analyze --json`. */
+  readonly swings: readonly SwingRow[];
+  /** Downsampled series for plots (≤ ~2000 points each). */
+  readonly plots: PlotSeries;
   readonly run: {
     readonly start_iso: string | null;
     readonly duration_s: number;

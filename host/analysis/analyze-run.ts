@@ -1,0 +1,325 @@
+// From numbered passes to the full analysis: periods, amplitudes, T0, B and C, gate offset, damping, g and budget.
+import type { Rig } from '../../protocol/rig.ts';
+import { fitDamping, qualityFactor } from './damping.ts';
+import { periodRatio } from './elliptic.ts';
+import { gateOffset } from './gate-offset.ts';
+import { normalGravityAtHeight } from './normal-gravity.ts';
+import { pendulumModel } from './pendulum-corrections.ts';
+import { fitPeriodLaw, reducePeriods, robustMean } from './period-law.ts';
+import type { AnalysisResult, BudgetLine, PlotSeries, RunCounts, SwingRow } from './result.ts';
+import { batchMeansStdError, median } from './stats.ts';
+import { amplitudeFromTransit, amplitudeSensitivity, blockHalfAngle } from './transit-amplitude.ts';
+import { combineBudget } from './uncertainty-budget.ts';
+
+const DEG = 180 / Math.PI;
+
+/** Passes after sequencing (see host/pipeline/pass-sequencing.ts), parallel arrays. */
+export interface SequencedPasses {
+  /** Pass time, s since the journal start (device clock corrected, boots joined on the host clock). */
+  readonly t: ArrayLike<number>;
+  /** Transit time, s (device clock corrected). */
+  readonly transit: ArrayLike<number>;
+  readonly index: ArrayLike<number>;
+  readonly segment: ArrayLike<number>;
+  /** 0 valid, 1 rejected for transit, 2 rejected for timing, 3 unsequenced. */
+  readonly status: ArrayLike<number>;
+  readonly bridgedBefore: ArrayLike<number>;
+}
+
+/** The clock correction that was applied to the pass times. */
+export interface ClockApplied {
+  readonly source: AnalysisResult['clock_source'];
+  readonly ppm: number;
+  readonly u_ppm: number;
+  /** Null when the rate was not measured (nominal or given). */
+  readonly measured: boolean;
+  readonly drift_ppm_per_h: number | null;
+  readonly span_s: number | null;
+  readonly residuals: { readonly host_s: number[]; readonly residual_s: number[] };
+}
+
+/** Everything the analysis needs. */
+export interface RunData {
+  readonly rig: Rig | null;
+  readonly passes: SequencedPasses;
+  readonly clock: ClockApplied;
+  readonly counts: RunCounts;
+  readonly run: AnalysisResult['run'];
+  readonly warnings: readonly string[];
+  readonly settings: AnalysisResult['settings'];
+  /** Standard uncertainty of the sensor's blocking − unblocking delay difference, s (default 5 µs). */
+  readonly delayDifferenceU_s?: number;
+}
+
+/** Every `step`-th element, so plots stay ≤ ~max points. */
+function thin<T>(xs: readonly T[], max = 2000): T[] {
+  if (xs.length <= max) return [...xs];
+  const step = xs.length / max;
+  const out: T[] = [];
+  for (let k = 0; k < max; k++) out.push(xs[Math.floor(k * step)]!);
+  return out;
+}
+
+const finiteOrNull = (v: number | null | undefined): number | null => (v !== null && v !== undefined && Number.isFinite(v) ? v : null);
+
+/** Runs the analysis; total over partial data (nulls and warnings, never throws for thin data). */
+export function analyzeRun(d: RunData): AnalysisResult {
+  const warnings = [...d.warnings];
+  const p = d.passes;
+  const n = p.t.length;
+  const rig = d.rig;
+
+  // Half-periods and full periods (from the pass two numbers back, so a gate offset cancels to first order).
+  const half = new Float64Array(n).fill(NaN);
+  const period = new Float64Array(n).fill(NaN);
+  const periodStart = new Int32Array(n).fill(-1);
+  const periodMid = new Int32Array(n).fill(-1);
+  let prev1 = -1;
+  let prev2 = -1;
+  let validCount = 0;
+  for (let c = 0; c < n; c++) {
+    if (p.index[c]! < 0) continue;
+    validCount++;
+    const idx = p.index[c]!;
+    if (prev1 >= 0 && p.segment[prev1] !== p.segment[c]) prev1 = prev2 = -1;
+    if (prev2 >= 0 && p.segment[prev2] !== p.segment[c]) prev2 = -1;
+    if (prev1 >= 0 && p.index[prev1] === idx - 1) half[c] = p.t[c]! - p.t[prev1]!;
+    const a = prev1 >= 0 && p.index[prev1] === idx - 2 ? prev1 : prev2 >= 0 && p.index[prev2] === idx - 2 ? prev2 : -1;
+    if (a >= 0) {
+      period[c] = p.t[c]! - p.t[a]!;
+      periodStart[c] = a;
+      periodMid[c] = prev1 >= 0 && p.index[prev1] === idx - 1 ? prev1 : -1;
+    }
+    prev2 = prev1;
+    prev1 = c;
+  }
+  const pIdx: number[] = [];
+  for (let c = 0; c < n; c++) if (Number.isFinite(period[c]!)) pIdx.push(c);
+  const P = Float64Array.from(pIdx, (c) => period[c]!);
+
+  // Amplitudes (exact transit-time solution) and the zero-amplitude period, iterated since ω0 = 2π/T0.
+  const amp = new Float64Array(n).fill(NaN);
+  const pAmp = new Float64Array(pIdx.length).fill(NaN);
+  let T0: number | null = P.length ? median(P) : null;
+  let P0: Float64Array = P;
+  let clipped = 0;
+  const phiB = rig ? blockHalfAngle(rig.flag_width_m, rig.length_m) : NaN;
+  const fillAmplitudes = (t0: number): void => {
+    const omega0 = (2 * Math.PI) / t0;
+    for (let c = 0; c < n; c++) amp[c] = p.index[c]! >= 0 ? amplitudeFromTransit(p.transit[c]!, phiB, omega0) : NaN;
+    for (let k = 0; k < pIdx.length; k++) {
+      const c = pIdx[k]!;
+      const a = periodStart[c]!;
+      const m = periodMid[c]!;
+      pAmp[k] = m >= 0 ? 0.25 * (amp[a]! + 2 * amp[m]! + amp[c]!) : 0.5 * (amp[a]! + amp[c]!);
+    }
+  };
+  if (T0 !== null && rig) {
+    for (let iter = 0; iter < 3; iter++) {
+      fillAmplitudes(T0);
+      P0 = reducePeriods(P, pAmp);
+      const rm = robustMean(P0);
+      clipped = rm.clipped;
+      if (Number.isFinite(rm.mean)) T0 = rm.mean;
+    }
+  } else if (T0 !== null) {
+    const rm = robustMean(P);
+    clipped = rm.clipped;
+    T0 = rm.mean;
+    warnings.push('no rig description: amplitudes, the reduction to zero amplitude and g are not available (give --rig FILE)');
+  }
+  if (clipped > 0) warnings.push(`${clipped} period(s) far from the rest were left out of T0`);
+  if (T0 === null) warnings.push(validCount === 0 ? 'no valid passes: nothing to analyse' : 'fewer than three passes in a row: no full period yet');
+
+  // Amplitudes of valid passes in time order, for the start/end values and damping.
+  const ampT: number[] = [];
+  const ampA: number[] = [];
+  for (let c = 0; c < n; c++) if (Number.isFinite(amp[c]!)) ampT.push(p.t[c]!), ampA.push(amp[c]!);
+  if (rig && T0 !== null && validCount > 0 && ampA.length < validCount)
+    warnings.push(`${validCount - ampA.length} pass(es) had a transit no amplitude explains (longer than a swing that just clears the beam: check flag_width_m and length_m)`);
+
+  const damping = T0 !== null && ampA.length ? fitDamping(ampT, ampA, T0) : null;
+  if (T0 !== null && rig && !damping) warnings.push('too few swings, or too little decay, to fit the damping (needs ≥ 40 passes)');
+
+  const law = fitPeriodLaw(
+    Float64Array.from(pIdx, (c) => period[c]!),
+    pAmp,
+  );
+  if (T0 !== null && rig && !law) warnings.push('too few periods or too narrow an amplitude range to fit T = T0(1 + Bθ0² + Cθ0⁴)');
+  else if (law && law.C === null) warnings.push('amplitudes stay below 20°: C is not fitted (θ0⁴ cannot be told from θ0² there)');
+
+  const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
+  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp }, omega0) : null;
+  if (gate && gate.alignedSegments > 0)
+    warnings.push(`gate offset: the side of ${gate.alignedSegments} later segment(s) was matched to the first (passes between segments are not known)`);
+
+  // Sensitivity of the amplitude at the median pass.
+  let sens: AnalysisResult['amplitude_sensitivity'] = null;
+  let relW = 0;
+  let relD = 0;
+  const delayU = d.delayDifferenceU_s ?? 5e-6;
+  const medA = ampA.length ? median(ampA) : NaN;
+  if (rig && Number.isFinite(medA)) {
+    let best = -1;
+    for (let c = 0; c < n; c++) if (Number.isFinite(amp[c]!) && (best < 0 || Math.abs(amp[c]! - medA) < Math.abs(amp[best]! - medA))) best = c;
+    const s = amplitudeSensitivity(p.transit[best]!, rig.flag_width_m, rig.length_m, omega0);
+    sens = {
+      at_amplitude_deg: amp[best]! * DEG,
+      per_width_deg_per_mm: (s.dTheta_dWidth_rad_per_m * DEG) / 1000,
+      per_delay_difference_deg_per_us: (-s.dTheta_dTransit_rad_per_s * DEG) / 1e6,
+    };
+    relW = (s.dTheta_dWidth_rad_per_m * rig.flag_width_u_m) / amp[best]!;
+    relD = (s.dTheta_dTransit_rad_per_s * delayU) / amp[best]!;
+  }
+
+  // T0 corrections, g and the budget.
+  const q = damping ? damping.Q : null;
+  const model = rig && T0 !== null ? pendulumModel(rig, omega0, q) : null;
+  const dampRel = model ? model.lines.find((l) => l.name.startsWith('damping'))!.period_rel : 0;
+  const T0u = T0 !== null ? T0 / (1 + dampRel) : null;
+  const budget: BudgetLine[] = [];
+  const uStatRel = T0 !== null && P0.length > 1 ? batchMeansStdError(P0) / T0 : NaN;
+  let g: number | null = null;
+  let gU: number | null = null;
+  let T0_u: number | null = null;
+  if (T0u !== null) {
+    const redShift = (rel: number): number => (rel && rig ? Math.abs(robustMean(reducePeriods(P, pAmp, 1 + rel)).mean / T0! - 1) : 0);
+    const uRedW = redShift(relW);
+    const uRedD = redShift(relD);
+    const uClock = d.clock.u_ppm * 1e-6;
+    if (Number.isFinite(uStatRel)) budget.push({ name: 'period timing (statistics of the periods)', u_rel_g: 2 * uStatRel, note: `${P0.length} periods` });
+    budget.push({ name: `device clock (${d.clock.source})`, u_rel_g: 2 * uClock, note: `${d.clock.ppm.toFixed(2)} ± ${d.clock.u_ppm.toPrecision(2)} ppm` });
+    if (rig) {
+      budget.push({ name: 'flag width (amplitude reduction)', u_rel_g: 2 * uRedW, note: `w = ${(rig.flag_width_m * 1000).toFixed(2)} ± ${(rig.flag_width_u_m * 1000).toFixed(2)} mm` });
+      budget.push({ name: 'sensor on/off delay difference (amplitude reduction)', u_rel_g: 2 * uRedD, note: `assumed ±${(delayU * 1e6).toFixed(0)} µs (common practice, no source)` });
+    }
+    T0_u = T0u * Math.hypot(Number.isFinite(uStatRel) ? uStatRel : 0, uClock, uRedW, uRedD);
+    if (rig && model) {
+      budget.unshift({ name: 'length L (pivot to bob centre)', u_rel_g: rig.length_u_m / model.L_eff_m, note: `L = ${rig.length_m} ± ${rig.length_u_m} m` });
+      for (const line of model.lines) {
+        if (line.period_rel === 0) continue;
+        // Applied corrections: 10 % of their size (assumed, no source); unapplied: a rectangular half-width.
+        const u = line.applied ? 0.1 * Math.abs(line.period_rel) : Math.abs(line.period_rel) / Math.sqrt(3);
+        budget.push({ name: `${line.applied ? 'correction' : 'uncorrected'}: ${line.name}`, u_rel_g: 2 * u, note: line.why });
+      }
+      g = (4 * Math.PI * Math.PI * model.L_eff_m * (1 + model.air_rel) ** 2) / (T0u * T0u);
+      gU = g * combineBudget(budget);
+    }
+  }
+  let expected: number | null = null;
+  if (rig && rig.latitude_deg !== undefined) {
+    expected = normalGravityAtHeight(rig.latitude_deg, rig.elevation_m ?? 0);
+    if (rig.elevation_m === undefined) warnings.push('expected g assumes elevation 0 m (the rig gives no elevation_m)');
+  }
+  const diffSigma = g !== null && gU !== null && expected !== null && gU > 0 ? (g - expected) / gU : null;
+  if (d.clock.source === 'nominal' && g !== null) warnings.push(`g uses the nominal device clock (±${d.clock.u_ppm.toFixed(0)} ppm assumed): its uncertainty is dominated by the clock`);
+  const clockShare = budget.find((b) => b.name.startsWith('device clock'));
+  if (d.clock.measured && clockShare && gU !== null && g !== null && clockShare.u_rel_g > 0.5 * (gU / g))
+    warnings.push('the clock calibration is too uncertain to be negligible: record longer, or give --clock pps / --clock <ppm>');
+
+  // Swing table.
+  const swings: SwingRow[] = [];
+  const pk = new Int32Array(n).fill(-1);
+  pIdx.forEach((c, k) => (pk[c] = k));
+  for (let c = 0; c < n; c++) {
+    const st = p.status[c]!;
+    const flags: string[] = [];
+    if (st === 1) flags.push('rejected:transit');
+    else if (st === 2) flags.push('rejected:timing');
+    else if (st === 3) flags.push('unsequenced');
+    if (p.bridgedBefore[c]! > 0) flags.push(`bridged:${p.bridgedBefore[c]}`);
+    if (p.index[c] === 0) flags.push(`segment-start:${p.segment[c]}`);
+    const k = pk[c]!;
+    swings.push({
+      index: c,
+      t_s: p.t[c]!,
+      transit_s: p.transit[c]!,
+      half_period_s: finiteOrNull(half[c]),
+      period_s: finiteOrNull(period[c]),
+      amplitude_deg: finiteOrNull(amp[c]! * DEG),
+      period0_s: k >= 0 && rig ? finiteOrNull(P0[k]) : null,
+      flags,
+    });
+  }
+
+  // Plots.
+  const pv = thin(pIdx.map((c, k) => [pAmp[k]! * DEG, period[c]!] as const).filter(([a]) => Number.isFinite(a)));
+  const av = thin(ampT.map((t, i) => [t, ampA[i]! * DEG] as const));
+  const hv = gate ? thin(gate.series.t_s.map((t, i) => [t, gate.series.diff_s[i]!] as const)) : [];
+  const gRun: { t: number; g: number; u: number }[] = [];
+  if (g !== null && gU !== null && T0u !== null) {
+    const sysRel2 = Math.max(0, (gU / g) ** 2 - (2 * uStatRel) ** 2);
+    const steps = Math.min(100, P0.length);
+    let s = 0;
+    let s2 = 0;
+    let k0 = 0;
+    for (let j = 1; j <= steps; j++) {
+      const k1 = Math.floor((j * P0.length) / steps);
+      for (; k0 < k1; k0++) if (Number.isFinite(P0[k0]!)) (s += P0[k0]!), (s2 += P0[k0]! ** 2);
+      const m = s / k1;
+      const sd = k1 > 1 ? Math.sqrt(Math.max(0, s2 / k1 - m * m)) : 0;
+      const gk = (g * (T0! / m) ** 2);
+      gRun.push({ t: p.t[pIdx[k1 - 1]!]!, g: gk, u: gk * Math.sqrt(sysRel2 + (2 * sd) / m / Math.sqrt(k1) * ((2 * sd) / m / Math.sqrt(k1))) });
+    }
+  }
+  const plots: PlotSeries = {
+    periodVsAmplitude: { amplitude_deg: pv.map((x) => x[0]), period_s: pv.map((x) => x[1]) },
+    amplitudeVsTime: { t_s: av.map((x) => x[0]), amplitude_deg: av.map((x) => x[1]) },
+    halfPeriodAlternation: { t_s: hv.map((x) => x[0]), diff_s: hv.map((x) => x[1]) },
+    clockResiduals: { host_s: thin(d.clock.residuals.host_s), residual_s: thin(d.clock.residuals.residual_s) },
+    gRunning: { t_s: gRun.map((x) => x.t), g: gRun.map((x) => x.g), g_u: gRun.map((x) => x.u) },
+    qVsAmplitude: damping && T0 !== null
+      ? { amplitude_deg: damping.windows.map((w) => w.amplitude * DEG), Q: damping.windows.map((w) => qualityFactor({ a0: w.rate, a1: 0, a2: 0 }, w.amplitude, T0!)) }
+      : { amplitude_deg: [], Q: [] },
+  };
+
+  let qU: number | null = null;
+  if (damping && T0 !== null) {
+    const qs = damping.windows.map((w) => (Math.PI * w.amplitude) / (T0! * w.rate)).filter((x) => Number.isFinite(x) && x > 0);
+    qU = qs.length > 2 ? batchMeansStdError(qs) * (damping.Q / Math.max(median(qs), 1e-300)) : null;
+  }
+  const gateM = gate && rig ? gate.delta_rad * rig.length_m : null;
+
+  return {
+    T0_s: finiteOrNull(T0u),
+    T0_u_s: finiteOrNull(T0_u),
+    g_m_s2: finiteOrNull(g),
+    g_u_m_s2: finiteOrNull(gU),
+    clock_ppm: d.clock.ppm,
+    clock_u_ppm: d.clock.u_ppm,
+    clock_source: d.clock.source,
+    gate_offset_m: finiteOrNull(gateM),
+    gate_offset_u_m: gate && rig ? finiteOrNull(gate.delta_u_rad * rig.length_m) : null,
+    B: law ? law.B : null,
+    B_u: law ? law.B_u : null,
+    C: law ? law.C : null,
+    C_u: law ? law.C_u : null,
+    amplitude_start_deg: ampA.length ? ampA[0]! * DEG : null,
+    amplitude_end_deg: ampA.length ? ampA[ampA.length - 1]! * DEG : null,
+    Q: damping ? damping.Q : null,
+    damping_model: damping ? damping.best.model : null,
+    damping_fits: damping ? damping.fits : [],
+    passes: validCount,
+    periods: P.length,
+    counts: d.counts,
+    budget,
+    corrections: model ? model.lines : [],
+    expected_g_m_s2: expected,
+    g_diff_sigma: finiteOrNull(diffSigma),
+    warnings,
+    T0_fit_s: law ? law.T0 : null,
+    B_theory: 1 / 16,
+    C_theory: 11 / 3072,
+    Q_u: finiteOrNull(qU),
+    damping_tau_s: damping ? damping.tau_s : null,
+    median_amplitude_deg: Number.isFinite(medA) ? medA * DEG : null,
+    clock_drift_ppm_per_h: d.clock.drift_ppm_per_h,
+    clock_span_s: d.clock.span_s,
+    L_eff_m: model ? model.L_eff_m : null,
+    amplitude_sensitivity: sens,
+    settings: d.settings,
+    swings,
+    plots,
+    run: d.run,
+  };
+}

@@ -1,0 +1,19 @@
+// Batch entry points: run the pipeline over a list of journal entries, or over a journal file.
+import type { JournalEntry } from '../../protocol/journal.ts';
+import type { AnalysisResult } from '../analysis/result.ts';
+import { readJournalFile } from '../journal/read-journal.ts';
+import { createRunPipeline, type PipelineOptions, type RunPipeline } from './run-pipeline.ts';
+
+/** Analyses entries in one go. */
+export function analyzeEntries(entries: Iterable<JournalEntry>, opts: PipelineOptions = {}): AnalysisResult {
+  const p = createRunPipeline(opts);
+  for (const e of entries) p.push(e);
+  return p.result();
+}
+
+/** Feeds a journal file through a pipeline and returns the pipeline (for its rig) and the result. */
+export async function analyzeJournalFile(path: string, opts: PipelineOptions = {}): Promise<{ pipeline: RunPipeline; result: AnalysisResult }> {
+  const p = createRunPipeline(opts);
+  for await (const e of readJournalFile(path)) p.push(e);
+  return { pipeline: p, result: p.result() };
+}

@@ -1,0 +1,50 @@
+// Picks the device clock correction for a run: a given ppm, the nominal rate, a 1 PPS input, or the host clock.
+import { clockRateFromHost, clockRateFromPps, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
+import type { ClockApplied } from '../analysis/analyze-run.ts';
+
+/** What the user asked for: a mode, a rate error in ppm, or nothing (auto: PPS if present, else host if long enough). */
+export type ClockOption = 'host' | 'pps' | 'nominal' | number | undefined;
+
+/** Host calibration over less than this is not trusted by default (s). */
+export const MIN_HOST_SPAN_S = 300;
+/**
+ * Standard uncertainty assumed for an uncalibrated board clock: a ceramic resonator's ±0.5 % initial tolerance
+ * (Murata CERALOCK CSTLS catalogue, via reference-values §7) as a rectangular distribution, 0.5 %/√3.
+ */
+export const NOMINAL_CLOCK_U_PPM = 5000 / Math.sqrt(3);
+
+const none = { host_s: [] as number[], residual_s: [] as number[] };
+
+/** Chooses and computes the clock correction; warnings explain fallbacks. */
+export function chooseClock(
+  option: ClockOption,
+  beats: readonly BootHeartbeats[],
+  pps: readonly BootPps[],
+  hz: number,
+  warnings: string[],
+): ClockApplied {
+  if (typeof option === 'number') return { source: 'given', ppm: option, u_ppm: 0, measured: false, drift_ppm_per_h: null, span_s: null, residuals: none };
+  const nominal = (): ClockApplied => ({ source: 'nominal', ppm: 0, u_ppm: NOMINAL_CLOCK_U_PPM, measured: false, drift_ppm_per_h: null, span_s: null, residuals: none });
+  if (option === 'nominal') return nominal();
+  const pulses = pps.reduce((s, b) => s + b.ticks.length, 0);
+  if (option === 'pps' || (option === undefined && pulses >= 5)) {
+    const r = clockRateFromPps(pps, hz);
+    if (r) return { source: 'pps', ppm: r.ppm, u_ppm: r.u_ppm, measured: true, drift_ppm_per_h: null, span_s: r.span_s, residuals: none };
+    if (option === 'pps') warnings.push(`--clock pps: no usable 1 PPS input (${pulses} pulses); using the host clock instead`);
+  }
+  const h = clockRateFromHost(beats);
+  if (!h) {
+    warnings.push('too few heartbeats to calibrate the device clock against the host: using the nominal rate');
+    return nominal();
+  }
+  if (h.span_s < MIN_HOST_SPAN_S && option !== 'host') {
+    warnings.push(
+      `the run is too short (${h.span_s.toFixed(0)} s of heartbeats, under ${MIN_HOST_SPAN_S} s) to trust a host-clock calibration (it gave ${h.ppm.toFixed(1)} ± ${h.u_ppm.toFixed(1)} ppm): using the nominal rate; force it with --clock host`,
+    );
+    return nominal();
+  }
+  if (h.span_s < MIN_HOST_SPAN_S) warnings.push(`--clock host over only ${h.span_s.toFixed(0)} s of heartbeats: the rate may be off by more than its stated uncertainty`);
+  if (h.drift_ppm_per_h !== null && h.drift_u_ppm_per_h !== null && Math.abs(h.drift_ppm_per_h) > 3 * h.drift_u_ppm_per_h && Math.abs(h.drift_ppm_per_h) * (h.span_s / 3600) > 1)
+    warnings.push(`the device clock drifted ${h.drift_ppm_per_h.toFixed(2)} ppm/h during the run (temperature?); the mean rate is used`);
+  return { source: 'host', ppm: h.ppm, u_ppm: h.u_ppm, measured: true, drift_ppm_per_h: h.drift_ppm_per_h, span_s: h.span_s, residuals: h.residuals };
+}

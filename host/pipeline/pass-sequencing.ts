@@ -1,0 +1,186 @@
+// Raw passes → numbered passes: rejects passes that do not belong to the swing, and bridges missing ones.
+//
+// A pass is rejected when its transit time is unlike its neighbours' (something else crossed the beam, or it
+// merged with the bob's own transit), or when it falls off the swing's beat of half-periods. The beat is followed
+// with a running median H of recent half-periods: a pass about r·H after the last accepted one (r = 1, 2, 3, within
+// ±GRID_TOL·H) is accepted as r passes later, so one or two missing passes are bridged and the pass numbering keeps
+// the direction of travel (even numbers one way, odd the other). When several candidates fall in the same beat
+// window the one nearest the predicted time (and transit) wins. A longer gap, or a new boot, starts a new segment.
+
+/** Why a pass was not used. */
+export type PassRejection = 'transit' | 'timing';
+
+/** Result of sequencing, parallel to the input passes. */
+export interface PassSequence {
+  /** 0 valid, 1 rejected for transit, 2 rejected for timing, 3 unsequenced (too few passes in a boot to start a beat). */
+  readonly status: Uint8Array;
+  /** Pass number within its segment (−1 when rejected). */
+  readonly index: Int32Array;
+  /** Segment number (−1 when rejected). */
+  readonly segment: Int32Array;
+  /** Missing passes bridged just before this one. */
+  readonly bridgedBefore: Uint8Array;
+  readonly rejectedTransit: number;
+  readonly rejectedTiming: number;
+  /** Gaps of 1 or 2 missing passes that were bridged. */
+  readonly bridgedGaps: number;
+  /** Gaps too long to bridge (they start a new segment). */
+  readonly longGaps: number;
+  readonly segments: number;
+}
+
+/** Tunables of the sequencing. */
+export interface SequencingOptions {
+  /** A transit more than this factor off the neighbours' median is rejected (default 1.6). */
+  readonly transitRatio?: number;
+  /** Beat tolerance as a fraction of the half-period (default 0.2). */
+  readonly gridTol?: number;
+  /** Longest gap bridged, in half-periods (default 3, i.e. two missing passes). */
+  readonly maxBridge?: number;
+}
+
+const NEIGHBOURS = 6;
+
+function sortedMedian(buf: Float64Array, n: number): number {
+  for (let i = 1; i < n; i++) {
+    const v = buf[i]!;
+    let j = i - 1;
+    while (j >= 0 && buf[j]! > v) (buf[j + 1] = buf[j]!), j--;
+    buf[j + 1] = v;
+  }
+  return n % 2 ? buf[n >> 1]! : 0.5 * (buf[(n >> 1) - 1]! + buf[n >> 1]!);
+}
+
+/** Numbers the passes of one run; `boot` splits segments, `t` are pass times (s) and `transit` transit times (s). */
+export function sequencePasses(
+  t: ArrayLike<number>,
+  transit: ArrayLike<number>,
+  boot: ArrayLike<number>,
+  opts: SequencingOptions = {},
+): PassSequence {
+  const n = t.length;
+  const ratio = opts.transitRatio ?? 1.6;
+  const tol = opts.gridTol ?? 0.2;
+  const maxBridge = opts.maxBridge ?? 3;
+  const status = new Uint8Array(n);
+  const index = new Int32Array(n).fill(-1);
+  const segment = new Int32Array(n).fill(-1);
+  const bridgedBefore = new Uint8Array(n);
+  const scratch = new Float64Array(2 * NEIGHBOURS);
+  let rejectedTransit = 0;
+
+  // 1. Transit against the neighbours of the same boot.
+  for (let i = 0; i < n; i++) {
+    let m = 0;
+    for (let j = i - 1; j >= 0 && j >= i - NEIGHBOURS && boot[j] === boot[i]; j--) scratch[m++] = transit[j]!;
+    for (let j = i + 1; j < n && j <= i + NEIGHBOURS && boot[j] === boot[i]; j++) scratch[m++] = transit[j]!;
+    if (m < 3) continue;
+    const med = sortedMedian(scratch, m);
+    const r = transit[i]! / med;
+    if (!(r < ratio && r > 1 / ratio)) (status[i] = 1), rejectedTransit++;
+  }
+
+  // 2. The beat of half-periods.
+  let rejectedTiming = 0;
+  let bridgedGaps = 0;
+  let longGaps = 0;
+  let seg = -1;
+  const hist = new Float64Array(8);
+  const histBuf = new Float64Array(8);
+  let histN = 0;
+  let histAt = 0;
+  let H = NaN;
+  let last = -1;
+  const candidates = (from: number): number => {
+    let j = from;
+    while (j < n && status[j] !== 0) j++;
+    return j;
+  };
+  const reject = (j: number): void => {
+    status[j] = 2;
+    rejectedTiming++;
+  };
+  const startSegment = (from: number): number => {
+    // Find three consecutive candidates of the same boot, evenly spaced: a trustworthy start of the beat.
+    // Candidates skipped on the way are off the beat (rejected), or too few to start a beat (left unsequenced).
+    let a = candidates(from);
+    while (a < n) {
+      const b = candidates(a + 1);
+      const c = b < n ? candidates(b + 1) : n;
+      if (c >= n || boot[b] !== boot[a] || boot[c] !== boot[a]) {
+        status[a] = 3;
+        a = candidates(a + 1);
+        continue;
+      }
+      const h1 = t[b]! - t[a]!;
+      const h2 = t[c]! - t[b]!;
+      if (h1 > 0 && h2 > 0 && h1 / h2 < 1.25 && h2 / h1 < 1.25) {
+        seg++;
+        index[a] = 0;
+        segment[a] = seg;
+        H = 0.5 * (h1 + h2);
+        histN = 0;
+        histAt = 0;
+        last = a;
+        return a + 1;
+      }
+      reject(a);
+      a = candidates(a + 1);
+    }
+    last = -1;
+    return n;
+  };
+
+  let j = startSegment(0);
+  while (j < n) {
+    j = candidates(j);
+    if (j >= n) break;
+    if (boot[j] !== boot[last]) {
+      j = startSegment(j);
+      continue;
+    }
+    const nBeats = (t[j]! - t[last]!) / H;
+    if (nBeats > maxBridge + 0.5) {
+      longGaps++;
+      j = startSegment(j);
+      continue;
+    }
+    const r = Math.round(nBeats);
+    if (r < 1) {
+      reject(j);
+      j++;
+      continue;
+    }
+    // All candidates in this beat window compete; the best fit to the predicted time and transit wins.
+    const predicted = t[last]! + r * H;
+    let best = -1;
+    let bestScore = Infinity;
+    let k = j;
+    for (; k < n && boot[k] === boot[last] && t[k]! < predicted + 0.5 * H; k = candidates(k + 1)) {
+      const score = Math.abs(t[k]! - predicted) / H + Math.abs(Math.log(transit[k]! / transit[last]!));
+      if (score < bestScore) (bestScore = score), (best = k);
+    }
+    for (let q = j; q < k; q = candidates(q + 1)) if (q !== best) reject(q);
+    if (best < 0) {
+      j = k;
+      continue;
+    }
+    if (Math.abs(t[best]! - predicted) > tol * H) {
+      reject(best);
+      j = k;
+      continue;
+    }
+    const h = (t[best]! - t[last]!) / r;
+    index[best] = index[last]! + r;
+    segment[best] = seg;
+    if (r > 1) (bridgedBefore[best] = r - 1), bridgedGaps++;
+    hist[histAt] = h;
+    histAt = (histAt + 1) % hist.length;
+    histN = Math.min(histN + 1, hist.length);
+    histBuf.set(hist);
+    H = histN >= 3 ? sortedMedian(histBuf, histN) : H;
+    last = best;
+    j = k;
+  }
+  return { status, index, segment, bridgedBefore, rejectedTransit, rejectedTiming, bridgedGaps, longGaps, segments: seg + 1 };
+}

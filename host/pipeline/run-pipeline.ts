@@ -1,0 +1,371 @@
+// The one pipeline: journal entries → decoded records → edges → passes → analysis, identical live and in batch.
+//
+// `push` is cheap and incremental (decoding, sequence tracking, edge cleaning into compact pass columns);
+// `result` runs the full analysis over everything pushed so far without changing the state, so calling it (or
+// `live`) at any moment never changes later numbers.
+import type { JournalEntry } from '../../protocol/journal.ts';
+import { parseRig, type Rig } from '../../protocol/rig.ts';
+import { SequenceTracker } from '../../protocol/sequence.ts';
+import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
+import { analyzeRun } from '../analysis/analyze-run.ts';
+import { periodRatio } from '../analysis/elliptic.ts';
+import type { AnalysisResult, RunCounts } from '../analysis/result.ts';
+import { amplitudeFromTransit, blockHalfAngle } from '../analysis/transit-amplitude.ts';
+import { chooseClock, type ClockOption } from './clock-choice.ts';
+import { decodeDeviceLine } from './fast-decode.ts';
+import { F64Column, I32Column } from './growable.ts';
+import { RECENT_POINTS, type LiveHello, type LiveState } from './live-state.ts';
+import { PassBuilder } from './pass-builder.ts';
+import { sequencePasses, type SequencingOptions } from './pass-sequencing.ts';
+
+/** Options of a pipeline. */
+export interface PipelineOptions {
+  /** The rig; without it the journal's `#rig` line is used. */
+  readonly rig?: Rig;
+  /** Clock correction: `host`, `pps`, `nominal` or a rate error in ppm; default auto (PPS if present, else host if long enough). */
+  readonly clock?: ClockOption;
+  /** Channel of a 1 PPS reference (default 1, ignored when it is the pendulum's channel). */
+  readonly ppsChannel?: number;
+  /** Blocked intervals shorter than this are glitches (s); default 2 % of the transit of a 90° swing, 10 µs–1 ms. */
+  readonly glitchS?: number;
+  /** Unblocked gaps shorter than this inside a transit are bounce (s); same default as glitchS. */
+  readonly bounceS?: number;
+  readonly sequencing?: SequencingOptions;
+  /** Standard uncertainty of the sensor's on/off delay difference, s (default 5 µs). */
+  readonly delayDifferenceU_s?: number;
+}
+
+/** The pipeline object. */
+export interface RunPipeline {
+  /** Feeds one journal entry. */
+  push(entry: JournalEntry): void;
+  /** A cheap snapshot for live views; `nowHostUs` (µs since `#start`) sets the heartbeat age. */
+  live(nowHostUs?: number): LiveState;
+  /** The full analysis of everything pushed so far (deterministic; does not change the pipeline). */
+  result(): AnalysisResult;
+  /** Restarts the live running estimates (mean period) from `hostUs` on; the batch result is unaffected. */
+  restartEstimates(hostUs: number): void;
+  /** The rig in use (given, or from the journal), if any. */
+  rig(): Rig | null;
+}
+
+const TWO48 = 2 ** 48;
+const G_N = 9.80665;
+
+/** Glitch/bounce default: 2 % of the transit time of a 90° swing (the shortest plausible), within 10 µs–1 ms. */
+export function defaultEdgeThresholdS(rig: Rig | null): number {
+  if (!rig) return 1e-4;
+  const vMax = 2 * Math.sqrt(G_N / rig.length_m) * rig.length_m * Math.SQRT1_2;
+  return Math.min(1e-3, Math.max(1e-5, (0.02 * rig.flag_width_m) / vMax));
+}
+
+/** Creates a pipeline. */
+export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
+  const tracker = new SequenceTracker();
+  const warnings: string[] = [];
+  let journalRig: Rig | null = null;
+  const rigNow = (): Rig | null => opts.rig ?? journalRig;
+  let startIso: string | null = null;
+  let source: string | null = null;
+  let hello: LiveHello | null = null;
+  let lastHostUs: number | null = null;
+  let lastBeatHostUs: number | null = null;
+  let levels: number | null = null;
+  const c = { crc: 0, bad: 0, lost: 0, disconnects: 0, malformed: 0, otherEdges: 0 };
+  let rejectedSinceGood = 0;
+  // Per boot: nominal hz, tick unwrap state, the first (host, ticks) seen, the largest `lost`.
+  const bootHz: number[] = [];
+  const bootFirst: { hostUs: number; ticks: number }[] = [];
+  const bootLost: number[] = [];
+  let boot = -1;
+  let wrapBase = 0;
+  let lastRaw = -1;
+  let hzNow = 16_000_000;
+  let sawHello = false;
+  const hb = { boot: new I32Column(), ticks: new F64Column(), hostUs: new F64Column() };
+  const pps = { boot: new I32Column(), ticks: new F64Column() };
+  let builder: PassBuilder | null = null;
+  let glitchS = 0;
+  let bounceS = 0;
+  const ppsCh = opts.ppsChannel ?? 1;
+
+  // Live state.
+  const recent = { t: [] as number[], period: [] as (number | null)[], amp: [] as (number | null)[], transit: [] as number[] };
+  let liveLast: { boot: number; t: number } | null = null;
+  let liveHalf: [number | null, number | null] = [null, null];
+  let livePeriod: number | null = null;
+  let liveTransit: number | null = null;
+  let liveAmp: number | null = null;
+  let meanSum = 0;
+  let meanN = 0;
+  let restartUs = -Infinity;
+  const givenPpm = typeof opts.clock === 'number' ? opts.clock : 0;
+
+  const ticksPerS = (b: number): number => (bootHz[b] ?? hzNow) * (1 + givenPpm * 1e-6);
+  const onPass = (i: number): void => {
+    const p = builder!.passes;
+    const b = p.boot.at(i);
+    const first = bootFirst[b]!;
+    const tps = ticksPerS(b);
+    const t = first.hostUs / 1e6 + (0.5 * (p.start.at(i) + p.end.at(i)) - first.ticks) / tps;
+    const transit = (p.end.at(i) - p.start.at(i)) / tps;
+    let period: number | null = null;
+    if (liveLast && liveLast.boot === b) {
+      const h = t - liveLast.t;
+      liveHalf = [liveHalf[1], h];
+      period = liveHalf[0] !== null ? liveHalf[0] + h : null;
+    } else liveHalf = [null, null];
+    liveLast = { boot: b, t };
+    livePeriod = period;
+    liveTransit = transit;
+    const rig = rigNow();
+    liveAmp = null;
+    if (rig && period !== null) {
+      const phiB = blockHalfAngle(rig.flag_width_m, rig.length_m);
+      let t0 = period;
+      for (let k = 0; k < 2; k++) {
+        const a = amplitudeFromTransit(transit, phiB, (2 * Math.PI) / t0);
+        if (!Number.isFinite(a)) break;
+        liveAmp = (a * 180) / Math.PI;
+        t0 = period / periodRatio(a);
+      }
+    }
+    if (period !== null && p.hostUs.at(i) >= restartUs) (meanSum += period), meanN++;
+    recent.t.push(t);
+    recent.period.push(period);
+    recent.amp.push(liveAmp);
+    recent.transit.push(transit);
+    if (recent.t.length > RECENT_POINTS) for (const k of ['t', 'period', 'amp', 'transit'] as const) recent[k].shift();
+  };
+
+  const ensureBuilder = (): PassBuilder => {
+    if (!builder) {
+      glitchS = opts.glitchS ?? defaultEdgeThresholdS(rigNow());
+      bounceS = opts.bounceS ?? defaultEdgeThresholdS(rigNow());
+      builder = new PassBuilder(ticksPerS, glitchS, bounceS, onPass);
+    }
+    return builder;
+  };
+
+  const unwrap = (raw: number): number => {
+    // 48-bit device ticks wrap after 2^48 (203 days at 16 MHz); a jump back by more than half the range is a wrap.
+    if (lastRaw >= 0 && raw < lastRaw - TWO48 / 2) wrapBase += TWO48;
+    lastRaw = raw;
+    return raw + wrapBase;
+  };
+
+  const data = (hostUs: number, line: string): void => {
+    const pb = ensureBuilder();
+    const r = decodeDeviceLine(line);
+    if (!r.ok) {
+      if (r.reason === 'bad-crc') c.crc++;
+      else c.bad++;
+      rejectedSinceGood++;
+      return;
+    }
+    const rec = r.record;
+    const tr = tracker.push(rec);
+    if (tr.newBoot) {
+      pb.newBoot();
+      boot = tr.bootIndex;
+      wrapBase = 0;
+      lastRaw = -1;
+      if (rec.kind === 'H') hzNow = rec.hz;
+      else if (!sawHello) warnings.push(`boot ${boot} started without a hello: assuming ${hzNow} ticks/s`);
+      bootHz[boot] = hzNow;
+      bootLost[boot] = 0;
+    } else if (tr.lostBefore > 0) {
+      c.lost += Math.max(0, tr.lostBefore - rejectedSinceGood);
+      pb.linesLost();
+    } else if (rejectedSinceGood > 0) pb.linesLost();
+    rejectedSinceGood = 0;
+    switch (rec.kind) {
+      case 'H':
+        sawHello = true;
+        hello = { fw: rec.fw, mcu: rec.mcu, hz: rec.hz, ch: rec.ch, proto: rec.proto, boot: rec.boot.toString(16).padStart(4, '0') };
+        if (rec.hz !== bootHz[boot]) bootHz[boot] = hzNow = rec.hz;
+        return;
+      case 'E': {
+        const ticks = unwrap(rec.ticks);
+        if (!bootFirst[boot]) bootFirst[boot] = { hostUs, ticks };
+        const rig = rigNow();
+        const ch = rig ? rig.channel : 0;
+        if (rec.ch === ch) {
+          const blocks = (rig?.blocked_level ?? 'low') === 'low' ? rec.edge === 'f' : rec.edge === 'r';
+          if (blocks) pb.blockStart(boot, ticks);
+          else pb.blockEnd(boot, ticks, hostUs);
+        } else if (rec.ch === ppsCh && rec.edge === 'r') {
+          pps.boot.push(boot);
+          pps.ticks.push(ticks);
+        } else c.otherEdges++;
+        return;
+      }
+      case 'T': {
+        const ticks = unwrap(rec.ticks);
+        if (!bootFirst[boot]) bootFirst[boot] = { hostUs, ticks };
+        hb.boot.push(boot);
+        hb.ticks.push(ticks);
+        hb.hostUs.push(hostUs);
+        bootLost[boot] = Math.max(bootLost[boot] ?? 0, rec.lost);
+        levels = rec.levels;
+        lastBeatHostUs = hostUs;
+        pb.advance(boot, ticks);
+        return;
+      }
+      default:
+        return;
+    }
+  };
+
+  const counts = (extra: Partial<RunCounts> = {}): RunCounts => {
+    const tt = tracker.totals();
+    const e = builder?.counts ?? { glitches: 0, bounces: 0, resyncs: 0 };
+    return {
+      crc_errors: c.crc,
+      bad_lines: c.bad,
+      lines_lost: c.lost,
+      device_lost: bootLost.reduce((s, v) => s + (v ?? 0), 0),
+      rejected_passes: 0,
+      bridged_gaps: 0,
+      reboots: tt.reboots,
+      disconnects: c.disconnects,
+      unknown_kinds: tt.unknownKinds,
+      glitches: e.glitches,
+      bounces: e.bounces,
+      edge_resyncs: e.resyncs,
+      unsequenced_passes: 0,
+      long_gaps: 0,
+      malformed_journal_lines: c.malformed,
+      ...extra,
+    };
+  };
+
+  return {
+    push(entry: JournalEntry): void {
+      switch (entry.kind) {
+        case 'data':
+          lastHostUs = entry.hostUs;
+          data(entry.hostUs, entry.line);
+          return;
+        case 'annotation':
+          lastHostUs = entry.hostUs;
+          if (entry.word === 'disconnect') c.disconnects++;
+          return;
+        case 'start':
+          if (startIso === null) startIso = entry.iso;
+          return;
+        case 'source':
+          if (source === null) source = entry.text;
+          return;
+        case 'rig':
+          if (!opts.rig && !journalRig) {
+            const r = parseRig(entry.json);
+            if (r.ok) journalRig = r.rig;
+            else warnings.push(`the journal's #rig line is not usable (${r.error}); give --rig FILE`);
+          }
+          return;
+        case 'malformed':
+          c.malformed++;
+          return;
+        default:
+          return;
+      }
+    },
+
+    live(nowHostUs?: number): LiveState {
+      const now = nowHostUs ?? lastHostUs;
+      return {
+        hello,
+        bootIndex: boot,
+        lastHostUs,
+        heartbeatAgeS: lastBeatHostUs !== null && now !== null ? (now - lastBeatHostUs) / 1e6 : null,
+        levels,
+        blocked: builder?.blocked ?? false,
+        passes: builder?.passes.length ?? 0,
+        halfPeriodsS: liveHalf,
+        periodS: livePeriod,
+        transitS: liveTransit,
+        amplitudeDeg: liveAmp,
+        meanPeriodS: meanN ? meanSum / meanN : null,
+        meanPeriodCount: meanN,
+        counts: counts(),
+        recent: { t_s: [...recent.t], period_s: [...recent.period], amplitude_deg: [...recent.amp], transit_s: [...recent.transit] },
+      };
+    },
+
+    result(): AnalysisResult {
+      const w = [...warnings];
+      if (c.malformed > 0) w.push(`${c.malformed} journal line(s) were not in journal format and were skipped`);
+      const rig = rigNow();
+      const nb = Math.max(0, boot + 1);
+      // Heartbeats and PPS pulses per boot, in device seconds (nominal) and host seconds.
+      const beats: BootHeartbeats[] = [];
+      const pulses: BootPps[] = [];
+      const hbB = hb.boot.view();
+      const ppsB = pps.boot.view();
+      for (let b = 0; b < nb; b++) {
+        const hz = bootHz[b] ?? hzNow;
+        const dev: number[] = [];
+        const host: number[] = [];
+        for (let i = 0; i < hbB.length; i++) if (hbB[i] === b) dev.push(hb.ticks.at(i) / hz), host.push(hb.hostUs.at(i) / 1e6);
+        beats.push({ boot: b, deviceS: dev, hostS: host });
+        const pt: number[] = [];
+        for (let i = 0; i < ppsB.length; i++) if (ppsB[i] === b) pt.push(pps.ticks.at(i));
+        pulses.push({ boot: b, ticks: pt });
+      }
+      const clock = chooseClock(opts.clock, beats, pulses, bootHz[0] ?? hzNow, w);
+      const offsets = bootOffsets(beats, clock.ppm);
+      const k = 1 + clock.ppm * 1e-6;
+      // Passes, the pending one included (a snapshot, not a state change).
+      const pb = builder;
+      const pend = pb?.pendingPass() ?? null;
+      const np = (pb?.passes.length ?? 0) + (pend ? 1 : 0);
+      const t = new Float64Array(np);
+      const transit = new Float64Array(np);
+      const pBoot = new Int32Array(np);
+      for (let i = 0; i < np; i++) {
+        const fromPending = i === np - 1 && pend !== null;
+        const b = fromPending ? pend.boot : pb!.passes.boot.at(i);
+        const s = fromPending ? pend.start : pb!.passes.start.at(i);
+        const e = fromPending ? pend.end : pb!.passes.end.at(i);
+        const tps = (bootHz[b] ?? hzNow) * k;
+        const first = bootFirst[b]!;
+        const off = offsets.get(b) ?? first.hostUs / 1e6 - first.ticks / tps;
+        t[i] = off + (0.5 * (s + e)) / tps;
+        transit[i] = (e - s) / tps;
+        pBoot[i] = b;
+      }
+      const seq = sequencePasses(t, transit, pBoot, opts.sequencing);
+      if (seq.rejectedTransit > 0)
+        w.push(`${seq.rejectedTransit} pass(es) rejected: transit time unlike the neighbours' (an object through the beam?)`);
+      if (seq.rejectedTiming > 0) w.push(`${seq.rejectedTiming} pass(es) rejected: off the beat of the swing (an object through the beam?)`);
+      if (seq.longGaps > 0) w.push(`${seq.longGaps} gap(s) too long to bridge: the run is analysed in ${seq.segments} segments`);
+      let unsequenced = 0;
+      for (let i = 0; i < np; i++) if (seq.status[i] === 3) unsequenced++;
+      const lastUs = lastHostUs ?? 0;
+      return analyzeRun({
+        rig,
+        passes: { t, transit, index: seq.index, segment: seq.segment, status: seq.status, bridgedBefore: seq.bridgedBefore },
+        clock,
+        counts: counts({
+          rejected_passes: seq.rejectedTransit + seq.rejectedTiming,
+          bridged_gaps: seq.bridgedGaps,
+          unsequenced_passes: unsequenced,
+          long_gaps: seq.longGaps,
+        }),
+        run: { start_iso: startIso, duration_s: lastUs / 1e6, source, firmware: hello?.fw ?? null, hz_nominal: bootHz[0] ?? (sawHello ? hzNow : null) },
+        warnings: w,
+        settings: { glitch_s: glitchS || (opts.glitchS ?? defaultEdgeThresholdS(rig)), bounce_s: bounceS || (opts.bounceS ?? defaultEdgeThresholdS(rig)) },
+        ...(opts.delayDifferenceU_s !== undefined ? { delayDifferenceU_s: opts.delayDifferenceU_s } : {}),
+      });
+    },
+
+    restartEstimates(hostUs: number): void {
+      restartUs = hostUs;
+      meanSum = 0;
+      meanN = 0;
+    },
+
+    rig: rigNow,
+  };
+}
