@@ -1,0 +1,154 @@
+// Capture ISRs. Ch0: the hardware latches TCNT1 into ICR1 on the edge; ch1: INT0 reads TCNT1 in software.
+#include "capture.h"
+
+#include <avr/interrupt.h>
+#include <avr/io.h>
+
+#include "board.h"
+#include "config.h"
+
+#define RING_MASK (EDGE_RING_SIZE - 1)
+
+static edge_t ring[EDGE_RING_SIZE];
+// Single producer (the capture ISRs, which never nest) and single consumer (main): head by ISR, tail by main.
+static volatile uint8_t ring_head;
+static volatile uint8_t ring_tail;
+static volatile uint32_t overflows;
+static volatile uint32_t lost;
+static uint8_t ch1_level;
+volatile uint8_t capture_alarm_flag;
+
+static inline void ring_push(uint8_t flags, uint16_t lo, uint32_t hi) {
+  uint8_t h = ring_head;
+  uint8_t next = (uint8_t)((h + 1) & RING_MASK);
+  if (next == ring_tail) {
+    lost++;
+    return;
+  }
+  ring[h].lo = lo;
+  ring[h].hi = hi;
+  ring[h].flags = flags;
+  ring_head = next;
+}
+
+// Upper 32 bits for a 16-bit Timer1 value taken with interrupts off. TOV1 still pending means the
+// overflow ISR has not counted it yet; a small value was then taken after that overflow, a large
+// one before it (valid while the value is read within 32768 ticks of being latched).
+static inline uint32_t upper_bits(uint16_t lo) {
+  uint32_t hi = overflows;
+  if ((TIFR1 & _BV(TOV1)) && !(lo & 0x8000)) hi++;
+  return hi;
+}
+
+void capture_init(void) {
+  TCCR1A = 0;                  // normal mode, compare outputs disconnected
+  TIMSK1 = _BV(TOIE1);         // overflow counting; capture and compare-A are enabled later
+  TIFR1 = _BV(TOV1) | _BV(ICF1) | _BV(OCF1A) | _BV(OCF1B);
+  TCCR1B = _BV(ICNC1) | _BV(CS10);  // noise canceler on, prescaler 1: 62.5 ns ticks at 16 MHz
+}
+
+void capture_set_mask(uint8_t mask) {
+  uint8_t s = SREG;
+  cli();
+  if (mask & 1) {
+    // Await the edge that leaves the present level; clear the flag the edge-select write may set.
+    if (CH0_PIN & _BV(CH0_BIT))
+      TCCR1B &= (uint8_t)~_BV(ICES1);
+    else
+      TCCR1B |= _BV(ICES1);
+    TIFR1 = _BV(ICF1);
+    TIMSK1 |= _BV(ICIE1);
+  } else {
+    TIMSK1 &= (uint8_t)~_BV(ICIE1);
+  }
+  if (mask & 2) {
+    ch1_level = CH1_PIN & _BV(CH1_BIT);
+    EICRA = _BV(ISC00);  // any logical change on INT0
+    EIFR = _BV(INTF0);
+    EIMSK |= _BV(INT0);
+  } else {
+    EIMSK &= (uint8_t)~_BV(INT0);
+  }
+  SREG = s;
+}
+
+uint8_t capture_pending(void) { return ring_head != ring_tail; }
+
+uint8_t capture_pop(edge_t *e) {
+  uint8_t t = ring_tail;
+  if (t == ring_head) return 0;
+  *e = ring[t];
+  ring_tail = (uint8_t)((t + 1) & RING_MASK);
+  return 1;
+}
+
+ticks48_t capture_now(void) {
+  ticks48_t t;
+  uint8_t s = SREG;
+  cli();
+  t.lo = TCNT1;
+  t.hi = upper_bits(t.lo);
+  SREG = s;
+  return t;
+}
+
+uint32_t capture_lost(void) {
+  uint8_t s = SREG;
+  cli();
+  uint32_t n = lost;
+  SREG = s;
+  return n;
+}
+
+uint8_t capture_levels(void) {
+  return (uint8_t)(((CH0_PIN >> CH0_BIT) & 1) | (((CH1_PIN >> CH1_BIT) & 1) << 1));
+}
+
+void capture_set_alarm(uint16_t lo) {
+  uint8_t s = SREG;
+  cli();
+  OCR1A = lo;
+  TIFR1 = _BV(OCF1A);
+  TIMSK1 |= _BV(OCIE1A);
+  SREG = s;
+}
+
+ISR(TIMER1_CAPT_vect) {
+  uint16_t lo = ICR1;
+  uint8_t sense = TCCR1B;
+  // Flip the edge select first, as early as possible after reading ICR1, then drop the flag the flip may raise.
+  TCCR1B = sense ^ _BV(ICES1);
+  TIFR1 = _BV(ICF1);
+  ring_push((sense & _BV(ICES1)) ? EDGE_RISING : 0, lo, upper_bits(lo));
+  // Short-pulse check: the pin must still sit at the level this edge left. If it does not, the next edge
+  // came before the flip (or before the flag clear) and was never captured: count it and re-arm.
+  for (uint8_t tries = 0; tries < 3; tries++) {
+    uint8_t high = CH0_PIN & _BV(CH0_BIT);
+    uint8_t awaiting_rise = TCCR1B & _BV(ICES1);
+    if ((high != 0) != (awaiting_rise != 0)) break;
+    // The pin path is a few cycles ahead of the capture path (noise canceler): give a real capture
+    // time to set ICF1; if it does, this ISR runs again for it and nothing was lost.
+    __builtin_avr_delay_cycles(8);
+    if (TIFR1 & _BV(ICF1)) break;
+    lost++;
+    TCCR1B ^= _BV(ICES1);
+    TIFR1 = _BV(ICF1);
+  }
+}
+
+ISR(INT0_vect) {
+  uint16_t lo = TCNT1;
+  uint8_t level = CH1_PIN & _BV(CH1_BIT);
+  uint32_t hi = upper_bits(lo);
+  if (level != ch1_level) {
+    ch1_level = level;
+    ring_push(1 | (level ? EDGE_RISING : 0), lo, hi);
+  } else {
+    // Two changes before this ISR could look: the level is back where it was. Both edges are lost.
+    lost += 2;
+  }
+}
+
+ISR(TIMER1_OVF_vect) { overflows++; }
+
+ISR(TIMER1_COMPA_vect) { capture_alarm_flag = 1; }

@@ -1,0 +1,318 @@
+// simavr harness: runs the firmware ELF on a simulated ATmega328P, applies a schedule of input level
+// changes at given cycles, feeds host command bytes, and records UART output and the cycle at which
+// each change was really applied. Built with the system cc against libsimavr (Debian simavr 1.6).
+#include <errno.h>
+#include <inttypes.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <simavr/avr_ioport.h>
+#include <simavr/avr_timer.h>
+#include <simavr/avr_uart.h>
+#include <simavr/sim_avr.h>
+#include <simavr/sim_elf.h>
+#include <simavr/sim_interrupts.h>
+#include <simavr/sim_regbit.h>
+
+#define HZ 16000000u
+// Data-space addresses of the ATmega328P registers the harness touches (datasheet register summary).
+#define ADDR_TIFR0 0x35
+#define ADDR_TCCR1B 0x81
+#define ADDR_UCSR0A 0xc0
+#define ADDR_UBRR0L 0xc4
+#define ADDR_UBRR0H 0xc5
+
+typedef struct {
+  uint64_t cycle;
+  int ch;
+  int level;
+} change_t;
+
+typedef struct {
+  uint64_t cycle;
+  uint8_t *bytes;
+  size_t n;
+} command_t;
+
+static avr_t *avr;
+static avr_irq_t *pin_irq[2];
+static change_t *changes;
+static size_t n_changes, next_change;
+static command_t *commands;
+static size_t n_commands, next_command, next_command_byte;
+static uint64_t host_byte_cycles;
+static int rx_xoff;
+static FILE *uart_out, *applied_out, *uart_times_out;
+static uint64_t timer1_start = UINT64_MAX;
+static avr_io_write_t tccr1b_original;
+static void *tccr1b_param;
+static unsigned long bytes_out;
+
+static void die(const char *what) {
+  fprintf(stderr, "halfswing-emu: %s\n", what);
+  exit(2);
+}
+
+// ---- silicon semantics for TIFRn: write one to clear, only the bits written as one ----------------
+static void clear_if_written(avr_t *a, avr_int_vector_t *v, uint8_t written) {
+  if (!v->raised.reg) return;
+  if (!(written & (v->raised.mask << v->raised.bit))) return;
+  avr_clear_interrupt(a, v);
+  avr_regbit_clear(a, v->raised);
+}
+
+static void tifr_write_one_to_clear(avr_t *a, avr_io_addr_t addr, uint8_t v, void *param) {
+  (void)addr;
+  avr_timer_t *t = (avr_timer_t *)param;
+  clear_if_written(a, &t->overflow, v);
+  clear_if_written(a, &t->icr, v);
+  for (int i = 0; i < AVR_TIMER_COMP_COUNT; i++) clear_if_written(a, &t->comp[i].interrupt, v);
+}
+
+// simavr 1.6 clears every pending flag of a timer on any TIFR write (fixed upstream in PR #415).
+static void install_tifr_fix(void) {
+  for (int n = 0; n < 3; n++) {
+    avr_io_addr_t addr = (avr_io_addr_t)(ADDR_TIFR0 + n);
+    int io = AVR_DATA_TO_IO(addr);
+    avr_timer_t *t = (avr_timer_t *)avr->io[io].w.param;
+    if (!avr->io[io].w.c || !t || t->overflow.raised.reg != addr || t->name != '0' + n)
+      die("TIFR write handler is not simavr's timer handler; cannot install the write-one-to-clear fix");
+    avr->io[io].w.c = tifr_write_one_to_clear;
+  }
+}
+
+// Records the cycle at which Timer1's clock starts: the firmware's tick 0.
+static void tccr1b_watch(avr_t *a, avr_io_addr_t addr, uint8_t v, void *param) {
+  (void)param;
+  uint8_t before = a->data[addr] & 7;
+  tccr1b_original(a, addr, v, tccr1b_param);
+  if (!before && (v & 7) && timer1_start == UINT64_MAX) timer1_start = a->cycle;
+}
+
+static void install_tccr1b_watch(void) {
+  int io = AVR_DATA_TO_IO(ADDR_TCCR1B);
+  if (!avr->io[io].w.c) die("no TCCR1B write handler");
+  tccr1b_original = avr->io[io].w.c;
+  tccr1b_param = avr->io[io].w.param;
+  avr->io[io].w.c = tccr1b_watch;
+}
+
+// ---- schedule of input changes ---------------------------------------------------------------------
+// The input is driven from outside: registering the level as the port's "external" value makes simavr
+// keep it when the firmware writes PORTx (pull-ups), instead of pulling the pin high.
+static void drive(int ch, int level) {
+  avr_ioport_external_t e = {.name = ch ? 'D' : 'B', .mask = ch ? 1u << 2 : 1u, .value = 0};
+  e.value = level ? e.mask : 0;
+  avr_ioctl(avr, AVR_IOCTL_IOPORT_SET_EXTERNAL(e.name), &e);
+  avr_raise_irq(pin_irq[ch], (uint32_t)level);
+}
+
+static avr_cycle_count_t apply_changes(avr_t *a, avr_cycle_count_t when, void *param) {
+  (void)when;
+  (void)param;
+  while (next_change < n_changes && changes[next_change].cycle <= a->cycle) {
+    change_t *c = &changes[next_change++];
+    drive(c->ch, c->level);
+    fprintf(applied_out, "%" PRIu64 " %d %d\n", (uint64_t)a->cycle, c->ch, c->level);
+  }
+  return next_change < n_changes ? changes[next_change].cycle : 0;
+}
+
+// ---- host command bytes, paced at the host's byte time ---------------------------------------------
+static avr_irq_t *uart_irq;
+
+static avr_cycle_count_t feed_command(avr_t *a, avr_cycle_count_t when, void *param) {
+  (void)param;
+  if (next_command >= n_commands) return 0;
+  command_t *c = &commands[next_command];
+  if (a->cycle < c->cycle) return c->cycle;
+  if (rx_xoff) return when + host_byte_cycles;
+  avr_raise_irq(uart_irq + UART_IRQ_INPUT, c->bytes[next_command_byte++]);
+  if (next_command_byte == c->n) {
+    next_command++;
+    next_command_byte = 0;
+    if (next_command >= n_commands) return 0;
+    uint64_t at = when + host_byte_cycles;
+    return commands[next_command].cycle > at ? commands[next_command].cycle : at;
+  }
+  return when + host_byte_cycles;
+}
+
+static void uart_byte_out(avr_irq_t *irq, uint32_t value, void *param) {
+  (void)irq;
+  (void)param;
+  fputc((int)(value & 0xff), uart_out);
+  bytes_out++;
+  if ((value & 0xff) == '\n' && uart_times_out) fprintf(uart_times_out, "%" PRIu64 "\n", (uint64_t)avr->cycle);
+}
+
+static void uart_xon(avr_irq_t *irq, uint32_t value, void *param) {
+  (void)irq;
+  (void)param;
+  (void)value;
+  rx_xoff = 0;
+}
+
+static void uart_xoff(avr_irq_t *irq, uint32_t value, void *param) {
+  (void)irq;
+  (void)param;
+  (void)value;
+  rx_xoff = 1;
+}
+
+static void no_sleep(avr_t *a, avr_cycle_count_t how_long) {
+  (void)a;
+  (void)how_long;
+}
+
+// ---- input files -----------------------------------------------------------------------------------
+static void read_schedule(const char *path) {
+  FILE *f = fopen(path, "r");
+  if (!f) die("cannot open the schedule file");
+  size_t cap = 1024;
+  changes = malloc(cap * sizeof *changes);
+  uint64_t cycle;
+  int ch, level;
+  uint64_t last = 0;
+  while (fscanf(f, "%" SCNu64 " %d %d", &cycle, &ch, &level) == 3) {
+    if (ch < 0 || ch > 1 || (level != 0 && level != 1)) die("schedule: channel must be 0 or 1, level 0 or 1");
+    if (cycle < last) die("schedule: cycles must not decrease");
+    last = cycle;
+    if (n_changes == cap) changes = realloc(changes, (cap *= 2) * sizeof *changes);
+    changes[n_changes++] = (change_t){cycle, ch, level};
+  }
+  fclose(f);
+}
+
+static int hexval(int c) {
+  if (c >= '0' && c <= '9') return c - '0';
+  if (c >= 'a' && c <= 'f') return c - 'a' + 10;
+  return -1;
+}
+
+// One command per line: "<cycle> <bytes as lowercase hex>".
+static void read_commands(const char *path) {
+  FILE *f = fopen(path, "r");
+  if (!f) die("cannot open the commands file");
+  char hex[4096];
+  uint64_t cycle;
+  size_t cap = 16;
+  commands = malloc(cap * sizeof *commands);
+  while (fscanf(f, "%" SCNu64 " %4095s", &cycle, hex) == 2) {
+    size_t len = strlen(hex);
+    if (len % 2) die("commands: odd hex length");
+    if (n_commands == cap) commands = realloc(commands, (cap *= 2) * sizeof *commands);
+    command_t *c = &commands[n_commands++];
+    c->cycle = cycle;
+    c->n = len / 2;
+    c->bytes = malloc(c->n ? c->n : 1);
+    for (size_t i = 0; i < c->n; i++) {
+      int hi = hexval(hex[2 * i]), lo = hexval(hex[2 * i + 1]);
+      if (hi < 0 || lo < 0) die("commands: bad hex");
+      c->bytes[i] = (uint8_t)(hi * 16 + lo);
+    }
+  }
+  fclose(f);
+}
+
+static const char *arg_value(int argc, char **argv, const char *name) {
+  for (int i = 1; i < argc - 1; i++)
+    if (!strcmp(argv[i], name)) return argv[i + 1];
+  return NULL;
+}
+
+static int has_flag(int argc, char **argv, const char *name) {
+  for (int i = 1; i < argc; i++)
+    if (!strcmp(argv[i], name)) return 1;
+  return 0;
+}
+
+int main(int argc, char **argv) {
+  const char *elf = arg_value(argc, argv, "--elf");
+  const char *cycles_s = arg_value(argc, argv, "--cycles");
+  const char *uart_path = arg_value(argc, argv, "--uart-out");
+  const char *applied_path = arg_value(argc, argv, "--applied-out");
+  const char *info_path = arg_value(argc, argv, "--info-out");
+  if (!elf || !cycles_s || !uart_path || !applied_path || !info_path) {
+    fprintf(stderr,
+            "usage: halfswing-emu --elf FILE --cycles N --uart-out FILE --applied-out FILE --info-out FILE\n"
+            "       [--schedule FILE] [--commands FILE] [--uart-times FILE] [--host-baud N] [--no-tifr-fix]\n");
+    return 2;
+  }
+  uint64_t max_cycles = strtoull(cycles_s, NULL, 10);
+  const char *baud_s = arg_value(argc, argv, "--host-baud");
+  unsigned long host_baud = baud_s ? strtoul(baud_s, NULL, 10) : 250000;
+  host_byte_cycles = (uint64_t)HZ * 10 / host_baud;
+  int tifr_fix = !has_flag(argc, argv, "--no-tifr-fix");
+
+  elf_firmware_t fw;
+  memset(&fw, 0, sizeof fw);
+  if (elf_read_firmware(elf, &fw)) die("cannot read the firmware ELF");
+  strcpy(fw.mmcu, "atmega328p");
+  fw.frequency = HZ;
+  avr = avr_make_mcu_by_name(fw.mmcu);
+  if (!avr) die("simavr has no atmega328p");
+  avr->log = LOG_ERROR;
+  avr_init(avr);
+  avr_load_firmware(avr, &fw);
+  avr->frequency = HZ;
+  avr->sleep = no_sleep;  // idle sleep jumps to the next event instead of waiting in real time
+
+  if (tifr_fix) install_tifr_fix();
+  install_tccr1b_watch();
+
+  uart_out = fopen(uart_path, "wb");
+  applied_out = fopen(applied_path, "w");
+  if (!uart_out || !applied_out) die("cannot open the output files");
+  const char *times_path = arg_value(argc, argv, "--uart-times");
+  if (times_path && !(uart_times_out = fopen(times_path, "w"))) die("cannot open the uart-times file");
+
+  // UART: bytes to our own file, not simavr's console echo.
+  uint32_t flags = 0;
+  avr_ioctl(avr, AVR_IOCTL_UART_GET_FLAGS('0'), &flags);
+  flags &= ~(uint32_t)AVR_UART_FLAG_STDIO;
+  avr_ioctl(avr, AVR_IOCTL_UART_SET_FLAGS('0'), &flags);
+  uart_irq = avr_io_getirq(avr, AVR_IOCTL_UART_GETIRQ('0'), 0);
+  avr_irq_register_notify(uart_irq + UART_IRQ_OUTPUT, uart_byte_out, NULL);
+  avr_irq_register_notify(uart_irq + UART_IRQ_OUT_XON, uart_xon, NULL);
+  avr_irq_register_notify(uart_irq + UART_IRQ_OUT_XOFF, uart_xoff, NULL);
+
+  pin_irq[0] = avr_io_getirq(avr, AVR_IOCTL_IOPORT_GETIRQ('B'), IOPORT_IRQ_PIN0);
+  pin_irq[1] = avr_io_getirq(avr, AVR_IOCTL_IOPORT_GETIRQ('D'), IOPORT_IRQ_PIN0 + 2);
+
+  const char *schedule_path = arg_value(argc, argv, "--schedule");
+  if (schedule_path) read_schedule(schedule_path);
+  // Both inputs start low; changes at cycle 0 set other initial levels before the firmware runs.
+  drive(0, 0);
+  drive(1, 0);
+  while (next_change < n_changes && changes[next_change].cycle == 0) {
+    change_t *c = &changes[next_change++];
+    drive(c->ch, c->level);
+    fprintf(applied_out, "0 %d %d\n", c->ch, c->level);
+  }
+  if (next_change < n_changes) avr_cycle_timer_register(avr, changes[next_change].cycle, apply_changes, NULL);
+  const char *commands_path = arg_value(argc, argv, "--commands");
+  if (commands_path) read_commands(commands_path);
+  if (n_commands) avr_cycle_timer_register(avr, commands[0].cycle ? commands[0].cycle : 1, feed_command, NULL);
+
+  int state = cpu_Running;
+  while (avr->cycle < max_cycles) {
+    state = avr_run(avr);
+    if (state == cpu_Done || state == cpu_Crashed) break;
+  }
+
+  FILE *info = fopen(info_path, "w");
+  if (!info) die("cannot open the info file");
+  unsigned ubrr = avr->data[ADDR_UBRR0L] | (unsigned)(avr->data[ADDR_UBRR0H] << 8);
+  fprintf(info,
+          "{\"hz\":%u,\"cycles\":%" PRIu64 ",\"timer1Start\":%" PRId64 ",\"tifrFix\":%s,\"state\":%d,"
+          "\"ubrr\":%u,\"u2x\":%d,\"bytesOut\":%lu,\"changesApplied\":%zu}\n",
+          HZ, (uint64_t)avr->cycle, timer1_start == UINT64_MAX ? (int64_t)-1 : (int64_t)timer1_start,
+          tifr_fix ? "true" : "false", state, ubrr, (avr->data[ADDR_UCSR0A] >> 1) & 1, bytes_out, next_change);
+  fclose(info);
+  fclose(uart_out);
+  fclose(applied_out);
+  if (uart_times_out) fclose(uart_times_out);
+  return state == cpu_Crashed ? 3 : 0;
+}
