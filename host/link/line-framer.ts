@@ -1,0 +1,103 @@
+// Byte-stream framing of device lines with a hard length cap: the readline parser never bounds its buffer.
+import { decodeLine } from '../../protocol/decode.ts';
+import { MAX_LINE_BYTES } from '../../protocol/records.ts';
+
+/** Running counts of what the framer dropped; lines it passes on are not counted here. */
+export interface FramerCounts {
+  /** Lines longer than the protocol limit, dropped whole (up to their LF). */
+  readonly overLong: number;
+  /** Partial lines left at close that did not carry a valid CRC, discarded. */
+  readonly tailsDiscarded: number;
+}
+
+const LF = 0x0a;
+const CR = 0x0d;
+
+/**
+ * Splits raw bytes into lines at LF, strips one trailing CR, and never holds more than the protocol's
+ * 80 bytes: a line that grows past the cap is dropped up to its LF and counted. Lines are latin1 text,
+ * so any byte survives to the decoder, which rejects non-ASCII itself.
+ */
+export class LineFramer {
+  private readonly buf: Buffer;
+  private len = 0;
+  private overflowing = false;
+  private overLong = 0;
+  private tailsDiscarded = 0;
+
+  /**
+   * `maxBytes` is the protocol limit, LF included. One byte more is held so that a full-length line sent
+   * with CR LF still reaches the decoder, which applies the exact limit after stripping the CR.
+   */
+  constructor(private readonly maxBytes = MAX_LINE_BYTES) {
+    this.buf = Buffer.alloc(maxBytes);
+  }
+
+  /** Feeds one chunk; calls `emit` for each complete line (without CR LF), in order. */
+  push(chunk: Uint8Array, emit: (line: string) => void): void {
+    let start = 0;
+    while (start < chunk.length) {
+      const lf = chunk.indexOf(LF, start);
+      const end = lf < 0 ? chunk.length : lf;
+      this.take(chunk, start, end);
+      if (lf < 0) return;
+      this.endLine(emit);
+      start = lf + 1;
+    }
+  }
+
+  /**
+   * Ends the stream: a held partial line is passed on only when it decodes (a whole record whose LF was
+   * lost at close); any other tail is discarded and counted.
+   */
+  flush(emit: (line: string) => void): void {
+    if (this.overflowing) {
+      this.overLong++;
+    } else if (this.len > 0) {
+      const line = this.text();
+      if (decodeLine(line).ok) emit(line);
+      else this.tailsDiscarded++;
+    }
+    this.len = 0;
+    this.overflowing = false;
+  }
+
+  /** Bytes currently held (a partial line); never more than the cap. */
+  held(): number {
+    return this.len;
+  }
+
+  counts(): FramerCounts {
+    return { overLong: this.overLong, tailsDiscarded: this.tailsDiscarded };
+  }
+
+  private take(chunk: Uint8Array, start: number, end: number): void {
+    if (this.overflowing || start === end) return;
+    const n = end - start;
+    if (this.len + n > this.maxBytes) {
+      this.overflowing = true;
+      this.len = 0;
+      return;
+    }
+    this.buf.set(chunk.subarray(start, end), this.len);
+    this.len += n;
+  }
+
+  private endLine(emit: (line: string) => void): void {
+    if (this.overflowing) {
+      this.overLong++;
+    } else {
+      const line = this.text();
+      // An empty line (a bare LF, or CR LF) is passed on: the decoder counts it as 'empty'.
+      emit(line);
+    }
+    this.len = 0;
+    this.overflowing = false;
+  }
+
+  private text(): string {
+    let n = this.len;
+    if (n > 0 && this.buf[n - 1] === CR) n--;
+    return this.buf.toString('latin1', 0, n);
+  }
+}

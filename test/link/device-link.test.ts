@@ -1,0 +1,227 @@
+import { MockBinding } from '@serialport/binding-mock';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { BindingInterface, BindingOpenOptions } from '../../host/link/binding-types.ts';
+import { openDeviceLink, type DeviceLink, type LinkEvent } from '../../host/link/device-link.ts';
+import { DeviceLines } from './helpers/device-lines.ts';
+import { FakeBinding } from './helpers/fake-binding.ts';
+
+/** Collects events until `stop` matches (or the link closes). */
+async function collect(link: DeviceLink, stop: (all: LinkEvent[]) => boolean): Promise<LinkEvent[]> {
+  const all: LinkEvent[] = [];
+  for await (const e of link) {
+    all.push(e);
+    if (stop(all)) break;
+  }
+  return all;
+}
+
+const states = (evs: LinkEvent[]): string[] => evs.flatMap((e) => (e.type === 'state' ? [e.state] : []));
+const lines = (evs: LinkEvent[]): string[] => evs.flatMap((e) => (e.type === 'line' ? [e.line] : []));
+const notes = (evs: LinkEvent[]): string[] => evs.flatMap((e) => (e.type === 'annotation' ? [e.word] : []));
+const tick = (ms = 5): Promise<void> => new Promise((r) => setTimeout(r, ms));
+
+async function until(pred: () => boolean, what: string): Promise<void> {
+  for (let i = 0; i < 2000 && !pred(); i++) await tick();
+  if (!pred()) throw new Error(`timed out waiting for ${what}`);
+}
+
+/** The ESM MockBinding handed to the link as is (SerialPortMock.binding would be the CJS copy: another registry). */
+type MockPort = { emitData(d: Buffer | string): void; recording: Buffer; isOpen: boolean };
+function capturingMock(): { binding: BindingInterface; port: () => MockPort | undefined } {
+  let last: MockPort | undefined;
+  const binding = {
+    list: () => MockBinding.list(),
+    open: async (o: BindingOpenOptions) => {
+      const p = await MockBinding.open(o);
+      last = p as unknown as MockPort;
+      return p;
+    },
+  } as unknown as BindingInterface;
+  return { binding, port: () => last };
+}
+
+describe('device link on @serialport/binding-mock', () => {
+  const dev = new DeviceLines();
+  const boot = ['\x00\xf0 bootloader noise', dev.hello(), dev.beat(16e6), dev.edge(17e6, 'f')];
+  beforeEach(() => MockBinding.createPort('/dev/ttyMOCK0', { echo: false, record: true, readyData: Buffer.from(boot.map((l) => `${l}\r\n`).join(''), 'latin1') }));
+  afterEach(() => MockBinding.reset());
+
+  it('waits for the hello, passes every line (CR stripped) stamped with the injected clock, and resolves ready', async () => {
+    let t = 0;
+    const { binding } = capturingMock();
+    const link = openDeviceLink({ port: '/dev/ttyMOCK0', binding, now: () => (t += 10) });
+    const evs = await collect(link, (all) => lines(all).length === boot.length);
+    const hello = await link.ready;
+    expect(hello.fw).toBe('1.0.0');
+    expect(lines(evs)).toEqual(boot);
+    expect(states(evs)).toEqual(['opening', 'waiting-hello', 'connected']);
+    // The connect annotation comes just before the hello line, at its arrival time.
+    const kinds = evs.flatMap((e) => (e.type === 'line' ? [e.line.slice(0, 1)] : e.type === 'annotation' ? [e.word] : []));
+    expect(kinds.indexOf('connect')).toBe(kinds.indexOf('H') - 1);
+    const stamps = evs.flatMap((e) => (e.type === 'line' ? [e.hostUs] : []));
+    // All four lines arrived in one chunk: one arrival time for all.
+    expect(new Set(stamps).size).toBe(1);
+    expect(link.stats()).toMatchObject({ lines: 4, validLines: 3, lineErrors: 1 });
+    await link.close();
+  });
+
+  it('sends commands as LF-terminated lines', async () => {
+    const { binding, port } = capturingMock();
+    const link = openDeviceLink({ port: '/dev/ttyMOCK0', binding });
+    await link.ready;
+    await link.send('P 500');
+    expect(port()!.recording.toString('latin1')).toBe('P 500\n');
+    await link.close();
+  });
+
+  it('learns a new heartbeat period from the P reply', async () => {
+    const { binding, port } = capturingMock();
+    const link = openDeviceLink({ port: '/dev/ttyMOCK0', binding });
+    await link.ready;
+    port()!.emitData(`${dev.reply('P', ['ms=250'])}\n`);
+    await until(() => link.stats().heartbeatMs === 250, 'P reply');
+    await link.close();
+  });
+});
+
+describe('device link: hello timeout tells what the far end did', () => {
+  const cases: [string, string | Buffer, RegExp][] = [
+    ['silence', '', /no data from \/dev\/ttyX in 0\.2 s: wrong port/],
+    ['wrong baud: bytes with no line structure', Buffer.from(Array.from({ length: 300 }, (_, i) => (i * 37 + 11) & 0xfe | 0x80)), /not text lines at 250000 baud: probably the wrong baud/],
+    ['another program', 'Temperature: 21.5 C\r\nTemperature: 21.6 C\r\n', /speaks something else: 2 lines .*"Temperature: 21.5 C"/],
+  ];
+  for (const [name, bytes, want] of cases) {
+    it(name, async () => {
+      const b = new FakeBinding();
+      b.add('/dev/ttyX');
+      const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 200, helloNudgeMs: 50 });
+      await until(() => b.isOpen('/dev/ttyX'), 'open');
+      if (bytes.length > 0) b.port('/dev/ttyX').emit(bytes);
+      await expect(link.ready).rejects.toThrow(want);
+      expect(b.isOpen('/dev/ttyX')).toBe(false);
+    });
+  }
+
+  it('asks with ? when the board was not reset by the open, and connects on the reply', async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 2000, helloNudgeMs: 30 });
+    expect((await link.ready).boot).toBe(d.boot);
+    await link.close();
+  });
+});
+
+describe('device link: open failures become one clear line', () => {
+  it('a missing port', async () => {
+    const b = new FakeBinding();
+    await expect(openDeviceLink({ port: '/dev/ttyNOPE', binding: b }).ready).rejects.toThrow(/no serial port \/dev\/ttyNOPE: check the cable/);
+  });
+  it('a busy port', async () => {
+    const b = new FakeBinding();
+    b.add('/dev/ttyX');
+    b.openError = 'Error Resource temporarily unavailable Cannot lock port';
+    await expect(openDeviceLink({ port: '/dev/ttyX', binding: b }).ready).rejects.toThrow(/\/dev\/ttyX is busy: another program holds it/);
+  });
+  it('permission denied names the group to join', async () => {
+    // The message bindings-cpp 13 builds from strerror(EACCES) (src/serialport_unix.cpp).
+    const b = new FakeBinding();
+    b.add('/dev/ttyX');
+    b.openError = 'Error: Permission denied, cannot open /dev/ttyX';
+    const err = openDeviceLink({ port: '/dev/ttyX', binding: b }).ready;
+    await expect(err).rejects.toThrow(process.platform === 'linux' ? /join the group .*dialout/ : /permission denied/);
+  });
+  it('--port auto with no board, and with two', async () => {
+    await expect(openDeviceLink({ port: 'auto', binding: new FakeBinding(), sysRoot: '/nonexistent' }).ready).rejects.toThrow(/no USB serial port found/);
+    const b = new FakeBinding();
+    b.add('/dev/ttyACM0', { vendorId: '2341', productId: '0043' });
+    b.add('/dev/ttyACM1', { vendorId: '2341', productId: '0043' });
+    await expect(openDeviceLink({ port: 'auto', binding: b, sysRoot: '/nonexistent' }).ready).rejects.toThrow(/2 candidate ports .*pass one with --port/);
+  });
+});
+
+describe('device link: unplug, replug and reboot (fake binding)', () => {
+  const fast = { helloTimeoutMs: 500, helloNudgeMs: 20, heartbeatMs: 40, backoffMs: { first: 10, max: 40 }, sysRoot: '/nonexistent' };
+
+  it('journals one disconnect and one connect, and finds the board under its new path by serial number', async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    const answer = (cmd: string): string[] => (cmd === '?' ? [d.hello()] : []);
+    b.add('/dev/ttyACM0', { serialNumber: 'A1B2C3', vendorId: '2341', productId: '0043' }, answer);
+    const link = openDeviceLink({ port: '/dev/ttyACM0', binding: b, ...fast });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await link.ready;
+    b.port('/dev/ttyACM0').emit(`${d.beat(16e6)}\n${d.edge(16.5e6, 'f')}\n`);
+    await until(() => lines(all).length === 3, 'lines before unplug');
+    await tick(20); // the identity is learnt from list() after the hello
+    const unplugged = b.unplug('/dev/ttyACM0');
+    await until(() => states(all).includes('reconnecting'), 'reconnecting');
+    await tick(50);
+    b.replug(unplugged, '/dev/ttyACM1');
+    await until(() => states(all).filter((s) => s === 'connected').length === 2, 'second connect');
+    b.port('/dev/ttyACM1').emit(`${d.beat(32e6)}\n`);
+    await until(() => lines(all).length === 5, 'lines after replug');
+    expect(notes(all)).toEqual(['connect', 'disconnect', 'connect']);
+    expect(link.path()).toBe('/dev/ttyACM1');
+    expect(link.stats().reconnects).toBe(1);
+    // Backoff grows while the board is away.
+    const delays = all.flatMap((e) => (e.type === 'state' && e.state === 'reconnecting' ? [e.delayMs] : []));
+    expect(delays.length).toBeGreaterThan(1);
+    expect(delays[1]!).toBeGreaterThan(delays[0]!);
+    await link.close();
+    expect(notes(all).at(-1)).toBe('disconnect');
+    expect(states(all).at(-1)).toBe('closed');
+  });
+
+  it('declares the link lost when heartbeats stop for 3 periods, and recovers', async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await link.ready;
+    // No heartbeat at all after the hello: silent for > 3 × 40 ms.
+    await until(() => notes(all).includes('disconnect'), 'silence detected');
+    expect(notes(all)).toEqual(['connect', 'disconnect']);
+    const disc = all.find((e) => e.type === 'annotation' && e.word === 'disconnect');
+    expect(disc && disc.type === 'annotation' && disc.text).toMatch(/no heartbeat for/);
+    await until(() => notes(all).length === 3, 'reconnected');
+    expect(notes(all)[2]).toBe('connect');
+    await link.close();
+  });
+
+  it('a reboot (new hello, new boot id) is just lines: the link stays connected', async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, heartbeatMs: 1000 });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await link.ready;
+    d.reboot(0x9999);
+    b.port('/dev/ttyX').emit(`${d.hello()}\n${d.beat(16e6)}\n`);
+    await until(() => lines(all).length === 3, 'lines after reboot');
+    expect(notes(all)).toEqual(['connect']);
+    expect(states(all).filter((s) => s === 'connected')).toHaveLength(1);
+    await link.close();
+  });
+
+  it('close() passes on a last line whose LF never came, if it decodes', async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, heartbeatMs: 1000 });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await link.ready;
+    await tick(50);
+    const before = link.stats().bytes;
+    const last = d.beat(16e6);
+    b.port('/dev/ttyX').emit(last);
+    await until(() => link.stats().bytes === before + last.length, 'bytes');
+    await link.close();
+    expect(lines(all).at(-1)).toBe(last);
+  });
+});
