@@ -1,13 +1,175 @@
-// Placeholder until the sim command lands.
-import type { Command } from '../command.ts';
+// `halfswing sim`: run a simulated rig to a journal file (with its truth), a pseudo-terminal, or stdout.
+import { once } from 'node:events';
+import { writeFile, rename } from 'node:fs/promises';
+import { optNumber, optString, type Command, type CommandIo, type ParsedArgs } from '../command.ts';
 import { UserError } from '../errors.ts';
+import {
+  DEFAULT_SCENARIO,
+  listScenarios,
+  loadScenario,
+  ScenarioError,
+  simulateJournal,
+  truthJson,
+  type Scenario,
+  type SimOptions,
+} from '../../../sim/index.ts';
+import { paceLines } from '../../../sim/pace.ts';
+import { truthPathFor, writeScenarioJournal } from '../../../sim/outlets/journal-file.ts';
+
+/** Parses 90, 90s, 20m, 2h, 7d into seconds. */
+export function parseDuration(s: string): number {
+  const m = /^([0-9]+(?:\.[0-9]+)?)\s*(s|m|h|d)?$/.exec(s.trim());
+  const v = m ? Number(m[1]) * { s: 1, m: 60, h: 3600, d: 86400 }[(m[2] ?? 's') as 's'] : NaN;
+  if (!(v > 0)) throw new UserError(`--duration must be a time like 90s, 20m, 2h or 7d, not '${s}'`, 2);
+  return v;
+}
+
+function loadOrFail(name: string, cwd: string): Scenario {
+  try {
+    return loadScenario(name, cwd);
+  } catch (e) {
+    if (e instanceof ScenarioError) throw new UserError(`${e.message} (run 'halfswing sim --list')`);
+    throw e;
+  }
+}
+
+function simOptions(args: ParsedArgs): SimOptions {
+  const deg = optNumber(args, 'release', { min: -179, max: 179 });
+  const offsetMm = optNumber(args, 'offset-mm');
+  const dur = optString(args, 'duration');
+  const o: SimOptions = {
+    seed: optNumber(args, 'seed', { integer: true, min: 0, max: Number.MAX_SAFE_INTEGER }) ?? 1,
+    durationS: dur !== undefined ? parseDuration(dur) : undefined,
+    length_m: optNumber(args, 'length', { min: 0.01, max: 100 }),
+    g_m_s2: optNumber(args, 'g', { min: 0.1, max: 100 }),
+    release_deg: deg,
+    linear_q: optNumber(args, 'q', { min: 0.5 }),
+    quadratic_per_rad: optNumber(args, 'quadratic', { min: 0 }),
+    coulomb_rad: optNumber(args, 'coulomb', { min: 0 }),
+    ppm: optNumber(args, 'ppm', { min: -1e5, max: 1e5 }),
+    drift_ppm_per_h: optNumber(args, 'drift', { min: -1e4, max: 1e4 }),
+    gate_offset_m: offsetMm !== undefined ? offsetMm / 1000 : undefined,
+    start: optString(args, 'start'),
+    no_faults: args.values['no-faults'] === true,
+  };
+  return o;
+}
+
+async function write(out: NodeJS.WritableStream, text: string): Promise<boolean> {
+  if (out.write(text)) return true;
+  const r = await Promise.race([once(out, 'drain').then(() => true), once(out, 'error').then(() => false)]);
+  return r;
+}
+
+async function toStdout(scenario: Scenario, o: SimOptions, speed: number, truthFile: string | undefined, io: CommandIo): Promise<number> {
+  const { lines, truth } = simulateJournal(scenario, o);
+  let closed = false;
+  io.stdout.on('error', () => (closed = true));
+  const ac = new AbortController();
+  const onInt = (): void => ac.abort();
+  process.once('SIGINT', onInt);
+  try {
+    const source = Number.isFinite(speed) ? paceLines(lines, { speed, signal: ac.signal }) : lines;
+    let chunk = '';
+    for await (const line of source as AsyncIterable<string>) {
+      chunk += `${line}\n`;
+      if (chunk.length >= 1 << 15 || Number.isFinite(speed)) {
+        if (!(await write(io.stdout, chunk)) || closed) return 0;
+        chunk = '';
+      }
+    }
+    if (chunk) await write(io.stdout, chunk);
+  } finally {
+    process.removeListener('SIGINT', onInt);
+  }
+  if (truthFile && truth.complete) {
+    const tmp = `${truthFile}.tmp-${process.pid}`;
+    await writeFile(tmp, `${truthJson(truth)}\n`);
+    await rename(tmp, truthFile);
+  }
+  return 0;
+}
 
 export const command: Command = {
   name: 'sim',
-  summary: 'not built yet',
-  usage: 'sim',
-  options: {},
-  async run() {
-    throw new UserError('sim is not built yet in this version', 1);
+  summary: 'simulate a pendulum rig and its device, to a journal, a pty or stdout',
+  usage: 'sim [--scenario NAME|FILE] [--journal FILE | --pty] [options]',
+  options: {
+    scenario: { type: 'string', short: 's', arg: 'NAME|FILE', description: 'scenario name (see --list) or scenario JSON file', default: DEFAULT_SCENARIO },
+    list: { type: 'boolean', description: 'list the bundled scenarios and exit' },
+    journal: { type: 'string', short: 'o', arg: 'FILE', description: 'write the journal to FILE, and its truth to FILE.truth.json' },
+    truth: { type: 'string', arg: 'FILE', description: 'when streaming to stdout: write the truth JSON to FILE at the end' },
+    pty: { type: 'boolean', description: 'serve the device on a pseudo-terminal (prints the port to open; needs socat)' },
+    speed: { type: 'string', arg: 'N', description: 'N× real time (default: as fast as possible for files and stdout, 1 for --pty)' },
+    seed: { type: 'string', arg: 'N', description: 'random seed; the same seed gives the same bytes', default: '1' },
+    duration: { type: 'string', arg: 'TIME', description: 'rig time to simulate: 90s, 20m, 2h, 7d (default: the scenario\'s)' },
+    length: { type: 'string', arg: 'M', description: 'pendulum length, pivot to bob centre (m)' },
+    g: { type: 'string', arg: 'M/S2', description: 'true local g (m/s²)' },
+    release: { type: 'string', arg: 'DEG', description: 'release angle (degrees)' },
+    q: { type: 'string', arg: 'Q', description: 'linear (viscous) damping as small-amplitude Q' },
+    quadratic: { type: 'string', arg: 'C', description: 'quadratic (air) damping c in −c|θ\'|θ\' (1/rad)' },
+    coulomb: { type: 'string', arg: 'RAD', description: 'pivot friction θ_f (rad; amplitude falls 4θ_f per cycle)' },
+    ppm: { type: 'string', arg: 'PPM', description: 'device clock frequency error (ppm, + runs fast)' },
+    drift: { type: 'string', arg: 'PPM/H', description: 'device clock drift (ppm per hour)' },
+    'offset-mm': { type: 'string', arg: 'MM', description: 'beam offset from the lowest point (mm, + toward the release side)' },
+    start: { type: 'string', arg: 'ISO', description: 'the journal\'s #start time (ISO-8601 UTC)' },
+    'no-faults': { type: 'boolean', description: 'drop every fault of the scenario' },
+  },
+  details: `
+Scenarios are JSON files (rig, physics, gate, device, host, faults); see DEVELOPERS.md, "Simulator".
+With neither --journal nor --pty the journal streams to stdout, e.g.  halfswing sim --duration 10m | halfswing analyze -
+Everything is simulated: no hardware is touched.`,
+  async run(args, io) {
+    if (args.values.list) {
+      for (const name of listScenarios()) {
+        const s = loadOrFail(name, io.cwd);
+        io.stdout.write(`${name.padEnd(22)}${s.description}\n`);
+      }
+      return 0;
+    }
+    const scenario = loadOrFail(optString(args, 'scenario') ?? DEFAULT_SCENARIO, io.cwd);
+    const o = simOptions(args);
+    const speedS = optNumber(args, 'speed', { min: 1e-3, max: 1e6 });
+    const journal = optString(args, 'journal');
+    if (journal && args.values.pty) throw new UserError('sim: choose --journal FILE or --pty, not both', 2);
+    let sc: Scenario;
+    try {
+      sc = scenario;
+      simulateJournal(sc, o); // validates the overrides before anything is opened
+    } catch (e) {
+      if (e instanceof ScenarioError) throw new UserError(`sim: ${e.message}`, 2);
+      throw e;
+    }
+    if (journal) {
+      const t = Date.now();
+      const { lines, truth } = await writeScenarioJournal(sc, { ...o, path: journal });
+      io.stderr.write(
+        `halfswing sim: wrote ${journal} (${lines} lines, ${(truth.duration_s / 3600).toFixed(2)} h of rig time, ${((Date.now() - t) / 1000).toFixed(1)} s) and ${truthPathFor(journal)}\n`,
+      );
+      return 0;
+    }
+    if (args.values.pty) {
+      const { servePty, PtyError } = await import('../../../sim/outlets/pty.ts');
+      const ac = new AbortController();
+      const onInt = (): void => ac.abort();
+      process.once('SIGINT', onInt);
+      process.once('SIGTERM', onInt);
+      try {
+        await servePty(sc, {
+          ...o,
+          speed: speedS ?? 1,
+          signal: ac.signal,
+          onReady: (p) => io.stdout.write(`halfswing sim: simulated device on ${p} (scenario ${sc.name}, ${speedS ?? 1}× real time; Ctrl-C stops)\n`),
+        });
+      } catch (e) {
+        if (e instanceof PtyError) throw new UserError(`sim: ${e.message}`);
+        throw e;
+      } finally {
+        process.removeListener('SIGINT', onInt);
+        process.removeListener('SIGTERM', onInt);
+      }
+      return 0;
+    }
+    return toStdout(sc, o, speedS ?? Infinity, optString(args, 'truth'), io);
   },
 };

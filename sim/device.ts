@@ -1,0 +1,342 @@
+// The device model: captures pin edges in ticks, sends H/E/T/R lines like the firmware, reboots, stalls and drops.
+import { encodeRecord } from '../protocol/encode.ts';
+import { SEQ_MODULO, type DeviceRecord } from '../protocol/records.ts';
+import { DeviceClock } from './device-clock.ts';
+import type { FaultSchedule, Window } from './fault-schedule.ts';
+import type { PinEdge } from './optics.ts';
+import type { Rng } from './prng.ts';
+import type { Scenario } from './scenario.ts';
+import type { BootTruth, FaultCounts } from './truth.ts';
+
+/** A line as it enters the device's UART, host (true) seconds. */
+export interface DeviceLine {
+  readonly t: number;
+  readonly line: string;
+}
+
+/** Reset-cause bits of the AVR MCUSR register (PORF, EXTRF, BORF, WDRF; ATmega328P datasheet, MCUSR). */
+const RESET_CAUSE: Readonly<Record<string, number>> = { power: 1, external: 2, brownout: 4, watchdog: 8 };
+/** Longest host command the model accepts, in characters (without the LF). */
+export const MAX_COMMAND_CHARS = 16;
+const TICKS_MAX = 2 ** 48;
+/** Time from receiving a command to its reply entering the UART. */
+const REPLY_LATENCY_S = 60e-6;
+
+/** A record before its seq is assigned (at the moment it is sent). */
+type Body = DeviceRecord extends infer R ? (R extends DeviceRecord ? Omit<R, 'seq'> : never) : never;
+interface Pending {
+  at: number;
+  body: Body | undefined;
+  /** Set when the line was sealed early (a reboot kept it in the UART while seq restarted). */
+  line: string | undefined;
+}
+
+type Input = 'edge' | 'heartbeat' | 'reboot' | 'ready' | 'stall' | 'resume';
+
+export interface DeviceOptions {
+  readonly device: Scenario['device'];
+  readonly channel: number;
+  readonly initialLevel: 0 | 1;
+  readonly schedule: FaultSchedule;
+  readonly rng: Rng;
+  readonly counts: FaultCounts;
+  readonly boots: BootTruth[];
+  /** No line is formed after this host time. */
+  readonly tEnd: number;
+}
+
+export class DeviceModel {
+  private readonly cfg: Scenario['device'];
+  private readonly rng: Rng;
+  private readonly pending: Pending[] = [];
+  private readonly levels: number[];
+  private nextEdge: PinEdge | undefined;
+  private up = false;
+  private readyAt: number;
+  private readyCause = 'power';
+  private clock: DeviceClock | undefined;
+  private bootId = 0;
+  private rc = 1;
+  private seq = 0;
+  private lost = 0;
+  private mask: number;
+  private hbTicksPer = 0;
+  private nextHbTicks = Infinity;
+  private nextHbAt = Infinity;
+  private stalledUntil: number | undefined;
+  private stallQueued = 0;
+  /** Keeps lines released at the end of a stall in their original order. */
+  private stallOrder = 0;
+  private lastAt = -Infinity;
+  private ri = 0;
+  private si = 0;
+  private di = 0;
+
+  constructor(
+    private readonly o: DeviceOptions,
+    private readonly edges: Iterator<PinEdge>,
+  ) {
+    this.cfg = o.device;
+    this.rng = o.rng;
+    this.levels = Array.from({ length: this.cfg.channels }, (_, i) => (i === o.channel ? o.initialLevel : 1));
+    this.mask = (1 << this.cfg.channels) - 1;
+    this.readyAt = this.cfg.first_boot_s;
+    this.pullEdge();
+  }
+
+  /** Host time at which the next line enters the UART (Infinity when the run is over). */
+  peekTime(): number {
+    this.settle();
+    return this.pending.length ? this.pending[0]!.at : Infinity;
+  }
+
+  /** The next line, its seq assigned now (so replies to commands slot in correctly). */
+  pop(): DeviceLine | undefined {
+    this.settle();
+    const p = this.pending.shift();
+    if (!p) return undefined;
+    this.lastAt = p.at;
+    this.o.counts.lines_sent++;
+    return { t: p.at, line: p.line ?? this.seal(p.body!) };
+  }
+
+  /** A host command line (without LF) arriving at host time t; the reply is queued like the firmware's. */
+  command(t: number, text: string): void {
+    this.advanceTo(t);
+    if (!this.up || this.stalledUntil !== undefined) return;
+    const cmdLine = text.replace(/\r$/, '');
+    if (cmdLine.length === 0) return;
+    this.queue(Math.max(t + REPLY_LATENCY_S, this.lastAt), this.reply(cmdLine, t));
+  }
+
+  private reply(text: string, t: number): Body {
+    const c = text[0]!;
+    const cmd = /^[\x21-\x7e]$/.test(c) ? c : '-';
+    const err = (reason: string): Body => ({ kind: 'R', ok: false, cmd, reason, fields: [] });
+    if (text.length > MAX_COMMAND_CHARS) return err('too-long');
+    if (c === '?') return text === '?' ? this.hello() : err('syntax');
+    if (c === 'P') {
+      const m = /^P ([0-9]{1,5})$/.exec(text);
+      if (!m) return err('syntax');
+      const ms = Number(m[1]);
+      if (ms < 100 || ms > 60000) return err('range');
+      this.setHeartbeat(ms, this.clock!.ticksAt(t));
+      return { kind: 'R', ok: true, cmd, fields: [`ms=${ms}`] };
+    }
+    if (c === 'C') {
+      const m = /^C ([0-9a-fA-F]{1,2})$/.exec(text);
+      if (!m) return err('syntax');
+      const mask = parseInt(m[1]!, 16);
+      if (mask >= 1 << this.cfg.channels) return err('range');
+      this.mask = mask;
+      return { kind: 'R', ok: true, cmd, fields: [`mask=${mask.toString(16)}`] };
+    }
+    return err('unknown');
+  }
+
+  private hello(): Body {
+    return {
+      kind: 'H',
+      proto: 1,
+      fw: this.cfg.fw,
+      mcu: this.cfg.mcu,
+      hz: this.cfg.hz,
+      ch: this.cfg.channels,
+      boot: this.bootId,
+      extra: { rc: this.rc.toString(16) },
+    };
+  }
+
+  private seal(b: Body): string {
+    const line = encodeRecord({ ...b, seq: this.seq } as DeviceRecord);
+    this.seq = (this.seq + 1) % SEQ_MODULO;
+    return line;
+  }
+
+  private queue(at: number, body: Body): void {
+    let i = this.pending.length;
+    while (i > 0 && this.pending[i - 1]!.at > at) i--;
+    this.pending.splice(i, 0, { at, body, line: undefined });
+  }
+
+  private emitLatency(): number {
+    const [a, b] = this.cfg.emit_latency_us;
+    return this.rng.between(a, b) * 1e-6;
+  }
+
+  private pullEdge(): void {
+    const r = this.edges.next();
+    this.nextEdge = r.done ? undefined : r.value;
+  }
+
+  /** The next input event at or after the current state, and its time. */
+  private nextInput(): [number, Input] {
+    const s = this.o.schedule;
+    let best: [number, Input] = [this.nextEdge ? this.nextEdge.t : Infinity, 'edge'];
+    const consider = (t: number, k: Input) => {
+      if (t < best[0]) best = [t, k];
+    };
+    if (this.up && this.stalledUntil === undefined) consider(this.nextHbAt, 'heartbeat');
+    if (!this.up) consider(this.readyAt, 'ready');
+    if (this.ri < s.reboots.length) consider(s.reboots[this.ri]!.t, 'reboot');
+    if (this.stalledUntil !== undefined) consider(this.stalledUntil, 'resume');
+    else if (this.si < s.stalls.length) consider(s.stalls[this.si]!.start, 'stall');
+    return best;
+  }
+
+  /** Processes inputs until the head line cannot be preceded or removed by any later input. */
+  private settle(): void {
+    for (;;) {
+      const [t, kind] = this.nextInput();
+      const head = this.pending.length ? this.pending[0]!.at : Infinity;
+      if (head < t || t > this.o.tEnd) {
+        if (head > this.o.tEnd) this.pending.length = 0;
+        return;
+      }
+      this.process(t, kind);
+    }
+  }
+
+  private advanceTo(tNow: number): void {
+    for (;;) {
+      const [t, kind] = this.nextInput();
+      if (t > tNow) return;
+      this.process(t, kind);
+    }
+  }
+
+  private process(t: number, kind: Input): void {
+    switch (kind) {
+      case 'edge':
+        this.onEdge(this.nextEdge!);
+        this.pullEdge();
+        return;
+      case 'heartbeat':
+        this.onHeartbeat(t);
+        return;
+      case 'reboot':
+        this.onReboot(t, this.o.schedule.reboots[this.ri]!.cause);
+        this.ri++;
+        return;
+      case 'ready':
+        this.onBoot(t);
+        return;
+      case 'stall': {
+        const w = this.o.schedule.stalls[this.si++]!;
+        this.onStall(w);
+        return;
+      }
+      case 'resume':
+        this.onResume(t);
+        return;
+    }
+  }
+
+  private inDrop(t: number): boolean {
+    const d = this.o.schedule.drops;
+    while (this.di < d.length && d[this.di]!.end <= t) this.di++;
+    return this.di < d.length && d[this.di]!.start <= t;
+  }
+
+  private onEdge(e: PinEdge): void {
+    const ch = this.o.channel;
+    const changed = this.levels[ch] !== e.level;
+    this.levels[ch] = e.level;
+    if (!changed) return;
+    if (!this.up) {
+      this.o.counts.edges_missed_while_down++;
+      return;
+    }
+    if (!(this.mask & (1 << ch))) return;
+    if (this.inDrop(e.t)) {
+      this.lost++;
+      this.o.counts.edges_lost_by_device++;
+      return;
+    }
+    const ticks = (Math.floor(this.clock!.ticksAt(e.t)) + this.cfg.capture_latency_ticks) % TICKS_MAX;
+    const body: Body = { kind: 'E', ch, edge: e.level ? 'r' : 'f', ticks };
+    if (this.stalledUntil !== undefined) {
+      if (this.stallQueued >= this.cfg.buffer_edges) {
+        this.lost++;
+        this.o.counts.edges_lost_by_device++;
+        this.o.counts.edges_lost_in_stall++;
+        return;
+      }
+      this.stallQueued++;
+      this.o.counts.edges_captured++;
+      this.queue(this.stalledUntil + ++this.stallOrder * 1e-6, body);
+      return;
+    }
+    this.o.counts.edges_captured++;
+    // Lines leave in capture order: the main loop drains the edge buffer first in, first out.
+    const lastE = this.pending.length ? this.pending[this.pending.length - 1]!.at : -Infinity;
+    this.queue(Math.max(e.t + this.emitLatency(), lastE), body);
+  }
+
+  private setHeartbeat(ms: number, fromTicks: number): void {
+    this.hbTicksPer = (this.cfg.hz * ms) / 1000;
+    this.nextHbTicks = fromTicks + this.hbTicksPer;
+    this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+  }
+
+  private onHeartbeat(t: number): void {
+    const levels = this.levels.reduce((m, l, i) => m | (l << i), 0);
+    this.queue(Math.max(t, this.lastQueued()), { kind: 'T', ticks: Math.floor(this.clock!.ticksAt(t)) % TICKS_MAX, lost: this.lost, levels });
+    this.nextHbTicks += this.hbTicksPer;
+    this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+  }
+
+  private lastQueued(): number {
+    return this.pending.length ? this.pending[this.pending.length - 1]!.at : -Infinity;
+  }
+
+  private onReboot(t: number, cause: string): void {
+    // Lines already in the UART go out under the old boot's seq; the rest die with the reset.
+    const keep: Pending[] = [];
+    for (const p of this.pending) {
+      if (p.at < t) keep.push({ ...p, line: p.line ?? this.seal(p.body!) });
+      else this.o.counts.lines_cut_by_reboot++;
+    }
+    this.pending.length = 0;
+    this.pending.push(...keep);
+    this.o.counts.reboots++;
+    this.up = false;
+    this.stalledUntil = undefined;
+    this.readyAt = t + this.cfg.boot_time_s;
+    this.readyCause = cause;
+  }
+
+  private onBoot(t: number): void {
+    this.up = true;
+    this.seq = 0;
+    this.lost = 0;
+    this.rc = RESET_CAUSE[this.readyCause] ?? 1;
+    this.mask = (1 << this.cfg.channels) - 1;
+    this.bootId = this.rng.nextU32() & 0xffff;
+    const phase = this.rng.uniform();
+    this.clock = new DeviceClock(this.cfg.hz, this.cfg.ppm, this.cfg.drift_ppm_per_h, t, phase);
+    this.o.boots.push({ host_s: t, boot_id: this.bootId, phase_ticks: phase, cause: this.readyCause });
+    this.queue(Math.max(t + this.emitLatency(), this.lastQueued()), this.hello());
+    this.setHeartbeat(this.cfg.heartbeat_ms, phase);
+  }
+
+  private onStall(w: Window): void {
+    this.o.counts.stalls++;
+    if (!this.up) return;
+    this.stalledUntil = w.end;
+    this.stallQueued = 0;
+    this.stallOrder = 0;
+    for (const p of this.pending) if (p.at >= w.start) p.at = w.end + ++this.stallOrder * 1e-6;
+  }
+
+  private onResume(t: number): void {
+    this.stalledUntil = undefined;
+    // Heartbeats that fell due in the stall are skipped; the next one keeps the tick grid.
+    while (this.nextHbAt < t) {
+      this.o.counts.heartbeats_skipped++;
+      this.nextHbTicks += this.hbTicksPer;
+      this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+    }
+    this.stallQueued = 0;
+  }
+}

@@ -1,0 +1,13 @@
+// Public surface of the simulator: scenarios, simulated journals and their truth, pacing, outlets.
+export { parseScenario, applyOverrides, ScenarioError } from './scenario.ts';
+export type { Scenario, ScenarioOverrides, Faults } from './scenario.ts';
+export { listScenarios, loadScenario, DEFAULT_SCENARIO, SCENARIO_DIR } from './outlets/scenario-files.ts';
+export { simulateJournal, simulateEntries, simulateDevice, simulatePinEdges } from './simulate.ts';
+export type { SimOptions } from './simulate.ts';
+export type { SimEntry } from './link.ts';
+export type { Truth, FaultCounts, BootTruth } from './truth.ts';
+export { truthJson } from './truth.ts';
+export type { TruePhysics } from './physics.ts';
+export { truePhysics } from './physics.ts';
+export { Rng } from './prng.ts';
+export { ExactPendulum, ellipK, ellipF, jacobi, agm, carlsonRF } from './elliptic.ts';

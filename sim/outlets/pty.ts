@@ -1,0 +1,124 @@
+// The simulated device behind a pseudo-terminal (socat pty pair), so the host opens it like a real serial port.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { SerialPort } from 'serialport';
+import { ReadlineParser } from '@serialport/parser-readline';
+import { corruptLine } from '../link.ts';
+import { Rng } from '../prng.ts';
+import type { Scenario } from '../scenario.ts';
+import { simulateDevice, type SimOptions } from '../simulate.ts';
+import type { Truth } from '../truth.ts';
+
+/** The pty could not be set up (socat missing, links not created). */
+export class PtyError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'PtyError';
+  }
+}
+
+export interface PtyOptions extends SimOptions {
+  readonly speed: number;
+  readonly signal?: AbortSignal;
+  /** Called once with the path the host should open. */
+  readonly onReady: (hostPath: string) => void;
+  readonly now?: () => number;
+}
+
+interface PtyPair {
+  readonly hostPath: string;
+  readonly simPath: string;
+  close(): Promise<void>;
+}
+
+/** Starts `socat` with two linked ptys in a fresh temporary folder. */
+export async function openPtyPair(): Promise<PtyPair> {
+  const dir = await mkdtemp(join(tmpdir(), 'halfswing-pty-'));
+  const hostPath = join(dir, 'ttySIM0');
+  const simPath = join(dir, 'sim-end');
+  let proc: ChildProcess;
+  try {
+    proc = spawn('socat', [`pty,raw,echo=0,link=${hostPath}`, `pty,raw,echo=0,link=${simPath}`], { stdio: 'ignore' });
+  } catch {
+    await rm(dir, { recursive: true, force: true });
+    throw new PtyError('cannot start socat (install it: apt-get install socat)');
+  }
+  const failed = new Promise<string>((resolve) => {
+    proc.once('error', () => resolve('cannot start socat (install it: apt-get install socat)'));
+    proc.once('exit', (code) => resolve(`socat exited early (code ${code})`));
+  });
+  const close = async (): Promise<void> => {
+    if (proc.exitCode === null && proc.signalCode === null) {
+      proc.kill('SIGTERM');
+      await new Promise((r) => proc.once('exit', r));
+    }
+    await rm(dir, { recursive: true, force: true });
+  };
+  for (let i = 0; i < 250; i++) {
+    if (existsSync(hostPath) && existsSync(simPath)) return { hostPath, simPath, close };
+    const why = await Promise.race([failed, new Promise<undefined>((r) => setTimeout(() => r(undefined), 20))]);
+    if (why) {
+      await rm(dir, { recursive: true, force: true });
+      throw new PtyError(why);
+    }
+  }
+  await close();
+  throw new PtyError('socat did not create the pty links within 5 s');
+}
+
+/**
+ * Runs the scenario's device model in real time (× speed) on a pty until the run ends or the signal aborts.
+ * Host commands (`?`, `P`, `C`) are answered like the firmware. Wire faults (lost, corrupted lines) apply;
+ * USB latency and disconnects do not (the host's own port supplies those).
+ */
+export async function servePty(scenario: Scenario, opts: PtyOptions): Promise<Truth> {
+  const pair = await openPtyPair();
+  const { device, truth, scenario: sc } = simulateDevice(scenario, opts);
+  const port = new SerialPort({ path: pair.simPath, baudRate: 115200 });
+  const wireRng = new Rng(opts.seed, 'pty-wire');
+  const counts = truth.faults.counts;
+  try {
+    await new Promise<void>((resolve, reject) => port.once('open', resolve).once('error', reject));
+    const now = opts.now ?? (() => performance.now());
+    const t0 = now();
+    const simNow = (): number => ((now() - t0) / 1000) * opts.speed;
+    let wake: () => void = () => undefined;
+    const commands: { t: number; text: string }[] = [];
+    port.pipe(new ReadlineParser({ delimiter: '\n', encoding: 'latin1' })).on('data', (text: string) => {
+      commands.push({ t: simNow(), text });
+      wake();
+    });
+    const aborted = new Promise<void>((r) => opts.signal?.addEventListener('abort', () => r(), { once: true }));
+    opts.onReady(pair.hostPath);
+    while (!opts.signal?.aborted) {
+      for (const c of commands.splice(0)) device.command(c.t, c.text);
+      const due = device.peekTime();
+      if (due === Infinity) break;
+      const waitMs = ((due - simNow()) * 1000) / opts.speed;
+      if (waitMs > 0) {
+        await Promise.race([new Promise<void>((r) => setTimeout(r, Math.min(waitMs, 1000))), new Promise<void>((r) => (wake = r)), aborted]);
+        continue;
+      }
+      const l = device.pop()!;
+      if (sc.faults.lost_lines && wireRng.chance(sc.faults.lost_lines.probability)) {
+        counts.lines_lost++;
+        continue;
+      }
+      let line = l.line;
+      if (sc.faults.corrupt && wireRng.chance(sc.faults.corrupt.probability)) {
+        line = corruptLine(line, wireRng);
+        counts.lines_corrupted++;
+      }
+      counts.lines_journaled++;
+      if (!port.write(`${line}\n`)) await new Promise((r) => port.once('drain', r));
+    }
+    truth.complete = !opts.signal?.aborted;
+    return truth;
+  } finally {
+    await new Promise<void>((r) => (port.isOpen ? port.close(() => r()) : r()));
+    await pair.close();
+  }
+}
