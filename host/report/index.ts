@@ -28,7 +28,7 @@ function plotsSection(r: AnalysisResult): string {
     figure('fig-amplitude', 2, 'Amplitude against time', 'Amplitude per swing from its transit time, with each damping fit started from the first swing; the chosen model is solid. The log axis turns exponential decay into a straight line.', amp, toggle),
     figure('fig-q', 3, 'Q against amplitude', 'Q = π·θ0/Δθ0 per cycle from the chosen damping fit; the diamond is the Q reported above.', qPlot(r, s)),
     figure('fig-alternation', 4, 'Half-period alternation', `Difference between neighbouring half-periods; it alternates in sign when the beam is off the lowest point.${gate}`, alternationPlot(s)),
-    figure('fig-clock', 5, 'Clock offset', `Host receive time of each heartbeat minus the device time mapped through the fitted clock line; USB latency only ever adds delay, so the fit follows the lower envelope.${clock}`, clockPlot(r, s)),
+    figure('fig-clock', 5, 'Clock offset', `In each window of the run, the smallest host receive time minus device time of a heartbeat, about the line fitted through those minima, whose slope is the clock’s rate error. USB latency only ever adds delay, so the minima trace the lower envelope.${clock}`, clockPlot(r, s)),
     figure('fig-g', 6, 'Running estimate of g', 'g from the swings up to each time, with its expanded uncertainty band (k = 2).', gRunningPlot(r, s)),
   ];
   return `<section id="plots"><h2>Plots</h2>${figs.join('')}</section>`;

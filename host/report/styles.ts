@@ -22,6 +22,7 @@ code{font:13px "DejaVu Sans Mono",ui-monospace,monospace}
 .result dl{margin:0;display:grid;grid-template-columns:1fr 1fr;gap:14px 28px}
 .result dt{font-size:12.5px;color:var(--muted)}
 .result dd{margin:2px 0 0;font-size:17px}
+.result dd .muted{font-size:13.5px}
 .result .big dd{font:600 26px/1.2 "DejaVu Sans",system-ui,sans-serif}
 .num{font-variant-numeric:tabular-nums}
 .pm{color:var(--muted);font-weight:400}
@@ -31,7 +32,7 @@ code{font:13px "DejaVu Sans Mono",ui-monospace,monospace}
 .tbl{width:100%;border-collapse:collapse;font-size:13.5px}
 .tbl th,.tbl td{text-align:left;padding:5px 8px;border-bottom:1px solid var(--rule);vertical-align:top}
 .tbl thead th{font-weight:600;font-size:12px;color:var(--muted);border-bottom:1.5px solid var(--ink)}
-.tbl tbody th{font-weight:600}
+.tbl tbody th{font-weight:600;width:30%}
 .tbl .n{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
 .tbl .note,.tbl .ref{color:var(--muted)}
 .tbl tr.sum th,.tbl tr.sum td{border-top:1.5px solid var(--ink);border-bottom:0}

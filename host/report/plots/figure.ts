@@ -32,6 +32,24 @@ export function maxAbs(xs: readonly number[]): number {
   return m;
 }
 
+/**
+ * A y range that shows the bulk of the data: the 2nd to 98th percentile widened by a quarter each way, plus
+ * the `keep` values (curves that must stay visible). A few wild points (a bridged gap, a knock) then do not
+ * flatten the rest; `outside` counts the points left beyond the axis so the caption can say so.
+ */
+export function robustDomain(values: readonly number[], keep: readonly number[] = []): { domain: [number, number]; outside: number } | null {
+  const v = values.filter(Number.isFinite).sort((a, b) => a - b);
+  if (v.length < 20) return null;
+  const lo0 = v[Math.floor(0.02 * (v.length - 1))]!;
+  const hi0 = v[Math.ceil(0.98 * (v.length - 1))]!;
+  const pad = 0.25 * (hi0 - lo0);
+  const k = keep.filter(Number.isFinite);
+  const lo = Math.min(lo0 - pad, ...k);
+  const hi = Math.max(hi0 + pad, ...k);
+  if (!(hi > lo)) return null;
+  return { domain: [lo, hi], outside: v.filter((x) => x < lo || x > hi).length };
+}
+
 /** `n` evenly spaced values from a to b inclusive. */
 export function linspace(a: number, b: number, n: number): number[] {
   return Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));

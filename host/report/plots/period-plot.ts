@@ -1,7 +1,7 @@
 // Figure: period against amplitude, with the exact law and the fitted B, C curve, and the fit's residuals below.
 import type { AnalysisResult, PlotSeries } from '../../analysis/result.ts';
 import { renderChart, type SeriesSpec } from '../svg/chart.ts';
-import { linspace, maxAbs, noData, smallTimeUnit } from './figure.ts';
+import { linspace, maxAbs, noData, robustDomain, smallTimeUnit } from './figure.ts';
 
 const DEG = Math.PI / 180;
 
@@ -33,9 +33,10 @@ export function periodPlot(r: AnalysisResult, s: PlotSeries, law: PeriodLaw): st
     main.push({ kind: 'line', label: 'fit T0(1 + Bθ0² + Cθ0⁴)', x: grid, y: grid.map(fit), dash: '7 4', tone: 3 });
     const res = amps.map((a, i) => periods[i]! - fit(a));
     const lawMinusFit = T0 !== null ? grid.map((a) => T0 * law(a * DEG) - fit(a)) : [];
-    const u = smallTimeUnit(Math.max(maxAbs(res), maxAbs(lawMinusFit)));
+    const rd = robustDomain(res, [...lawMinusFit, 0]);
+    const u = smallTimeUnit(rd ? Math.max(Math.abs(rd.domain[0]), Math.abs(rd.domain[1])) : Math.max(maxAbs(res), maxAbs(lawMinusFit)));
     lower.push({ kind: 'hline', label: '', y: 0, tone: 4 });
-    lower.push({ kind: 'points', label: '', x: amps, y: res.map((v) => v * u.mul), shape: 'circle', tone: 1 });
+    lower.push({ kind: 'points', label: rd && rd.outside > 0 ? `residual (${rd.outside} beyond the axis)` : '', x: amps, y: res.map((v) => v * u.mul), shape: 'circle', tone: 1 });
     if (T0 !== null) lower.push({ kind: 'line', label: 'exact law − fit', x: grid, y: lawMinusFit.map((v) => v * u.mul), dash: '2 3', tone: 2 });
     return renderChart({
       id: 'period',
@@ -43,7 +44,7 @@ export function periodPlot(r: AnalysisResult, s: PlotSeries, law: PeriodLaw): st
       xLabel: 'amplitude θ0 (degrees)',
       panels: [
         { yLabel: 'period (s)', series: main, weight: 2.4 },
-        { yLabel: `residual (${u.name})`, series: lower, weight: 1, include: 0 },
+        { yLabel: `residual (${u.name})`, series: lower, weight: 1, include: 0, ...(rd ? { domain: [rd.domain[0] * u.mul, rd.domain[1] * u.mul] as const } : {}) },
       ],
       plotHeight: 380,
     });

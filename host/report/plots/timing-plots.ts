@@ -27,7 +27,7 @@ export function alternationPlot(s: PlotSeries): string {
   });
 }
 
-/** Heartbeat arrival delay after the fitted lower-envelope line, against host time. */
+/** Heartbeat window minima of (host − device time) about the line fitted through them, against host time. */
 export function clockPlot(r: AnalysisResult, s: PlotSeries): string {
   const c = s.clockResiduals;
   if (c.host_s.length === 0)
@@ -35,8 +35,8 @@ export function clockPlot(r: AnalysisResult, s: PlotSeries): string {
   const tu = timeUnit(maxAbs(c.host_s));
   const u = smallTimeUnit(maxAbs(c.residual_s));
   const series: SeriesSpec[] = [
-    { kind: 'points', label: 'heartbeat: host receive time − fitted device time', x: c.host_s.map((v) => v / tu.div), y: c.residual_s.map((v) => v * u.mul), shape: 'circle', tone: 1 },
-    { kind: 'hline', label: 'fitted line (lower envelope)', y: 0, tone: 2 },
+    { kind: 'points', label: 'window minimum of host − device time', x: c.host_s.map((v) => v / tu.div), y: c.residual_s.map((v) => v * u.mul), shape: 'circle', tone: 1 },
+    { kind: 'hline', label: 'line fitted through the minima', y: 0, tone: 2 },
   ];
   return renderChart({ id: 'clock', title: 'Clock offset residuals against time', xLabel: `host time since start (${tu.name})`, panels: [{ yLabel: `offset after fit (${u.name})`, series, include: 0 }], plotHeight: 220 });
 }
