@@ -75,12 +75,11 @@ export function detailsTable(r: AnalysisResult): string {
   add('damping model chosen', r.damping_model !== null ? esc(modelName(r.damping_model)) : missing, 'lowest criterion score among the fits');
   if (r.clock_drift_ppm_per_h !== null) add('clock drift', `${num('clock_drift_ppm_per_h', sig(r.clock_drift_ppm_per_h, 2))} ppm/h`, r.clock_span_s !== null ? `over ${duration(r.clock_span_s)} of heartbeats` : '');
   const sens = r.amplitude_sensitivity;
-  if (sens !== null)
-    add(
-      'amplitude sensitivity',
-      `${esc(sig(sens.per_width_deg_per_mm, 2))}°/mm of flag width; ${esc(sig(sens.per_delay_difference_deg_per_us, 2))}°/µs of sensor delay difference`,
-      `at ${fixed(sens.at_amplitude_deg, 1)}°`,
-    );
+  if (sens !== null) {
+    const at = `at ${fixed(sens.at_amplitude_deg, 1)}° amplitude`;
+    add('amplitude change per mm of flag width', `${esc(sig(sens.per_width_deg_per_mm, 2))}°/mm`, at);
+    add('amplitude change per µs of on/off delay difference', `${esc(sig(sens.per_delay_difference_deg_per_us, 2))}°/µs`, at);
+  }
   add('passes used / full periods', `${num('passes', String(r.passes))} / ${num('periods', String(r.periods))}`);
   return (
     `<section id="details"><h2>Further results</h2><table class="tbl"><tbody>` +

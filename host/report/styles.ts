@@ -80,7 +80,7 @@ svg.chart{font-family:"DejaVu Sans",system-ui,sans-serif}
 .mk.t1{fill:none;stroke:var(--t1)}.mk.t2{fill:var(--t2);stroke:var(--t2)}.mk.t3{fill:none;stroke:var(--t3)}.mk.t4{fill:var(--t4);stroke:var(--t4)}
 .bd.t1{fill:var(--t1)}.bd.t2{fill:var(--t2)}.bd.t3{fill:var(--t3)}.bd.t4{fill:var(--t4)}
 .legend .mk.t1{fill:none}
-@media (max-width:760px){body{padding:16px}.cols,.result dl{grid-template-columns:1fr}}
+@media screen and (max-width:760px){body{padding:16px}.cols,.result dl{grid-template-columns:1fr}}
 @media print{
   @page{margin:14mm 13mm}
   html{background:none}
