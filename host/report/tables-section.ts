@@ -21,7 +21,7 @@ export function budgetTable(r: AnalysisResult): string {
     .sort((a, b) => b.u_rel_g - a.u_rel_g)
     .map((b) => {
       const share = sumSq > 0 ? b.u_rel_g ** 2 / sumSq : 0;
-      return `<tr data-budget="${esc(b.name)}"><th scope="row">${esc(b.name)}</th><td class="note">${esc(b.note ?? '')}</td><td class="n" data-key="u_rel_g">${esc(ppm(b.u_rel_g))}</td><td class="n">${esc(fixed(share * 100, 1))} %</td><td>${bar(share)}</td></tr>`;
+      return `<tr data-budget="${esc(b.name)}"><th scope="row">${esc(b.name)}</th><td class="note">${esc(b.note ?? '')}</td><td class="n" data-key="u_rel_g">${esc(ppm(b.u_rel_g))}</td><td class="n">${share > 0 && share < 0.0005 ? '&lt; 0.1 %' : `${esc(fixed(share * 100, 1))} %`}</td><td>${bar(share)}</td></tr>`;
     });
   const combined =
     r.g_m_s2 !== null && r.g_u_m_s2 !== null

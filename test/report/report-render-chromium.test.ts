@@ -19,6 +19,8 @@ interface Probe {
   readonly docHeight: number;
   readonly charts: { fig: string; w: number; h: number; shown: boolean }[];
   readonly sections: Record<string, { top: number; h: number }>;
+  /** Whether each amplitude chart (linear, log) has size after the log-axis box is ticked. */
+  readonly afterToggle: boolean[];
 }
 
 // Test-only: measures the laid-out page and writes the numbers into the DOM for --dump-dom (base64, so no
@@ -34,7 +36,11 @@ addEventListener('load', () => {
     const r = el.getBoundingClientRect();
     sections[el.id] = { top: r.top + scrollY, h: r.height };
   }
-  const out = { docWidth: document.documentElement.scrollWidth, viewWidth: innerWidth, docHeight: document.documentElement.scrollHeight, charts, sections };
+  // The log-axis option is CSS only: ticking the box must swap the two amplitude drawings.
+  const box = document.getElementById('amp-log-toggle');
+  box.checked = true;
+  const afterToggle = [...document.querySelectorAll('#fig-amplitude svg.chart')].map((s) => s.getBoundingClientRect().height > 0);
+  const out = { docWidth: document.documentElement.scrollWidth, viewWidth: innerWidth, docHeight: document.documentElement.scrollHeight, charts, sections, afterToggle };
   const pre = document.createElement('pre');
   pre.id = 'probe';
   pre.textContent = btoa(unescape(encodeURIComponent(JSON.stringify(out))));
@@ -77,6 +83,8 @@ describe.skipIf(!bin && !ci)('report in headless Chromium (simulated demo-low-q 
     const tops = order.map((id) => probe.sections[id]?.top ?? NaN);
     for (let i = 1; i < tops.length; i++) expect(tops[i]!, order[i]).toBeGreaterThan(tops[i - 1]!);
     for (const id of order) expect(probe.sections[id]!.h, id).toBeGreaterThan(20);
+    expect(probe.charts.filter((c) => c.fig === 'fig-amplitude').map((c) => c.shown)).toEqual([true, false]);
+    expect(probe.afterToggle).toEqual([false, true]);
     writeFileSync(join(ARTIFACTS, 'report-demo-low-q.layout.json'), JSON.stringify(probe, null, 1));
   });
 

@@ -79,5 +79,5 @@ export function qPlot(r: AnalysisResult, s: PlotSeries): string {
   if (r.Q !== null && r.median_amplitude_deg !== null) {
     series.push({ kind: 'points', label: 'Q at the median amplitude', x: [r.median_amplitude_deg], y: [r.Q], shape: 'diamond', tone: 1 });
   }
-  return renderChart({ id: 'q', title: 'Quality factor against amplitude', xLabel: 'amplitude θ0 (degrees)', panels: [{ yLabel: 'Q', series }], plotHeight: 240 });
+  return renderChart({ id: 'q', title: 'Quality factor against amplitude', xLabel: 'amplitude θ0 (degrees)', panels: [{ yLabel: 'quality factor Q', series }], plotHeight: 240 });
 }
