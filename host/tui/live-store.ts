@@ -2,22 +2,26 @@
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { decodeLine } from '../../protocol/decode.ts';
 import { parseRig, type Rig } from '../../protocol/rig.ts';
+import type { AnalysisResult } from '../analysis/result.ts';
+import type { LiveState } from '../pipeline/live-state.ts';
 
-/** The part of the run pipeline the store drives. */
-export interface PipelineLike<L, R> {
+/** The part of the run pipeline (`createRunPipeline`) the store drives. */
+export interface PipelineLike {
   push(entry: JournalEntry): void;
-  live(): L;
-  result(): R;
+  live(nowHostUs?: number): LiveState;
+  result(): AnalysisResult;
 }
 
 /** A published state: cheap live facts at up to `liveHz`, the full result at up to `resultHz`. */
-export interface StoreSnapshot<L, R> {
-  readonly live: L;
-  readonly result: R;
+export interface StoreSnapshot {
+  readonly live: LiveState;
+  readonly result: AnalysisResult;
   /** Host seconds of the newest data line or annotation (the run's own time base). */
   readonly lastHost_s: number | null;
-  /** Host seconds of the first line seen since the last restart. */
+  /** Host seconds of the first line seen, or of the last restart of the estimates. */
   readonly firstHost_s: number | null;
+  /** Host seconds at which the estimates were restarted (`r`), or null. */
+  readonly restartedAt_s: number | null;
   /** Wall-clock ms when the newest line arrived (for estimating "now" between lines). */
   readonly lastArrivalMs: number | null;
   readonly entries: number;
@@ -34,8 +38,8 @@ export interface Timers {
   clearInterval(handle: unknown): void;
 }
 
-export interface LiveStoreOptions<L, R> {
-  readonly createPipeline: () => PipelineLike<L, R>;
+export interface LiveStoreOptions {
+  readonly createPipeline: () => PipelineLike;
   /** Wall clock in ms (injected: the store itself never reads the time). */
   readonly nowMs: () => number;
   readonly timers: Timers;
@@ -43,88 +47,137 @@ export interface LiveStoreOptions<L, R> {
   readonly resultHz?: number;
 }
 
-export interface LiveStore<L, R> {
+export interface LiveStore {
   push(entry: JournalEntry): void;
   subscribe(listener: () => void): () => void;
-  getSnapshot(): StoreSnapshot<L, R>;
-  /** Starts a fresh pipeline from now on, replaying the header and the last hello so it knows the rig and clock. */
+  getSnapshot(): StoreSnapshot;
+  /**
+   * Restarts the estimates from now: a second pipeline, given the journal header and the device's last
+   * hello, sees only what comes next. Health counts keep coming from the whole run.
+   */
   restart(): void;
   /** Publishes at once with a fresh full result (at the end of a replay, so the screen equals `analyze`). */
   flush(): void;
   stop(): void;
 }
 
-/** Entries a restarted pipeline must see again: the journal header and the device's latest hello. */
-function isContext(e: JournalEntry): boolean {
-  return e.kind === 'magic' || e.kind === 'start' || e.kind === 'rig' || e.kind === 'source' || e.kind === 'header';
-}
-function isHello(line: string): boolean {
-  if (!line.startsWith('H ')) return false;
-  const d = decodeLine(line);
-  return d.ok && d.record.kind === 'H';
-}
-
 /** Longest time between publishes while no line arrives. */
 const IDLE_PUBLISH_MS = 1000;
+/** The full result is recomputed no sooner than this many times its last cost. */
+const RESULT_COST_FACTOR = 10;
 /** Heartbeat arrivals kept for the spacing estimate. */
 const BEATS_KEPT = 9;
 
 /** Median of the spacings of increasing times (a lost or late heartbeat does not move it). */
 export function medianSpacing(times: readonly number[]): number | null {
   if (times.length < 2) return null;
-  const d = times.slice(1).map((t, i) => t - times[i]!).filter((x) => x > 0).sort((a, b) => a - b);
+  const d = times
+    .slice(1)
+    .map((t, i) => t - times[i]!)
+    .filter((x) => x > 0)
+    .sort((a, b) => a - b);
   return d.length ? d[Math.floor((d.length - 1) / 2)]! : null;
 }
 
+/** Entries a restarted pipeline must see again: the journal header block. */
+function isHeader(e: JournalEntry): boolean {
+  return e.kind === 'magic' || e.kind === 'start' || e.kind === 'rig' || e.kind === 'source' || e.kind === 'header';
+}
+
+function isHello(line: string): boolean {
+  if (!line.startsWith('H ')) return false;
+  const d = decodeLine(line);
+  return d.ok && d.record.kind === 'H';
+}
+
+/** The swing facts of the restarted estimates, with the device and health facts of the whole run. */
+export function mergeLive(whole: LiveState, since: LiveState): LiveState {
+  return {
+    ...since,
+    hello: whole.hello,
+    bootIndex: whole.bootIndex,
+    lastHostUs: whole.lastHostUs,
+    heartbeatAgeS: whole.heartbeatAgeS,
+    levels: whole.levels,
+    blocked: whole.blocked,
+    counts: whole.counts,
+  };
+}
+
 /** Creates a store; the publish timer runs until `stop()`. */
-export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L, R> {
+export function createLiveStore(opts: LiveStoreOptions): LiveStore {
   const liveMs = 1000 / (opts.liveHz ?? 10);
   const resultMs = 1000 / (opts.resultHz ?? 2);
-  let pipeline = opts.createPipeline();
-  const context: JournalEntry[] = [];
+  const whole = opts.createPipeline();
+  let since: PipelineLike | null = null;
+  const header: JournalEntry[] = [];
   let lastHello: JournalEntry | null = null;
   let dirty = false;
   let resultStale = false;
   let lastResultMs = -Infinity;
+  let resultGapMs = resultMs;
+  let lastPublishMs = -Infinity;
   let entries = 0;
   let lastHost: number | null = null;
   let firstHost: number | null = null;
+  let restartedAt: number | null = null;
   let lastArrival: number | null = null;
   const beats: number[] = [];
   let rig: Rig | null = null;
-  let result = pipeline.result();
-  let snap: StoreSnapshot<L, R> = { live: pipeline.live(), result, lastHost_s: null, firstHost_s: null, lastArrivalMs: null, entries: 0, heartbeatInterval_s: null, rig: null, version: 0 };
+  let result = whole.result();
+  let snap: StoreSnapshot = {
+    live: whole.live(),
+    result,
+    lastHost_s: null,
+    firstHost_s: null,
+    restartedAt_s: null,
+    lastArrivalMs: null,
+    entries: 0,
+    heartbeatInterval_s: null,
+    rig: null,
+    version: 0,
+  };
   const listeners = new Set<() => void>();
 
   const publish = (forceResult: boolean): void => {
     const now = opts.nowMs();
-    if (forceResult || (resultStale && now - lastResultMs >= resultMs)) {
-      result = pipeline.result();
+    if (forceResult || (resultStale && now - lastResultMs >= resultGapMs)) {
+      result = (since ?? whole).result();
       resultStale = false;
       lastResultMs = now;
+      // The full analysis grows with the run: keep it under about a tenth of the time.
+      resultGapMs = Math.max(resultMs, RESULT_COST_FACTOR * (opts.nowMs() - now));
     }
-    snap = { live: pipeline.live(), result, lastHost_s: lastHost, firstHost_s: firstHost, lastArrivalMs: lastArrival, entries, heartbeatInterval_s: medianSpacing(beats), rig, version: snap.version + 1 };
+    const live = since ? mergeLive(whole.live(), since.live()) : whole.live();
+    snap = {
+      live,
+      result,
+      lastHost_s: lastHost,
+      firstHost_s: firstHost,
+      restartedAt_s: restartedAt,
+      lastArrivalMs: lastArrival,
+      entries,
+      heartbeatInterval_s: medianSpacing(beats),
+      rig,
+      version: snap.version + 1,
+    };
     dirty = false;
+    lastPublishMs = now;
     for (const l of listeners) l();
   };
 
   // Publishing also when nothing arrived keeps time-based warnings (a stalled device) moving.
-  let lastPublishMs = -Infinity;
   const timer = opts.timers.setInterval(() => {
-    const now = opts.nowMs();
-    if (dirty || resultStale || now - lastPublishMs >= IDLE_PUBLISH_MS) {
-      lastPublishMs = now;
-      publish(false);
-    }
+    if (dirty || resultStale || opts.nowMs() - lastPublishMs >= IDLE_PUBLISH_MS) publish(false);
   }, liveMs);
 
   return {
     push(entry) {
-      if (isContext(entry)) {
+      if (isHeader(entry)) {
         // A resumed journal opens a new host time base: keep only the latest header block.
-        if (entry.kind === 'magic') context.length = 0;
-        else if (entry.kind === 'start') context.splice(0, context.length, ...context.filter((c) => c.kind === 'magic'));
-        context.push(entry);
+        if (entry.kind === 'magic') header.length = 0;
+        else if (entry.kind === 'start') header.splice(0, header.length, ...header.filter((c) => c.kind === 'magic'));
+        header.push(entry);
         if (entry.kind === 'rig') {
           const r = parseRig(entry.json);
           rig = r.ok ? r.rig : null;
@@ -135,7 +188,8 @@ export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L
           if (beats.length > BEATS_KEPT) beats.shift();
         } else if (isHello(entry.line)) lastHello = entry;
       }
-      pipeline.push(entry);
+      whole.push(entry);
+      since?.push(entry);
       entries++;
       if (entry.kind === 'data' || entry.kind === 'annotation') {
         lastHost = entry.hostUs / 1e6;
@@ -151,9 +205,10 @@ export function createLiveStore<L, R>(opts: LiveStoreOptions<L, R>): LiveStore<L
     },
     getSnapshot: () => snap,
     restart() {
-      pipeline = opts.createPipeline();
-      for (const e of context) pipeline.push(e);
-      if (lastHello) pipeline.push(lastHello);
+      since = opts.createPipeline();
+      for (const e of header) since.push(e);
+      if (lastHello) since.push(lastHello);
+      restartedAt = lastHost;
       firstHost = lastHost;
       publish(true);
     },

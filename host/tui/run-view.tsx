@@ -1,8 +1,6 @@
 // The live view's shell: feeds the store from a feed, shows ink on a terminal or plain lines elsewhere, and shuts down one way.
 import React from 'react';
 import { render } from 'ink';
-import type { AnalysisResult } from '../analysis/result.ts';
-import type { LiveState } from '../pipeline/live-state.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { createLiveStore, type PipelineLike, type Timers } from './live-store.ts';
 import type { Feed, FeedStatus } from './feed.ts';
@@ -15,7 +13,7 @@ type Stream = NodeJS.WritableStream & { isTTY?: boolean; columns?: number; rows?
 
 export interface RunViewOptions {
   readonly feed: Feed;
-  readonly createPipeline: () => PipelineLike<LiveState, AnalysisResult> & { restartEstimates?: () => void };
+  readonly createPipeline: () => PipelineLike;
   readonly stdout: Stream;
   readonly stderr: Stream;
   readonly stdin: NodeJS.ReadableStream & { isTTY?: boolean };
@@ -42,7 +40,7 @@ async function pump(entries: AsyncIterable<JournalEntry>, push: (e: JournalEntry
 
 /** Runs the view until the user quits, a signal arrives, or (without a terminal) the feed ends; resolves to the exit code. */
 export async function runLiveView(opts: RunViewOptions): Promise<number> {
-  const store = createLiveStore<LiveState, AnalysisResult>({ createPipeline: opts.createPipeline, nowMs: opts.nowMs, timers: opts.timers });
+  const store = createLiveStore({ createPipeline: opts.createPipeline, nowMs: opts.nowMs, timers: opts.timers });
   const interactive = Boolean(opts.stdout.isTTY && opts.stdin.isTTY);
   let ended: FeedStatus['connection'] | null = null;
   let failure: unknown = null;
@@ -105,6 +103,7 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
       now_s: estimateNow(snap, feed, opts.nowMs()),
       since_s: snap.firstHost_s ?? 0,
       heartbeatInterval_s: snap.heartbeatInterval_s,
+      restartedAt_s: snap.restartedAt_s,
       paused: false,
     });
   };

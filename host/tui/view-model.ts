@@ -3,6 +3,7 @@ import type { AnalysisResult } from '../analysis/result.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
 import type { Rig } from '../../protocol/rig.ts';
 import { periodRatio } from '../analysis/elliptic.ts';
+import { lossRate } from '../analysis/damping.ts';
 import { expectsLines, type FeedStatus } from './feed.ts';
 import { formatBytes, formatDuration, formatFixed, formatSpeed, formatWithU } from './format.ts';
 import { gateHint, warningsFor, type ViewWarning } from './warnings.ts';
@@ -18,6 +19,8 @@ export interface ViewInput {
   /** Host seconds of the first line since the estimates were last restarted. */
   readonly since_s: number;
   readonly heartbeatInterval_s: number | null;
+  /** Host seconds at which the estimates were restarted, or null. */
+  readonly restartedAt_s: number | null;
   readonly paused: boolean;
 }
 
@@ -63,6 +66,7 @@ export interface ViewModel {
 }
 
 const STANDARD_G = 9.80665;
+const RAD = Math.PI / 180;
 
 function connectionItem(feed: FeedStatus): StatusItem {
   const c = feed.connection;
@@ -93,21 +97,16 @@ export function expectedPeriod(live: LiveState, result: AnalysisResult, rig: Rig
   return rig ? 2 * Math.PI * Math.sqrt(rig.length_m / STANDARD_G) : null;
 }
 
-/** Seconds of true (host) time per nominal device second, from the clock fit; 1 when not known. */
-function clockScale(result: AnalysisResult): number {
-  return result.clock_ppm !== null ? 1 / (1 + result.clock_ppm * 1e-6) : 1;
-}
-
-/** Decay of amplitude by the fitted law dA/dt = −(a0 + a1·A + a2·A²), A in radians, from (t0, A0); RK4 on the plot's own grid. */
+/** The fitted loss law dA/dt = −rate(A) integrated from (t0, A0) with RK4 on the plot's own grid; time in minutes. */
 export function decayCurve(fit: { a0: number; a1: number; a2: number }, t0_s: number, a0_deg: number, t1_s: number, steps = 120): PlotData {
   const xs: number[] = [];
   const ys: number[] = [];
-  const f = (a: number): number => -(fit.a0 + fit.a1 * a + fit.a2 * a * a);
-  let a = (a0_deg * Math.PI) / 180;
+  const f = (a: number): number => -lossRate(fit, a);
+  let a = a0_deg * RAD;
   const h = (t1_s - t0_s) / steps;
   for (let i = 0; i <= steps; i++) {
     xs.push((t0_s + i * h) / 60);
-    ys.push((a * 180) / Math.PI);
+    ys.push(a / RAD);
     const k1 = f(a);
     const k2 = f(a + (h / 2) * k1);
     const k3 = f(a + (h / 2) * k2);
@@ -117,37 +116,24 @@ export function decayCurve(fit: { a0: number; a1: number; a2: number }, t0_s: nu
   return { xs, ys };
 }
 
-function plots(input: ViewInput): Pick<ViewModel, 'periodPoints' | 'periodCurve' | 'amplitudePoints' | 'amplitudeCurve'> {
-  const { live, result } = input;
-  const k = clockScale(result);
-  const r = live.recent;
-  const periodPoints: PlotData = { xs: [], ys: [] };
-  const amplitudePoints: PlotData = { xs: [], ys: [] };
-  for (let i = 0; i < r.t_s.length; i++) {
-    const a = r.amplitude_deg[i];
-    const p = r.period_s[i];
-    if (a === null || a === undefined) continue;
-    amplitudePoints.xs.push(r.t_s[i]! / 60);
-    amplitudePoints.ys.push(a);
-    if (p !== null && p !== undefined) {
-      periodPoints.xs.push(a);
-      periodPoints.ys.push(p * k);
-    }
-  }
+/** The plots from the analysis result's own series (clock-corrected, as `analyze` and the report draw them). */
+function plots(result: AnalysisResult): Pick<ViewModel, 'periodPoints' | 'periodCurve' | 'amplitudePoints' | 'amplitudeCurve'> {
+  const pva = result.plots.periodVsAmplitude;
+  const avt = result.plots.amplitudeVsTime;
+  const periodPoints: PlotData = { xs: [...pva.amplitude_deg], ys: [...pva.period_s] };
+  const amplitudePoints: PlotData = { xs: avt.t_s.map((t) => t / 60), ys: [...avt.amplitude_deg] };
   const periodCurve: PlotData = { xs: [], ys: [] };
   if (result.T0_s !== null && periodPoints.xs.length > 0) {
-    const top = Math.max(...periodPoints.xs);
+    const top = Math.max(...periodPoints.xs) * 1.05;
     for (let i = 0; i <= 60; i++) {
-      const a = (top * 1.05 * i) / 60;
+      const a = (top * i) / 60;
       periodCurve.xs.push(a);
-      periodCurve.ys.push(result.T0_s * periodRatio((a * Math.PI) / 180));
+      periodCurve.ys.push(result.T0_s * periodRatio(a * RAD));
     }
   }
   const fit = result.damping_fits.find((d) => d.model === result.damping_model);
-  const amplitudeCurve =
-    fit && amplitudePoints.xs.length > 1
-      ? decayCurve(fit, amplitudePoints.xs[0]! * 60, amplitudePoints.ys[0]!, amplitudePoints.xs[amplitudePoints.xs.length - 1]! * 60)
-      : { xs: [], ys: [] };
+  const n = avt.t_s.length;
+  const amplitudeCurve = fit && n > 1 ? decayCurve(fit, avt.t_s[0]!, avt.amplitude_deg[0]!, avt.t_s[n - 1]!) : { xs: [], ys: [] };
   return { periodPoints, periodCurve, amplitudePoints, amplitudeCurve };
 }
 
@@ -155,9 +141,9 @@ function plots(input: ViewInput): Pick<ViewModel, 'periodPoints' | 'periodCurve'
 export function buildViewModel(input: ViewInput): ViewModel {
   const { feed, live, result, rig } = input;
   const hello = live.hello;
-  const status: StatusItem[] = [
-    { label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: feed.sourceLabel, tone: 'accent' },
-  ];
+  const watching = feed.sourceKind === 'watch';
+  const source = watching && feed.journal ? `${feed.sourceLabel} (${formatBytes(feed.journal.bytes)})` : feed.sourceLabel;
+  const status: StatusItem[] = [{ label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: source, tone: 'accent' }];
   if (feed.speed !== null) status.push({ label: 'speed', value: formatSpeed(feed.speed), tone: feed.speed === 1 ? 'normal' : 'accent' });
   status.push({ label: 'device', value: hello ? `fw ${hello.fw}, protocol ${hello.proto}` : 'no hello yet', tone: hello ? 'normal' : 'muted' });
   status.push(connectionItem(feed));
@@ -167,8 +153,11 @@ export function buildViewModel(input: ViewInput): ViewModel {
     tone: result.clock_ppm !== null ? 'normal' : 'muted',
   });
   status.push({ label: 'run', value: formatDuration(input.now_s), tone: 'normal' });
-  if (feed.journal) status.push({ label: 'file', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal' });
-  else if (feed.sourceKind !== 'watch') status.push({ label: 'file', value: 'not journaled', tone: 'muted' });
+  if (input.restartedAt_s !== null) status.push({ label: 'estimates since', value: formatDuration(input.restartedAt_s), tone: 'accent' });
+  if (!watching)
+    status.push(
+      feed.journal ? { label: 'journal', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal' } : { label: 'journal', value: 'none', tone: 'muted' },
+    );
 
   const [h1, h2] = live.halfPeriodsS;
   const expected = result.expected_g_m_s2;
@@ -197,12 +186,13 @@ export function buildViewModel(input: ViewInput): ViewModel {
   });
   numbers.push({ label: 'passes', value: String(Math.max(live.passes, result.passes)), unit: '', tone: 'normal' });
 
-  const c = result.counts.crc_errors + result.counts.bad_lines >= live.counts.crc_errors + live.counts.bad_lines ? result.counts : live.counts;
+  // Link and device counts come fresh from the live state; pass rejections only from the full analysis.
+  const c = live.counts;
   const health: HealthItem[] = [
     { label: 'line errors', count: c.crc_errors + c.bad_lines },
     { label: 'lost', count: c.lines_lost },
     { label: 'drops', count: c.device_lost },
-    { label: 'rejected', count: c.rejected_passes },
+    { label: 'rejected', count: result.counts.rejected_passes },
     { label: 'reboots', count: c.reboots },
     { label: 'disconnects', count: c.disconnects },
   ];
@@ -228,6 +218,6 @@ export function buildViewModel(input: ViewInput): ViewModel {
     numbers,
     health,
     warnings,
-    ...plots(input),
+    ...plots(result),
   };
 }

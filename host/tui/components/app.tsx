@@ -1,8 +1,6 @@
 // The live view: subscribes to the store's snapshots, lays out the panels, and turns keys into effects.
 import React, { useRef, useState, useSyncExternalStore } from 'react';
 import { Box, useInput, useStdout } from 'ink';
-import type { AnalysisResult } from '../../analysis/result.ts';
-import type { LiveState } from '../../pipeline/live-state.ts';
 import type { LiveStore, StoreSnapshot } from '../live-store.ts';
 import { expectsLines, type FeedStatus } from '../feed.ts';
 import { INITIAL_UI, reduceKey, type KeyEffect, type UiState } from '../keys.ts';
@@ -15,7 +13,7 @@ import { NumbersPanel } from './numbers-panel.tsx';
 import { StatusBar } from './status-bar.tsx';
 
 export interface AppProps {
-  readonly store: LiveStore<LiveState, AnalysisResult>;
+  readonly store: LiveStore;
   readonly status: () => FeedStatus;
   /** Wall clock in ms, to advance "now" between lines. */
   readonly nowMs: () => number;
@@ -25,7 +23,7 @@ export interface AppProps {
 }
 
 /** Host seconds now: the last line's time, advanced at the feed's speed while lines are still due. */
-export function estimateNow(snap: StoreSnapshot<unknown, unknown>, feed: FeedStatus, nowMs: number): number {
+export function estimateNow(snap: StoreSnapshot, feed: FeedStatus, nowMs: number): number {
   if (snap.lastHost_s === null) return 0;
   if (!expectsLines(feed.connection) || snap.lastArrivalMs === null) return snap.lastHost_s;
   return snap.lastHost_s + (Math.max(0, nowMs - snap.lastArrivalMs) / 1000) * (feed.speed ?? 1);
@@ -34,7 +32,7 @@ export function estimateNow(snap: StoreSnapshot<unknown, unknown>, feed: FeedSta
 export function App({ store, status, nowMs, onEffect, interactive }: AppProps): React.JSX.Element {
   const live = useSyncExternalStore(store.subscribe, store.getSnapshot);
   const [ui, setUi] = useState<UiState>(INITIAL_UI);
-  const frozen = useRef<StoreSnapshot<LiveState, AnalysisResult> | null>(null);
+  const frozen = useRef<StoreSnapshot | null>(null);
   const { stdout } = useStdout();
   const feed = status();
 
@@ -58,6 +56,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
     now_s: now,
     since_s: snap.firstHost_s ?? 0,
     heartbeatInterval_s: snap.heartbeatInterval_s,
+    restartedAt_s: snap.restartedAt_s,
     paused: ui.paused,
   });
   const L = layoutFor(stdout.columns, stdout.rows);
@@ -66,7 +65,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
     width: L.plotWidth,
     height: L.chartHeight,
     x: { label: 'amplitude θ0 (°)', tickSuffix: '°', minSpan: 2 },
-    y: { label: 'period T (s)   · measured  ─ exact law through T0', minSpan: 0.0005 },
+    y: { label: 'period T (s)  ⠂ data  ─ exact law', minSpan: 0.0005 },
     series: [
       { xs: vm.periodCurve.xs, ys: vm.periodCurve.ys, style: 'line' as const, tone: 'law' },
       { xs: vm.periodPoints.xs, ys: vm.periodPoints.ys, style: 'dots' as const, tone: 'points' },
@@ -77,7 +76,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
     width: L.plotWidth,
     height: L.height - L.statusLines - 3 - L.chartHeight,
     x: { label: 'time (min)', minSpan: 0.5 },
-    y: { label: `amplitude θ0 (°)   · measured  ─ ${vm.amplitudeCurve.xs.length ? 'fitted decay' : 'decay fit to come'}`, minSpan: 0.5 },
+    y: { label: `amplitude θ0 (°)  ⠂ data  ─ ${vm.amplitudeCurve.xs.length ? 'fitted decay' : 'fit to come'}`, minSpan: 0.5 },
     series: [
       { xs: vm.amplitudeCurve.xs, ys: vm.amplitudeCurve.ys, style: 'line' as const, tone: 'fit' },
       { xs: vm.amplitudePoints.xs, ys: vm.amplitudePoints.ys, style: 'dots' as const, tone: 'points' },
