@@ -21,7 +21,7 @@ interface Note {
 }
 
 /** The notes that apply to this run (pure: from the result, the rig and the period law). */
-export function notesFor(r: AnalysisResult, rig: Rig | null, law: PeriodLaw): Note[] {
+function notesFor(r: AnalysisResult, rig: Rig | null, law: PeriodLaw): Note[] {
   const notes: Note[] = [];
   const a = r.amplitude_start_deg;
   if (a !== null && a >= LARGE_ANGLE_DEG) {

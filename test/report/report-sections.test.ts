@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { renderReport, type ReportMeta } from '../../host/report/index.ts';
-import type { AnalysisResult } from '../../host/analysis/result.ts';
+import { EMPTY_RESULT, type AnalysisResult } from '../../host/analysis/result.ts';
 import { syntheticResult, syntheticRig } from './fixture-result.ts';
 import { expectReportMatchesJson } from './report-numbers.ts';
 
@@ -9,24 +9,9 @@ const meta: ReportMeta = { journalName: 'bench-a.journal', journalSha256: 'c0ffe
 
 const SECTIONS = ['run', 'rig', 'result', 'details', 'plots', 'fig-period', 'fig-amplitude', 'fig-q', 'fig-alternation', 'fig-clock', 'fig-g', 'budget', 'corrections', 'counts', 'warnings', 'footer'];
 
-const emptyPlots: AnalysisResult['plots'] = {
-  periodVsAmplitude: { amplitude_deg: [], period_s: [] },
-  amplitudeVsTime: { t_s: [], amplitude_deg: [] },
-  halfPeriodAlternation: { t_s: [], diff_s: [] },
-  clockResiduals: { host_s: [], residual_s: [] },
-  gRunning: { t_s: [], g: [], g_u: [] },
-  qVsAmplitude: { amplitude_deg: [], Q: [] },
-};
-
 /** A result of a run too short for any fit: two passes, nothing computed. */
 function tooShort(): AnalysisResult {
-  return syntheticResult({
-    T0_s: null, T0_u_s: null, g_m_s2: null, g_u_m_s2: null, clock_ppm: null, clock_u_ppm: null, gate_offset_m: null, gate_offset_u_m: null,
-    B: null, B_u: null, C: null, C_u: null, amplitude_start_deg: null, amplitude_end_deg: null, Q: null, Q_u: null, damping_model: null, damping_fits: [],
-    passes: 2, periods: 0, budget: [], corrections: [], g_diff_sigma: null, T0_fit_s: null, damping_tau_s: null, median_amplitude_deg: null,
-    clock_drift_ppm_per_h: null, clock_span_s: null, L_eff_m: null, amplitude_sensitivity: null, plots: emptyPlots,
-    warnings: ['only 2 passes: too few for a period'],
-  });
+  return { ...EMPTY_RESULT, clock_source: 'host', passes: 2, run: syntheticResult().run, warnings: ['only 2 passes: too few for a period'] };
 }
 
 describe('report page', () => {

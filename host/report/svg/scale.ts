@@ -14,10 +14,9 @@ export interface Scale {
   accepts(v: number): boolean;
 }
 
-/** A linear scale; the domain is widened to nice numbers when `nice` is set. */
-export function linearScale(domain: readonly [number, number], range: readonly [number, number], opts: { nice?: boolean; count?: number } = {}): Scale {
-  const count = opts.count ?? 5;
-  const [d0, d1] = opts.nice === false ? openDomain(domain) : niceDomain(domain[0], domain[1], count);
+/** A linear scale whose domain is widened to nice numbers (about `count` ticks). */
+export function linearScale(domain: readonly [number, number], range: readonly [number, number], count = 5): Scale {
+  const [d0, d1] = niceDomain(domain[0], domain[1], count);
   const [r0, r1] = range;
   const k = (r1 - r0) / (d1 - d0);
   return {
@@ -61,12 +60,4 @@ export function logScale(domain: readonly [number, number], range: readonly [num
     ticks: () => logTicks(d0, d1).map((value) => ({ value, label: logTickLabel(value) })),
     accepts: (v) => Number.isFinite(v) && v > 0,
   };
-}
-
-function openDomain(domain: readonly [number, number]): [number, number] {
-  const a = Math.min(domain[0], domain[1]);
-  const b = Math.max(domain[0], domain[1]);
-  if (b > a) return [a, b];
-  const pad = a === 0 ? 1 : Math.abs(a) * 0.01;
-  return [a - pad, b + pad];
 }

@@ -1,4 +1,5 @@
 // Tick positions at "nice" numbers (1, 2, 5 × 10^k) for linear and logarithmic axes, and their labels.
+import { signed } from '../format.ts';
 
 /** The nice step (1, 2, 5 or 10 × 10^k) nearest to `span / count`, never zero for a finite positive span. */
 export function niceStep(span: number, count: number): number {
@@ -56,7 +57,7 @@ export function logTicks(lo: number, hi: number): number[] {
 export function tickLabel(v: number, step: number): string {
   const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
   const s = (Math.abs(v) < step / 2 ? 0 : v).toFixed(Math.min(decimals, 12));
-  return s.replace(/^-/, '\u2212');
+  return signed(s);
 }
 
 /** Label of a log-axis tick: plain digits for 10^−3 … 10^5, otherwise m·10^k written with a superscript-free "e". */
