@@ -8,17 +8,18 @@ export interface FencedBlock {
   readonly line: number;
 }
 
-/** The fenced (```) blocks of a Markdown text, in order. */
+/** The fenced (```) blocks of a Markdown text, in order; a fence may be indented (inside a list item). */
 export function fencedBlocks(md: string): FencedBlock[] {
   const out: FencedBlock[] = [];
   const lines = md.split('\n');
   for (let i = 0; i < lines.length; i++) {
-    const open = /^(`{3,})\s*([^`\s]*)\s*$/.exec(lines[i]!);
+    const open = /^( {0,4})(`{3,})\s*([^`\s]*)\s*$/.exec(lines[i]!);
     if (!open) continue;
+    const indent = open[1]!.length;
     const body: string[] = [];
     let j = i + 1;
-    while (j < lines.length && !lines[j]!.startsWith(open[1]!)) body.push(lines[j++]!);
-    out.push({ info: open[2]!, lines: body, line: i + 1 });
+    while (j < lines.length && !lines[j]!.trimStart().startsWith(open[2]!)) body.push(lines[j++]!.slice(indent));
+    out.push({ info: open[3]!, lines: body, line: i + 1 });
     i = j;
   }
   return out;
@@ -30,9 +31,9 @@ function prose(md: string, keepInlineCode: boolean): string {
   return md
     .split('\n')
     .map((l) => {
-      const m = /^(`{3,})/.exec(l);
+      const m = /^ {0,4}(`{3,})/.exec(l);
       if (fence !== null) {
-        if (l.startsWith(fence)) fence = null;
+        if (l.trimStart().startsWith(fence)) fence = null;
         return '';
       }
       if (m) {
