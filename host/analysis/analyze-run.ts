@@ -5,13 +5,14 @@ import { periodRatio } from './elliptic.ts';
 import { gateOffset } from './gate-offset.ts';
 import { normalGravityAtHeight } from './normal-gravity.ts';
 import { pendulumModel } from './pendulum-corrections.ts';
-import { fitPeriodLaw, reducePeriods, robustMean } from './period-law.ts';
+import { clipMask, fitPeriodLaw, maskedMean, reducePeriods } from './period-law.ts';
 import type { AnalysisResult, BudgetLine, PlotSeries, RunCounts, SwingRow } from './result.ts';
 import { batchMeansStdError, median } from './stats.ts';
 import { amplitudeFromTransit, amplitudeSensitivity, blockHalfAngle } from './transit-amplitude.ts';
 import { combineBudget } from './uncertainty-budget.ts';
 
 const DEG = 180 / Math.PI;
+const NO_FLAGS: string[] = [];
 
 /** Passes after sequencing (see host/pipeline/pass-sequencing.ts), parallel arrays. */
 export interface SequencedPasses {
@@ -104,28 +105,42 @@ export function analyzeRun(d: RunData): AnalysisResult {
   let P0: Float64Array = P;
   let clipped = 0;
   const phiB = rig ? blockHalfAngle(rig.flag_width_m, rig.length_m) : NaN;
-  const fillAmplitudes = (t0: number): void => {
+  // Amplitudes of the passes of every `stride`-th period (all passes when stride is 1).
+  const fillAmplitudes = (t0: number, stride: number): void => {
     const omega0 = (2 * Math.PI) / t0;
-    for (let c = 0; c < n; c++) amp[c] = p.index[c]! >= 0 ? amplitudeFromTransit(p.transit[c]!, phiB, omega0) : NaN;
-    for (let k = 0; k < pIdx.length; k++) {
+    const at = (c: number): number => amplitudeFromTransit(p.transit[c]!, phiB, omega0);
+    if (stride === 1) for (let c = 0; c < n; c++) amp[c] = p.index[c]! >= 0 ? at(c) : NaN;
+    for (let k = 0; k < pIdx.length; k += stride) {
       const c = pIdx[k]!;
       const a = periodStart[c]!;
       const m = periodMid[c]!;
+      if (stride > 1) for (const q of [a, m, c]) if (q >= 0) amp[q] = at(q);
       pAmp[k] = m >= 0 ? 0.25 * (amp[a]! + 2 * amp[m]! + amp[c]!) : 0.5 * (amp[a]! + amp[c]!);
     }
   };
+  let keep: Uint8Array = new Uint8Array(P.length).fill(1);
   if (T0 !== null && rig) {
-    for (let iter = 0; iter < 3; iter++) {
-      fillAmplitudes(T0);
-      P0 = reducePeriods(P, pAmp);
-      const rm = robustMean(P0);
-      clipped = rm.clipped;
-      if (Number.isFinite(rm.mean)) T0 = rm.mean;
-    }
+    // A first T0 from a subsample of ≤ ~2000 periods, then every amplitude with ω0 = 2π/T0 and the final T0.
+    // One more round would move T0 by ~1e-8 relative (the amplitude depends on ω0 only weakly).
+    const stride = Math.max(1, Math.floor(pIdx.length / 2000));
+    fillAmplitudes(T0, stride);
+    const sub: number[] = [];
+    for (let k = 0; k < pIdx.length; k += stride) sub.push(P[k]! / periodRatio(pAmp[k]!));
+    const subKeep = clipMask(sub).keep;
+    const t1 = maskedMean(sub, subKeep);
+    if (Number.isFinite(t1)) T0 = t1;
+    fillAmplitudes(T0, 1);
+    P0 = reducePeriods(P, pAmp);
+    const cm = clipMask(P0);
+    keep = cm.keep;
+    clipped = cm.clipped;
+    const t2 = maskedMean(P0, keep);
+    if (Number.isFinite(t2)) T0 = t2;
   } else if (T0 !== null) {
-    const rm = robustMean(P);
-    clipped = rm.clipped;
-    T0 = rm.mean;
+    const cm = clipMask(P);
+    keep = cm.keep;
+    clipped = cm.clipped;
+    T0 = maskedMean(P, keep);
     warnings.push('no rig description: amplitudes, the reduction to zero amplitude and g are not available (give --rig FILE)');
   }
   if (clipped > 0) warnings.push(`${clipped} period(s) far from the rest were left out of T0`);
@@ -149,7 +164,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   else if (law && law.C === null) warnings.push('amplitudes stay below 20°: C is not fitted (θ0⁴ cannot be told from θ0² there)');
 
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
-  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp }, omega0) : null;
+  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp }, omega0, rig.flag_width_m, rig.length_m) : null;
   if (gate && gate.alignedSegments > 0)
     warnings.push(`gate offset: the side of ${gate.alignedSegments} later segment(s) was matched to the first (passes between segments are not known)`);
 
@@ -178,16 +193,17 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const dampRel = model ? model.lines.find((l) => l.name.startsWith('damping'))!.period_rel : 0;
   const T0u = T0 !== null ? T0 / (1 + dampRel) : null;
   const budget: BudgetLine[] = [];
-  const uStatRel = T0 !== null && P0.length > 1 ? batchMeansStdError(P0) / T0 : NaN;
+  const P0used = P0.filter((_, i) => keep[i] === 1);
+  const uStatRel = T0 !== null && P0used.length > 1 ? batchMeansStdError(P0used) / T0 : NaN;
   let g: number | null = null;
   let gU: number | null = null;
   let T0_u: number | null = null;
   if (T0u !== null) {
-    const redShift = (rel: number): number => (rel && rig ? Math.abs(robustMean(reducePeriods(P, pAmp, 1 + rel)).mean / T0! - 1) : 0);
+    const redShift = (rel: number): number => (rel && rig ? Math.abs(maskedMean(reducePeriods(P, pAmp, 1 + rel), keep) / T0! - 1) : 0);
     const uRedW = redShift(relW);
     const uRedD = redShift(relD);
     const uClock = d.clock.u_ppm * 1e-6;
-    if (Number.isFinite(uStatRel)) budget.push({ name: 'period timing (statistics of the periods)', u_rel_g: 2 * uStatRel, note: `${P0.length} periods` });
+    if (Number.isFinite(uStatRel)) budget.push({ name: 'period timing (statistics of the periods)', u_rel_g: 2 * uStatRel, note: `${P0used.length} periods` });
     budget.push({ name: `device clock (${d.clock.source})`, u_rel_g: 2 * uClock, note: `${d.clock.ppm.toFixed(2)} ± ${d.clock.u_ppm.toPrecision(2)} ppm` });
     if (rig) {
       budget.push({ name: 'flag width (amplitude reduction)', u_rel_g: 2 * uRedW, note: `w = ${(rig.flag_width_m * 1000).toFixed(2)} ± ${(rig.flag_width_u_m * 1000).toFixed(2)} mm` });
@@ -223,7 +239,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   pIdx.forEach((c, k) => (pk[c] = k));
   for (let c = 0; c < n; c++) {
     const st = p.status[c]!;
-    const flags: string[] = [];
+    const flags: string[] = st === 0 && p.bridgedBefore[c] === 0 && p.index[c] !== 0 ? NO_FLAGS : [];
     if (st === 1) flags.push('rejected:transit');
     else if (st === 2) flags.push('rejected:timing');
     else if (st === 3) flags.push('unsequenced');
@@ -243,28 +259,31 @@ export function analyzeRun(d: RunData): AnalysisResult {
   }
 
   // Plots.
-  const pv = thin(pIdx.map((c, k) => [pAmp[k]! * DEG, period[c]!] as const).filter(([a]) => Number.isFinite(a)));
-  const av = thin(ampT.map((t, i) => [t, ampA[i]! * DEG] as const));
+  const pvIdx = thin(Array.from({ length: pIdx.length }, (_, k) => k).filter((k) => Number.isFinite(pAmp[k]!)));
+  const avIdx = thin(Array.from({ length: ampT.length }, (_, i) => i));
   const hv = gate ? thin(gate.series.t_s.map((t, i) => [t, gate.series.diff_s[i]!] as const)) : [];
   const gRun: { t: number; g: number; u: number }[] = [];
   if (g !== null && gU !== null && T0u !== null) {
+    // Cumulative mean of the reduced periods up to each of ≤ 100 times; the systematic part of the budget is kept.
     const sysRel2 = Math.max(0, (gU / g) ** 2 - (2 * uStatRel) ** 2);
     const steps = Math.min(100, P0.length);
     let s = 0;
     let s2 = 0;
+    let m = 0;
     let k0 = 0;
     for (let j = 1; j <= steps; j++) {
       const k1 = Math.floor((j * P0.length) / steps);
-      for (; k0 < k1; k0++) if (Number.isFinite(P0[k0]!)) (s += P0[k0]!), (s2 += P0[k0]! ** 2);
-      const m = s / k1;
-      const sd = k1 > 1 ? Math.sqrt(Math.max(0, s2 / k1 - m * m)) : 0;
-      const gk = (g * (T0! / m) ** 2);
-      gRun.push({ t: p.t[pIdx[k1 - 1]!]!, g: gk, u: gk * Math.sqrt(sysRel2 + (2 * sd) / m / Math.sqrt(k1) * ((2 * sd) / m / Math.sqrt(k1))) });
+      for (; k0 < k1; k0++) if (keep[k0]) (s += P0[k0]!), (s2 += P0[k0]! ** 2), m++;
+      if (m === 0) continue;
+      const mean = s / m;
+      const sdRel = m > 1 ? Math.sqrt(Math.max(0, s2 / m - mean * mean)) / mean / Math.sqrt(m) : 0;
+      const gk = g * (T0! / mean) ** 2;
+      gRun.push({ t: p.t[pIdx[k1 - 1]!]!, g: gk, u: gk * Math.sqrt(sysRel2 + 4 * sdRel * sdRel) });
     }
   }
   const plots: PlotSeries = {
-    periodVsAmplitude: { amplitude_deg: pv.map((x) => x[0]), period_s: pv.map((x) => x[1]) },
-    amplitudeVsTime: { t_s: av.map((x) => x[0]), amplitude_deg: av.map((x) => x[1]) },
+    periodVsAmplitude: { amplitude_deg: pvIdx.map((k) => pAmp[k]! * DEG), period_s: pvIdx.map((k) => P[k]!) },
+    amplitudeVsTime: { t_s: avIdx.map((i) => ampT[i]!), amplitude_deg: avIdx.map((i) => ampA[i]! * DEG) },
     halfPeriodAlternation: { t_s: hv.map((x) => x[0]), diff_s: hv.map((x) => x[1]) },
     clockResiduals: { host_s: thin(d.clock.residuals.host_s), residual_s: thin(d.clock.residuals.residual_s) },
     gRunning: { t_s: gRun.map((x) => x.t), g: gRun.map((x) => x.g), g_u: gRun.map((x) => x.u) },
@@ -278,7 +297,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     const qs = damping.windows.map((w) => (Math.PI * w.amplitude) / (T0! * w.rate)).filter((x) => Number.isFinite(x) && x > 0);
     qU = qs.length > 2 ? batchMeansStdError(qs) * (damping.Q / Math.max(median(qs), 1e-300)) : null;
   }
-  const gateM = gate && rig ? gate.delta_rad * rig.length_m : null;
+  const gateM = gate ? gate.offset_m : null;
 
   return {
     T0_s: finiteOrNull(T0u),
@@ -289,7 +308,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     clock_u_ppm: d.clock.u_ppm,
     clock_source: d.clock.source,
     gate_offset_m: finiteOrNull(gateM),
-    gate_offset_u_m: gate && rig ? finiteOrNull(gate.delta_u_rad * rig.length_m) : null,
+    gate_offset_u_m: gate ? finiteOrNull(gate.offset_u_m) : null,
     B: law ? law.B : null,
     B_u: law ? law.B_u : null,
     C: law ? law.C : null,

@@ -1,11 +1,17 @@
 // Gate offset from the alternation of half-periods: where the beam sits relative to the lowest point.
 //
-// With the beam an angle δ from equilibrium, the half-period spent beyond the beam on the side it leans to is
-// shorter by 4∫₀^δ dθ/θ' ≈ 4δ/Ω, where Ω = 2ω0 sin(θ0/2) is the angular speed at the bottom (exact energy law;
-// reference-values §2b: T/2 ± 2 asin(δ/θ0)/ω in the harmonic limit). Pass 0 is the first pass of a segment; the
-// half-period starting at an even pass is spent on the side opposite to where the bob was before pass 0, so
-// δ (toward that earlier side) = (Ω/4)·(h_even − h_odd), estimated for every pass that has both neighbours.
+// With the beam a horizontal distance x0 from the lowest point, the flag (width w, radius L) blocks it between the
+// angles e± = asin((x0 ± w/2)/L). Passing the bottom at time 0, the bob's mid-transit time is
+// m = [t(e+) + t(e−)]/2 with t(θ) the exact time from the bottom to θ (energy law, t(θ) = F(asin(sin(θ/2)/k)|k²)/ω0,
+// k = sin(θ0/2)), so the half-period on the side the beam leans to is T/2 − 2m and the other T/2 + 2m: their
+// difference D = 4m (reference-values §2b gives T/2 ± 2 asin(δ/θ0)/ω in the harmonic limit). We solve m(x0) = D/4
+// for x0 by Newton's method. The simple δ = Ω·D/4 (Ω the bottom angular speed) overestimates |x0| by about
+// φb²/(2θ0²), 3 % at 3° for a 25 mm ball on 1 m, because the midpoint of a transit is not the time at its centre.
+// Pass 0 is the first pass of a segment; the half-period starting at an even pass is spent on the side opposite
+// to where the bob was before pass 0, so x0 (toward that earlier side) comes from D = h_even − h_odd.
+import { ellipticF } from './elliptic.ts';
 import { batchMeansStdError } from './stats.ts';
+import { blockHalfAngle } from './transit-amplitude.ts';
 
 /** Per-pass inputs: pass number within its segment, segment, time (s), amplitude (rad); rejected passes have index −1. */
 export interface GatePasses {
@@ -15,10 +21,37 @@ export interface GatePasses {
   readonly amplitude: ArrayLike<number>;
 }
 
-/** Gate offset as an angle from the lowest point (rad) with its standard uncertainty. */
+/** Exact time (s) from the bottom to angle θ (|θ| < θ0) for amplitude θ0, ω0 = 2π/T0. */
+export function timeFromBottom(theta: number, theta0: number, omega0: number): number {
+  const k = Math.sin(0.5 * theta0);
+  const x = Math.min(1, Math.abs(Math.sin(0.5 * theta)) / k);
+  return (Math.sign(theta) * ellipticF(Math.asin(x), k * k)) / omega0;
+}
+
+/** The beam's horizontal offset x0 (m) that makes consecutive half-periods differ by D (s), at amplitude θ0. */
+export function offsetFromAlternation(diffS: number, theta0: number, omega0: number, widthM: number, lengthM: number): number {
+  const k = Math.sin(0.5 * theta0);
+  const half = widthM / 2;
+  const speed = (e: number): number => 2 * omega0 * Math.sqrt(Math.max(1e-300, k * k - Math.sin(0.5 * e) ** 2));
+  // Start from the simple form x0 ≈ L·Ω·D/4.
+  let x0 = (lengthM * 2 * omega0 * k * diffS) / 4;
+  for (let i = 0; i < 20; i++) {
+    const ep = Math.asin(Math.max(-1, Math.min(1, (x0 + half) / lengthM)));
+    const em = Math.asin(Math.max(-1, Math.min(1, (x0 - half) / lengthM)));
+    const m = 0.5 * (timeFromBottom(ep, theta0, omega0) + timeFromBottom(em, theta0, omega0));
+    const dm = 0.5 * (1 / (speed(ep) * lengthM * Math.cos(ep)) + 1 / (speed(em) * lengthM * Math.cos(em)));
+    const step = (m - diffS / 4) / dm;
+    x0 -= step;
+    if (!Number.isFinite(x0)) return NaN;
+    if (Math.abs(step) < 1e-13) break;
+  }
+  return x0;
+}
+
+/** Gate offset from the lowest point (m), with its standard uncertainty. */
 export interface GateOffset {
-  readonly delta_rad: number;
-  readonly delta_u_rad: number;
+  readonly offset_m: number;
+  readonly offset_u_m: number;
   readonly samples: number;
   /** Segments after the first whose alternation sign was aligned to the first (their side is not known). */
   readonly alignedSegments: number;
@@ -27,10 +60,11 @@ export interface GateOffset {
 }
 
 /** Estimates the gate offset; null with fewer than 4 usable passes. */
-export function gateOffset(p: GatePasses, omega0: number): GateOffset | null {
+export function gateOffset(p: GatePasses, omega0: number, widthM: number, lengthM: number): GateOffset | null {
+  const phiB = blockHalfAngle(widthM, lengthM);
   const perSeg = new Map<number, { d: number[]; t: number[]; diff: number[] }>();
   const n = p.index.length;
-  // prev[k] = position of the previous valid pass, so neighbours are found in O(1).
+  // a, b: the two valid passes before c.
   let a = -1;
   let b = -1;
   for (let c = 0; c < n; c++) {
@@ -39,13 +73,12 @@ export function gateOffset(p: GatePasses, omega0: number): GateOffset | null {
       const h1 = p.t[b]! - p.t[a]!;
       const h2 = p.t[c]! - p.t[b]!;
       const th = p.amplitude[b]!;
-      if (Number.isFinite(th)) {
+      if (Number.isFinite(th) && th > phiB) {
         const evenFirst = p.index[a]! % 2 === 0;
         const diff = evenFirst ? h1 - h2 : h2 - h1;
-        const omegaBottom = 2 * omega0 * Math.sin(th / 2);
         let s = perSeg.get(p.segment[c]!);
         if (!s) perSeg.set(p.segment[c]!, (s = { d: [], t: [], diff: [] }));
-        s.d.push((omegaBottom / 4) * diff);
+        s.d.push(offsetFromAlternation(diff, th, omega0, widthM, lengthM));
         s.t.push(p.t[b]!);
         s.diff.push(diff);
       }
@@ -72,5 +105,5 @@ export function gateOffset(p: GatePasses, omega0: number): GateOffset | null {
     }
   }
   if (all.length < 4) return null;
-  return { delta_rad: mean(all), delta_u_rad: batchMeansStdError(all), samples: all.length, alignedSegments: aligned, series: { t_s: ts, diff_s: diffs } };
+  return { offset_m: mean(all), offset_u_m: batchMeansStdError(all), samples: all.length, alignedSegments: aligned, series: { t_s: ts, diff_s: diffs } };
 }

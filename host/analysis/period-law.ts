@@ -3,25 +3,27 @@ import { periodRatio } from './elliptic.ts';
 import { linearFit } from './least-squares.ts';
 import { median, robustSigma } from './stats.ts';
 
-/** Mean of the reduced periods after clipping gross outliers (> 10 robust σ from the median). */
-export function robustMean(xs: ArrayLike<number>): { mean: number; used: number; clipped: number } {
+/** Marks the values to keep: finite and within max(10 robust σ, 1e-4 of the median) of the median (gross outliers out). */
+export function clipMask(xs: ArrayLike<number>): { keep: Uint8Array; clipped: number } {
   const med = median(xs);
-  const sig = robustSigma(xs);
-  const lim = 10 * Math.max(sig, Math.abs(med) * 1e-9);
-  let s = 0;
-  let used = 0;
+  const lim = Math.max(10 * robustSigma(xs), Math.abs(med) * 1e-4);
+  const keep = new Uint8Array(xs.length);
   let clipped = 0;
   for (let i = 0; i < xs.length; i++) {
     const v = xs[i]!;
     if (!Number.isFinite(v)) continue;
-    if (Math.abs(v - med) > lim) {
-      clipped++;
-      continue;
-    }
-    s += v;
-    used++;
+    if (Math.abs(v - med) > lim) clipped++;
+    else keep[i] = 1;
   }
-  return { mean: used ? s / used : NaN, used, clipped };
+  return { keep, clipped };
+}
+
+/** Mean of the kept values. */
+export function maskedMean(xs: ArrayLike<number>, keep: Uint8Array): number {
+  let s = 0;
+  let n = 0;
+  for (let i = 0; i < xs.length; i++) if (keep[i]) (s += xs[i]!), n++;
+  return n ? s / n : NaN;
 }
 
 /** Reduces periods P to zero amplitude: P/(2K(sin²(θ/2))/π); NaN where the amplitude is unknown. */
@@ -36,7 +38,7 @@ export interface PeriodLawFit {
   readonly T0: number;
   readonly B: number;
   readonly B_u: number;
-  /** Null when the amplitudes stay below `C_MIN_AMPLITUDE` (θ⁴ is then not separable from θ²). */
+  /** Null when the amplitudes stay below `C_MIN_AMPLITUDE` (θ⁴ is then not separable from θ²; C is held at 11/3072). */
   readonly C: number | null;
   readonly C_u: number | null;
 }
@@ -44,7 +46,18 @@ export interface PeriodLawFit {
 /** Largest amplitude (rad) needed before C is fitted: 20°. */
 export const C_MIN_AMPLITUDE = (20 * Math.PI) / 180;
 
-/** Fits P = T0 + T0·B·θ² (+ T0·C·θ⁴) to periods P at amplitudes θ (rad); null with < 8 periods or no spread. */
+/** The exact law's part beyond θ⁴: 2K(sin²(θ/2))/π − 1 − θ²/16 − 11θ⁴/3072 (173θ⁶/737280 + …). */
+export function periodRatioBeyondTheta4(theta: number): number {
+  const t2 = theta * theta;
+  return periodRatio(theta) - 1 - t2 / 16 - (11 * t2 * t2) / 3072;
+}
+
+/**
+ * Fits P = T0(1 + Bθ² + Cθ⁴ + R(θ)) to periods P at amplitudes θ (rad), with R the exact law's terms beyond θ⁴
+ * held at their simple-pendulum values, so that truncation does not bias C (fitting to 30° without R moves C by
+ * about 2 %); a rig that obeys the simple law gives B = 1/16 and C = 11/3072 exactly. Null with < 8 periods or
+ * no amplitude spread.
+ */
 export function fitPeriodLaw(periods: ArrayLike<number>, amplitudes: ArrayLike<number>): PeriodLawFit | null {
   const idx: number[] = [];
   let maxA = 0;
@@ -59,7 +72,7 @@ export function fitPeriodLaw(periods: ArrayLike<number>, amplitudes: ArrayLike<n
   if (idx.length < 8 || !(maxA * maxA - minA * minA > 1e-6)) return null;
   const withC = maxA >= C_MIN_AMPLITUDE;
   const th2 = (k: number): number => amplitudes[idx[k]!]! ** 2;
-  const basis = [() => 1, th2, ...(withC ? [(k: number) => th2(k) ** 2] : [])];
+  const basis = [(k: number) => 1 + periodRatioBeyondTheta4(amplitudes[idx[k]!]!) + (withC ? 0 : (11 / 3072) * th2(k) ** 2), th2, ...(withC ? [(k: number) => th2(k) ** 2] : [])];
   const fit = linearFit(idx.length, (k) => periods[idx[k]!]!, basis);
   if (!fit) return null;
   const [p0, p1] = fit.params as [number, number];

@@ -1,11 +1,19 @@
 // Small sample statistics used across the analysis: median, mean, standard deviation, batch means.
 
+/** The finite values of an array, sorted ascending, as a Float64Array (native numeric sort). */
+function sortedFinite(xs: ArrayLike<number>): Float64Array {
+  let n = 0;
+  for (let i = 0; i < xs.length; i++) if (Number.isFinite(xs[i]!)) n++;
+  const v = new Float64Array(n);
+  let k = 0;
+  for (let i = 0; i < xs.length; i++) if (Number.isFinite(xs[i]!)) v[k++] = xs[i]!;
+  return v.sort();
+}
+
 /** Median of the finite values of an array (NaN when there are none); does not modify the input. */
 export function median(xs: ArrayLike<number>): number {
-  const v: number[] = [];
-  for (let i = 0; i < xs.length; i++) if (Number.isFinite(xs[i]!)) v.push(xs[i]!);
+  const v = sortedFinite(xs);
   if (v.length === 0) return NaN;
-  v.sort((a, b) => a - b);
   const h = v.length >> 1;
   return v.length % 2 ? v[h]! : 0.5 * (v[h - 1]! + v[h]!);
 }
@@ -49,7 +57,7 @@ export function batchMeansStdError(xs: ArrayLike<number>, minBatches = 10, maxBa
 /** Median absolute deviation scaled to σ for a normal distribution (×1.4826). */
 export function robustSigma(xs: ArrayLike<number>): number {
   const m = median(xs);
-  const d: number[] = [];
-  for (let i = 0; i < xs.length; i++) if (Number.isFinite(xs[i]!)) d.push(Math.abs(xs[i]! - m));
+  const d = sortedFinite(xs);
+  for (let i = 0; i < d.length; i++) d[i] = Math.abs(d[i]! - m);
   return 1.4826 * median(d);
 }

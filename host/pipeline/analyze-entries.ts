@@ -1,7 +1,7 @@
 // Batch entry points: run the pipeline over a list of journal entries, or over a journal file.
 import type { JournalEntry } from '../../protocol/journal.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
-import { readJournalFile } from '../journal/read-journal.ts';
+import { readJournalBatches } from '../journal/read-journal.ts';
 import { createRunPipeline, type PipelineOptions, type RunPipeline } from './run-pipeline.ts';
 
 /** Analyses entries in one go. */
@@ -14,6 +14,6 @@ export function analyzeEntries(entries: Iterable<JournalEntry>, opts: PipelineOp
 /** Feeds a journal file through a pipeline and returns the pipeline (for its rig) and the result. */
 export async function analyzeJournalFile(path: string, opts: PipelineOptions = {}): Promise<{ pipeline: RunPipeline; result: AnalysisResult }> {
   const p = createRunPipeline(opts);
-  for await (const e of readJournalFile(path)) p.push(e);
+  for await (const batch of readJournalBatches(path)) for (const e of batch) p.push(e);
   return { pipeline: p, result: p.result() };
 }

@@ -177,7 +177,7 @@ export function sequencePasses(
     hist[histAt] = h;
     histAt = (histAt + 1) % hist.length;
     histN = Math.min(histN + 1, hist.length);
-    histBuf.set(hist);
+    for (let q = 0; q < histN; q++) histBuf[q] = hist[q]!;
     H = histN >= 3 ? sortedMedian(histBuf, histN) : H;
     last = best;
     j = k;

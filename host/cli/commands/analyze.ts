@@ -1,13 +1,94 @@
-// Placeholder until the analyze command lands.
-import type { Command } from '../command.ts';
+// `halfswing analyze`: a journal → summary, JSON, per-swing CSV and HTML report; all outputs or none are written.
+import { createHash, randomBytes } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { readFile, rename, rm, writeFile } from 'node:fs/promises';
+import { basename, resolve } from 'node:path';
+import { parseRig, type Rig } from '../../../protocol/rig.ts';
+import { formatSummary } from '../../analysis/format-summary.ts';
+import { swingsCsv } from '../../analysis/swings-csv.ts';
+import { analyzeJournalFile } from '../../pipeline/analyze-entries.ts';
+import type { ClockOption } from '../../pipeline/clock-choice.ts';
+import { renderReport } from '../../report/index.ts';
+import { optString, type Command } from '../command.ts';
 import { UserError } from '../errors.ts';
+
+/** Parses `--clock`: host, pps, nominal, or a rate error in ppm. */
+export function parseClockOption(s: string | undefined): ClockOption {
+  if (s === undefined) return undefined;
+  if (s === 'host' || s === 'pps' || s === 'nominal') return s;
+  const v = Number(s);
+  if (s.trim() !== '' && Number.isFinite(v) && Math.abs(v) < 1e5) return v;
+  throw new UserError(`--clock must be host, pps, nominal or a rate error in ppm (e.g. -35.2), not '${s}'`, 2);
+}
+
+async function loadRig(path: string, cwd: string): Promise<Rig> {
+  let text: string;
+  try {
+    text = await readFile(resolve(cwd, path), 'utf8');
+  } catch (e) {
+    throw new UserError(`cannot read rig file ${path} (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
+  const r = parseRig(text);
+  if (!r.ok) throw new UserError(`rig file ${path}: ${r.error}`);
+  return r.rig;
+}
+
+async function sha256(path: string): Promise<string> {
+  const h = createHash('sha256');
+  for await (const chunk of createReadStream(path)) h.update(chunk as Buffer);
+  return h.digest('hex');
+}
+
+/** Writes all files through temporary names, then renames them; on any failure none is left behind. */
+async function writeAll(files: readonly { path: string; text: string }[]): Promise<void> {
+  const tag = `${process.pid}-${randomBytes(4).toString('hex')}`;
+  const temps = files.map((f) => ({ ...f, tmp: `${f.path}.tmp-${tag}` }));
+  try {
+    for (const f of temps) await writeFile(f.tmp, f.text, { flag: 'wx' });
+    for (const f of temps) await rename(f.tmp, f.path);
+  } catch (e) {
+    await Promise.all(temps.map((f) => rm(f.tmp, { force: true })));
+    throw new UserError(`cannot write ${temps.map((f) => f.path).join(', ')} (${(e as NodeJS.ErrnoException).code ?? String(e)})`);
+  }
+}
 
 export const command: Command = {
   name: 'analyze',
-  summary: 'not built yet',
-  usage: 'analyze',
-  options: {},
-  async run() {
-    throw new UserError('analyze is not built yet in this version', 1);
+  summary: 'analyse a journal: period vs amplitude, T0, g with uncertainty, Q',
+  usage: 'analyze JOURNAL [--rig FILE] [--json] [--csv FILE] [--report FILE.html] [--clock host|pps|nominal|PPM]',
+  positionals: [1, 1],
+  options: {
+    rig: { type: 'string', arg: 'FILE', description: "rig description (JSON); default: the journal's #rig line" },
+    json: { type: 'boolean', description: 'print one JSON object (SI units, standard uncertainties) instead of the summary' },
+    csv: { type: 'string', arg: 'FILE', description: 'write one row per pass: time, transit, half-period, period, amplitude, reduced period, flags' },
+    report: { type: 'string', arg: 'FILE', description: 'write the HTML run report' },
+    clock: { type: 'string', arg: 'MODE', description: 'device clock correction: host (lower envelope of heartbeats), pps, nominal, or a rate error in ppm (default: pps if present, else host when the run is long enough)' },
+  },
+  details: `
+The analysis is the same as the live view's: passes from the beam edges, full periods from every second pass,
+amplitude from the exact transit-time integral, reduction to zero amplitude with T/T0 = 2K(sin²(θ0/2))/π, and
+g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k = 1) unless marked k = 2.`,
+  async run(args, io) {
+    const journal = resolve(io.cwd, args.positionals[0]!);
+    const clock = parseClockOption(optString(args, 'clock'));
+    const rigPath = optString(args, 'rig');
+    const rig = rigPath !== undefined ? await loadRig(rigPath, io.cwd) : undefined;
+    const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock });
+    if (result.passes === 0 && result.swings.length === 0)
+      throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.channel ?? 0}, and did the bob swing?)`);
+    const csvPath = optString(args, 'csv');
+    const reportPath = optString(args, 'report');
+    const files: { path: string; text: string }[] = [];
+    if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), text: swingsCsv(result.swings) });
+    if (reportPath !== undefined) {
+      const meta = { journalName: basename(journal), journalSha256: await sha256(journal), rig: pipeline.rig(), csvName: csvPath !== undefined ? basename(csvPath) : null };
+      files.push({ path: resolve(io.cwd, reportPath), text: renderReport(result, meta) });
+    }
+    await writeAll(files);
+    if (args.values.json === true) {
+      const { swings: _rows, ...rest } = result;
+      io.stdout.write(`${JSON.stringify(rest)}\n`);
+    } else io.stdout.write(formatSummary(result, basename(journal)));
+    return 0;
   },
 };

@@ -1,0 +1,44 @@
+// The human summary of `halfswing analyze`: the main figures with uncertainties, the budget, counts and warnings.
+import type { AnalysisResult } from './result.ts';
+
+const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
+
+/** Value ± standard uncertainty with a sensible number of digits (two significant digits of the uncertainty). */
+export function plusMinus(v: number | null, u: number | null, unit = ''): string {
+  if (v === null) return '—';
+  if (u === null || !(u > 0)) return `${v.toPrecision(8)}${unit}`;
+  const d = Math.max(0, Math.min(12, 1 - Math.floor(Math.log10(u))));
+  return `${v.toFixed(d)} ± ${u.toFixed(d)}${unit}`;
+}
+
+/** Plain-text summary, one fact per line. */
+export function formatSummary(r: AnalysisResult, journalName: string): string {
+  const L: string[] = [];
+  L.push(`halfswing analysis of ${journalName}`);
+  L.push(`  run              ${r.run.start_iso ?? 'start unknown'}, ${(r.run.duration_s / 3600).toFixed(2)} h, firmware ${r.run.firmware ?? '?'}`);
+  L.push(`  passes           ${r.passes} valid, ${r.periods} full periods`);
+  L.push(`  T0               ${plusMinus(r.T0_s, r.T0_u_s, ' s')}   (zero amplitude, exact law 2K/π)`);
+  L.push(`  g                ${plusMinus(r.g_m_s2, r.g_u_m_s2, ' m/s²')}   (k = 1; expanded k = 2: ± ${fix(r.g_u_m_s2 !== null ? 2 * r.g_u_m_s2 : null, 5)})`);
+  if (r.expected_g_m_s2 !== null)
+    L.push(`  expected g       ${r.expected_g_m_s2.toFixed(6)} m/s² (WGS-84 normal gravity; local anomalies are often ~1e-4 g): difference ${fix(r.g_diff_sigma, 2)} σ`);
+  L.push(`  clock            ${plusMinus(r.clock_ppm, r.clock_u_ppm, ' ppm')} (${r.clock_source})${r.clock_drift_ppm_per_h !== null ? `, drift ${r.clock_drift_ppm_per_h.toFixed(3)} ppm/h` : ''}`);
+  L.push(`  amplitude        ${fix(r.amplitude_start_deg, 3, '°')} → ${fix(r.amplitude_end_deg, 3, '°')}`);
+  if (r.amplitude_sensitivity)
+    L.push(
+      `  sensitivity      at ${r.amplitude_sensitivity.at_amplitude_deg.toFixed(2)}°: ${r.amplitude_sensitivity.per_width_deg_per_mm.toFixed(4)}°/mm of flag width, ${r.amplitude_sensitivity.per_delay_difference_deg_per_us.toExponential(2)}°/µs of on/off delay difference`,
+    );
+  L.push(`  B, C             B = ${plusMinus(r.B, r.B_u)} (1/16 = 0.0625), C = ${plusMinus(r.C, r.C_u)} (11/3072 = 0.003581)`);
+  L.push(`  gate offset      ${r.gate_offset_m === null ? '—' : plusMinus(r.gate_offset_m * 1000, r.gate_offset_u_m !== null ? r.gate_offset_u_m * 1000 : null, ' mm')} (+ toward the side the bob started on)`);
+  L.push(`  damping          ${r.damping_model ?? '—'}; Q = ${plusMinus(r.Q, r.Q_u)} at ${fix(r.median_amplitude_deg, 2, '°')}; amplitude time constant ${fix(r.damping_tau_s, 0, ' s')}`);
+  if (r.budget.length) {
+    L.push('  uncertainty budget (relative standard uncertainty of g):');
+    for (const b of r.budget) L.push(`    ${b.u_rel_g.toExponential(2).padStart(9)}  ${b.name}${b.note ? ` (${b.note})` : ''}`);
+    if (r.g_m_s2 !== null && r.g_u_m_s2 !== null) L.push(`    ${(r.g_u_m_s2 / r.g_m_s2).toExponential(2).padStart(9)}  combined (k = 1)`);
+  }
+  const c = r.counts;
+  L.push(
+    `  counts           crc errors ${c.crc_errors}, lines lost ${c.lines_lost}, device lost ${c.device_lost}, rejected passes ${c.rejected_passes}, bridged gaps ${c.bridged_gaps}, reboots ${c.reboots}, disconnects ${c.disconnects}`,
+  );
+  for (const w of r.warnings) L.push(`  warning: ${w}`);
+  return `${L.join('\n')}\n`;
+}
