@@ -64,13 +64,18 @@ describe.skipIf(!bin && !ci)('report in headless Chromium (simulated demo-low-q 
     if (run) rmSync(run.dir, { recursive: true, force: true });
   });
 
-  it('lays out: no horizontal overflow, every chart visible with size, sections in order', async () => {
-    const probePage = join(run.dir, 'probe.html');
+  /** Loads a copy of the page with the probe at a window width and returns what it measured. */
+  async function probeAt(width: number): Promise<Probe> {
+    const probePage = join(run.dir, `probe-${width}.html`);
     writeFileSync(probePage, html.replace('</body>', `${PROBE}</body>`));
-    const dom = await runChromium(bin!, probePage, ['--window-size=1200,1600', '--dump-dom', '--virtual-time-budget=5000']);
+    const dom = await runChromium(bin!, probePage, [`--window-size=${width},1600`, '--dump-dom', '--virtual-time-budget=5000']);
     const b64 = /<pre id="probe">([A-Za-z0-9+/=]+)<\/pre>/.exec(dom);
     expect(b64, 'the probe ran').not.toBeNull();
-    const probe = JSON.parse(Buffer.from(b64![1]!, 'base64').toString('utf8')) as Probe;
+    return JSON.parse(Buffer.from(b64![1]!, 'base64').toString('utf8')) as Probe;
+  }
+
+  it('lays out: no horizontal overflow, every chart visible with size, sections in order', async () => {
+    const probe = await probeAt(1200);
     expect(probe.docWidth).toBeLessThanOrEqual(probe.viewWidth);
     expect(probe.charts).toHaveLength(7);
     const shown = probe.charts.filter((c) => c.shown);
@@ -86,6 +91,13 @@ describe.skipIf(!bin && !ci)('report in headless Chromium (simulated demo-low-q 
     expect(probe.charts.filter((c) => c.fig === 'fig-amplitude').map((c) => c.shown)).toEqual([true, false]);
     expect(probe.afterToggle).toEqual([false, true]);
     writeFileSync(join(ARTIFACTS, 'report-demo-low-q.layout.json'), JSON.stringify(probe, null, 1));
+  });
+
+  it('fits a 700 px column (about the printable width of A4 and Letter at 96 px/in) without overflow', async () => {
+    const probe = await probeAt(700);
+    expect(probe.viewWidth).toBe(700);
+    expect(probe.docWidth).toBeLessThanOrEqual(700);
+    for (const c of probe.charts.filter((x) => x.shown)) expect(c.w, c.fig).toBeGreaterThan(550);
   });
 
   it('screenshots to a PNG that is not blank and has ink from top to bottom', async () => {
