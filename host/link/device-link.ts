@@ -33,7 +33,7 @@ export interface LinkStats {
   readonly lines: number;
   /** Lines that decoded as protocol v1 records. */
   readonly validLines: number;
-  /** Lines the decoder rejected, plus over-long lines the framer dropped. */
+  /** Lines the decoder rejected (over-long ones included: their head is passed on and rejected). */
   readonly lineErrors: number;
   readonly overLong: number;
   readonly tailsDiscarded: number;
@@ -52,7 +52,7 @@ export interface DeviceLinkOptions {
   readonly now?: MicrosClock;
   /** Give up waiting for the first hello after this long (ms). */
   readonly helloTimeoutMs?: number;
-  /** Send `?` if no hello came this long after opening (ms); the board may not have been reset by the open. */
+  /** Send `?` if no hello came this long after opening (ms; default the lesser of 1.5 s and a quarter of the timeout): the open may not have reset the board. */
   readonly helloNudgeMs?: number;
   /** Expected heartbeat period (ms); loss is declared after 3 periods without a heartbeat. */
   readonly heartbeatMs?: number;
@@ -134,7 +134,7 @@ class Link implements DeviceLink {
     this.now = opts.now ?? monotonicClock();
     this.baud = opts.baud ?? DEFAULT_BAUD;
     this.helloTimeoutMs = opts.helloTimeoutMs ?? 5000;
-    this.helloNudgeMs = opts.helloNudgeMs ?? 1500;
+    this.helloNudgeMs = opts.helloNudgeMs ?? Math.min(1500, this.helloTimeoutMs / 4);
     this.heartbeatMs = opts.heartbeatMs ?? 1000;
     this.backoff = { first: opts.backoffMs?.first ?? 250, max: opts.backoffMs?.max ?? 10_000 };
     this.highWater = opts.highWater ?? 20_000;
@@ -162,7 +162,7 @@ class Link implements DeviceLink {
       bytes: this.counts.bytes,
       lines: this.counts.lines,
       validLines: this.counts.validLines,
-      lineErrors: this.counts.badLines + f.overLong,
+      lineErrors: this.counts.badLines,
       overLong: f.overLong,
       tailsDiscarded: f.tailsDiscarded,
       reconnects: this.counts.reconnects,

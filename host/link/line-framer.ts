@@ -4,7 +4,7 @@ import { MAX_LINE_BYTES } from '../../protocol/records.ts';
 
 /** Running counts of what the framer dropped; lines it passes on are not counted here. */
 export interface FramerCounts {
-  /** Lines longer than the protocol limit, dropped whole (up to their LF). */
+  /** Lines longer than the protocol limit: only their first bytes were passed on (as a line the decoder rejects). */
   readonly overLong: number;
   /** Partial lines left at close that did not carry a valid CRC, discarded. */
   readonly tailsDiscarded: number;
@@ -15,8 +15,9 @@ const CR = 0x0d;
 
 /**
  * Splits raw bytes into lines at LF, strips one trailing CR, and never holds more than the protocol's
- * 80 bytes: a line that grows past the cap is dropped up to its LF and counted. Lines are latin1 text,
- * so any byte survives to the decoder, which rejects non-ASCII itself.
+ * 80 bytes: of a line that grows past the cap only the first 80 bytes are kept, the rest is discarded up to
+ * the LF (SPEC section 6), and it is counted. Lines are latin1 text, so any byte survives to the decoder,
+ * which rejects non-ASCII itself.
  */
 export class LineFramer {
   private readonly buf: Buffer;
@@ -53,6 +54,7 @@ export class LineFramer {
   flush(emit: (line: string) => void): void {
     if (this.overflowing) {
       this.overLong++;
+      this.tailsDiscarded++;
     } else if (this.len > 0) {
       const line = this.text();
       if (decodeLine(line).ok) emit(line);
@@ -74,22 +76,21 @@ export class LineFramer {
   private take(chunk: Uint8Array, start: number, end: number): void {
     if (this.overflowing || start === end) return;
     const n = end - start;
-    if (this.len + n > this.maxBytes) {
-      this.overflowing = true;
-      this.len = 0;
-      return;
-    }
-    this.buf.set(chunk.subarray(start, end), this.len);
-    this.len += n;
+    const room = this.maxBytes - this.len;
+    this.buf.set(chunk.subarray(start, start + Math.min(n, room)), this.len);
+    this.len += Math.min(n, room);
+    if (n > room) this.overflowing = true;
   }
 
   private endLine(emit: (line: string) => void): void {
     if (this.overflowing) {
+      // The kept head is passed on (and journaled): the decoder rejects it as too-long, so the journal
+      // replays to the same rejection count as the live link saw. The rest up to the LF is gone.
       this.overLong++;
+      emit(this.buf.toString('latin1', 0, this.len));
     } else {
-      const line = this.text();
-      // An empty line (a bare LF, or CR LF) is passed on: the decoder counts it as 'empty'.
-      emit(line);
+      // An empty line (a bare LF, or CR LF) is passed on too: the decoder counts it as 'empty'.
+      emit(this.text());
     }
     this.len = 0;
     this.overflowing = false;

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { LineFramer } from '../../host/link/line-framer.ts';
+import { decodeLine } from '../../protocol/decode.ts';
 import { DeviceLines } from './helpers/device-lines.ts';
 
 function frame(chunks: Uint8Array[], framer = new LineFramer()): { lines: string[]; framer: LineFramer } {
@@ -35,10 +36,11 @@ describe('LineFramer', () => {
     );
   });
 
-  it('drops an over-long line whole and counts it, keeping the lines around it', () => {
+  it('cuts an over-long line to its first 80 bytes, which the decoder rejects as too-long, keeping the lines around it', () => {
     const long = `E 1 0 f ${'a'.repeat(200)}`;
     const { lines, framer } = frame([Buffer.from(`${sample[0]}\n${long}\n${sample[1]}\n`, 'latin1')]);
-    expect(lines).toEqual([sample[0], sample[1]]);
+    expect(lines).toEqual([sample[0], long.slice(0, 80), sample[1]]);
+    expect(decodeLine(lines[1]!)).toMatchObject({ ok: false, reason: 'too-long' });
     expect(framer.counts().overLong).toBe(1);
   });
 
@@ -58,7 +60,7 @@ describe('LineFramer', () => {
     // SPEC: at most 80 bytes including the LF (protocol/records.ts MAX_LINE_BYTES).
     const body79 = 'x'.repeat(79);
     const { lines, framer } = frame([Buffer.from(`${body79}\n${body79}\r\n${'y'.repeat(81)}\n`)]);
-    expect(lines).toEqual([body79, body79]);
+    expect(lines).toEqual([body79, body79, 'y'.repeat(80)]);
     expect(framer.counts().overLong).toBe(1);
   });
 

@@ -1,0 +1,152 @@
+// The recording loop: link events → journal (and the pipeline), status snapshots, one shutdown path.
+import { journalHeader, parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
+import type { DeviceLink, LinkEvent } from '../link/device-link.ts';
+import type { MicrosClock } from '../link/monotonic-clock.ts';
+import type { RunPipeline } from '../pipeline/run-pipeline.ts';
+import type { BlockHeader, JournalWriter } from './journal-writer.ts';
+import { buildStatus, type RecorderStatus } from './recorder-status.ts';
+
+export interface RecorderOptions {
+  readonly link: DeviceLink;
+  readonly writer: JournalWriter;
+  readonly header: BlockHeader;
+  /** Fed every entry written, for the status numbers (passes, period, amplitude, g). */
+  readonly pipeline?: RunPipeline;
+  /** The link's clock (µs since the block's `#start`). */
+  readonly now: MicrosClock;
+  readonly wallNow?: () => Date;
+  readonly statusEveryMs: number;
+  readonly onStatus?: (s: RecorderStatus) => void;
+  /** Aborting it is the one way to stop: the link closes, the last lines are written, the journal synced. */
+  readonly signal: AbortSignal;
+  /** Called with the abort reason's text for the `disconnect` annotation. */
+  readonly stopReason?: () => string;
+  /** Lines per second above which the device counts as flooding (a pendulum sends about 5). */
+  readonly floodLinesPerS?: number;
+  /** Extra warnings to show in every status (sleep inhibitor missing, USB autosuspend). */
+  readonly warnings?: () => readonly string[];
+  readonly pid?: number;
+}
+
+export interface RecorderSummary {
+  readonly status: RecorderStatus;
+  /** Set when recording stopped because the journal could not be written (disk full). */
+  readonly error?: Error;
+}
+
+/**
+ * Runs until the signal aborts or the journal fails. Nothing is written before the board's first hello:
+ * if it never comes, the link's `ready` error is thrown and the journal is left as it was.
+ */
+export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> {
+  const wallNow = o.wallNow ?? (() => new Date());
+  const flood = o.floodLinesPerS ?? 500;
+  let started = false;
+  let state: RecorderStatus['state'] = 'waiting-hello';
+  let pending: LinkEvent[] = [];
+  let error: Error | undefined;
+  let g: { value: number | null; u: number | null } = { value: null, u: null };
+  let gDueUs = 0;
+  let gCostUs = 0;
+  let rate = { atUs: o.now(), lines: 0, perS: 0 };
+  let flooding = false;
+
+  const feed = (e: JournalEntry): void => o.pipeline?.push(e);
+  const write = (e: LinkEvent): void => {
+    if (e.type === 'line') {
+      o.writer.data(e.hostUs, e.line);
+      feed({ kind: 'data', hostUs: e.hostUs, line: e.line });
+    } else if (e.type === 'annotation') {
+      o.writer.annotate(e.hostUs, e.word, e.text);
+      feed({ kind: 'annotation', hostUs: e.hostUs, word: e.word, text: e.text });
+    }
+  };
+  const begin = (): void => {
+    o.writer.startBlock(o.header);
+    for (const line of journalHeader({ ...o.header, withMagic: false })) feed(parseJournalLine(line));
+    started = true;
+    for (const p of pending) write(p);
+    pending = [];
+  };
+
+  const snapshot = (): RecorderStatus => {
+    const t = o.now();
+    const stats = o.link.stats();
+    const dt = (t - rate.atUs) / 1e6;
+    if (dt >= 0.5) rate = { atUs: t, lines: stats.lines, perS: (stats.lines - rate.lines) / dt };
+    const warnings = [...(o.warnings?.() ?? [])];
+    if (rate.perS > flood) {
+      warnings.push(`device is flooding: ${Math.round(rate.perS)} lines/s (check the gate for noise or bounce)`);
+      if (!flooding && started && !error) {
+        try {
+          o.writer.annotate(t, 'note', `device flooding: ${Math.round(rate.perS)} lines/s`);
+        } catch (e) {
+          error ??= e as Error;
+        }
+      }
+      flooding = true;
+    } else flooding = false;
+    // The full analysis grows with the run: redo g at most as often as it stays under a tenth of the time.
+    if (o.pipeline && started && t >= gDueUs) {
+      const t0 = performance.now();
+      const r = o.pipeline.result();
+      gCostUs = (performance.now() - t0) * 1000;
+      g = { value: r.g_m_s2, u: r.g_u_m_s2 };
+      gDueUs = t + Math.max(o.statusEveryMs * 1000, 10 * gCostUs);
+    }
+    return buildStatus({
+      wall: wallNow(),
+      pid: o.pid ?? process.pid,
+      state,
+      port: o.link.path(),
+      journal: o.writer.path,
+      journalBytes: o.writer.size(),
+      hostUs: t,
+      linesPerS: rate.perS,
+      link: stats,
+      live: o.pipeline?.live(t),
+      g,
+      warnings,
+    });
+  };
+
+  const tick = setInterval(() => o.onStatus?.(snapshot()), o.statusEveryMs);
+  const stop = (): void => void o.link.close(o.stopReason?.() ?? 'shutdown');
+  if (o.signal.aborted) stop();
+  else o.signal.addEventListener('abort', stop, { once: true });
+  try {
+    for await (const e of o.link) {
+      if (e.type === 'state') {
+        if (e.state === 'connected') state = 'connected';
+        else if (e.state === 'reconnecting') state = 'reconnecting';
+        else if (e.state === 'waiting-hello' && started) state = 'reconnecting';
+        if (e.state === 'connected' && !started) begin();
+        continue;
+      }
+      if (!started) {
+        pending.push(e);
+        continue;
+      }
+      write(e);
+    }
+  } catch (e) {
+    error = e as Error;
+    await o.link.close('journal write failed');
+  } finally {
+    clearInterval(tick);
+    o.signal.removeEventListener('abort', stop);
+  }
+  if (!started && !error) {
+    // Throws the reason the board never answered; nothing was written.
+    await o.link.ready;
+  }
+  try {
+    o.writer.sync();
+  } catch (e) {
+    error ??= e as Error;
+  }
+  state = 'stopped';
+  const status = snapshot();
+  o.onStatus?.(status);
+  return error ? { status, error } : { status };
+}

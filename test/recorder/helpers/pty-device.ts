@@ -1,0 +1,79 @@
+// The far end of a pty for recorder tests: socat makes the pty, this process plays the board on socat's stdio.
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { existsSync, rmSync } from 'node:fs';
+import { once } from 'node:events';
+
+/** True when socat is on PATH. Pty tests must fail, not skip, when it is missing under CI=true. */
+export function haveSocat(): boolean {
+  return spawnSync('socat', ['-V'], { stdio: 'ignore' }).status === 0;
+}
+
+/** Decides once whether pty tests run: missing socat skips with one line on a dev machine, fails under CI. */
+export function ptyTestsEnabled(): boolean {
+  if (haveSocat()) return true;
+  if (process.env.CI === 'true') throw new Error('socat is missing and CI=true: pty tests must run (apt-get install socat)');
+  process.stderr.write('skipping pty recorder tests: socat is not installed (apt-get install socat)\n');
+  return false;
+}
+
+/**
+ * One "cable": `socat pty,link=PATH STDIO`. The recorder opens PATH; what this object writes arrives there and what
+ * the recorder sends comes back through `onCommand`. `kill` is the cable pulled: the pty vanishes.
+ */
+export class PtyCable {
+  private constructor(
+    readonly path: string,
+    private readonly proc: ChildProcess,
+  ) {}
+
+  private buffered = '';
+  private commandFn: ((cmd: string) => void) | undefined;
+
+  static async plug(path: string): Promise<PtyCable> {
+    // A SIGKILLed socat leaves its link behind; a new one could not create it.
+    rmSync(path, { force: true });
+    const proc = spawn('socat', [`pty,raw,echo=0,link=${path}`, 'STDIO'], { stdio: ['pipe', 'pipe', 'ignore'] });
+    const cable = new PtyCable(path, proc);
+    proc.stdout!.setEncoding('latin1');
+    proc.stdout!.on('data', (d: string) => cable.onData(d));
+    proc.stdin!.on('error', () => {});
+    for (let i = 0; i < 500 && !existsSync(path); i++) {
+      if (proc.exitCode !== null) throw new Error(`socat exited with ${proc.exitCode}`);
+      await new Promise((r) => setTimeout(r, 10));
+    }
+    if (!existsSync(path)) throw new Error('socat did not create its pty link');
+    return cable;
+  }
+
+  onCommand(fn: (cmd: string) => void): void {
+    this.commandFn = fn;
+  }
+
+  /** Writes bytes, waiting while the pty (and so the reader) pushes back. */
+  async write(text: string | Buffer): Promise<void> {
+    const stdin = this.proc.stdin!;
+    if (!stdin.writable) return;
+    if (!stdin.write(text)) await Promise.race([once(stdin, 'drain'), once(this.proc, 'exit')]);
+  }
+
+  get alive(): boolean {
+    return this.proc.exitCode === null && this.proc.signalCode === null;
+  }
+
+  async kill(signal: NodeJS.Signals = 'SIGKILL'): Promise<void> {
+    if (!this.alive) return;
+    const gone = once(this.proc, 'exit');
+    this.proc.kill(signal);
+    await gone;
+  }
+
+  private onData(d: string): void {
+    this.buffered += d;
+    let lf: number;
+    while ((lf = this.buffered.indexOf('\n')) >= 0) {
+      const cmd = this.buffered.slice(0, lf);
+      this.buffered = this.buffered.slice(lf + 1);
+      this.commandFn?.(cmd);
+    }
+  }
+}
