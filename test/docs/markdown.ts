@@ -8,12 +8,15 @@ export interface FencedBlock {
   readonly line: number;
 }
 
+/** An opening fence: up to 4 spaces of indent, 3 or more backticks, an info word without backticks. */
+const FENCE = /^( {0,4})(`{3,})\s*([^`\s]*)\s*$/;
+
 /** The fenced (```) blocks of a Markdown text, in order; a fence may be indented (inside a list item). */
 export function fencedBlocks(md: string): FencedBlock[] {
   const out: FencedBlock[] = [];
   const lines = md.split('\n');
   for (let i = 0; i < lines.length; i++) {
-    const open = /^( {0,4})(`{3,})\s*([^`\s]*)\s*$/.exec(lines[i]!);
+    const open = FENCE.exec(lines[i]!);
     if (!open) continue;
     const indent = open[1]!.length;
     const body: string[] = [];
@@ -31,13 +34,13 @@ function prose(md: string, keepInlineCode: boolean): string {
   return md
     .split('\n')
     .map((l) => {
-      const m = /^ {0,4}(`{3,})/.exec(l);
+      const m = FENCE.exec(l);
       if (fence !== null) {
         if (l.trimStart().startsWith(fence)) fence = null;
         return '';
       }
       if (m) {
-        fence = m[1]!;
+        fence = m[2]!;
         return '';
       }
       return keepInlineCode ? l : l.replace(/`[^`]*`/g, '');
