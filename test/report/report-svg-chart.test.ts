@@ -36,7 +36,7 @@ describe('chart', () => {
   it('is well-formed, titled (escaped) and has one clip path per panel with ids from the chart id', () => {
     expect(XMLValidator.validate(svg)).toBe(true);
     expect(svg).toContain('<title>T &amp; &lt;x&gt;</title>');
-    expect(svg.match(/<clipPath id="c1-clip\d"/g)).toEqual(['<clipPath id="c1-clip0"', '<clipPath id="c1-clip1"']);
+    expect(svg.match(/<clipPath id="c1-clip\d+m?"/g)).toEqual(['<clipPath id="c1-clip0"', '<clipPath id="c1-clip0m"', '<clipPath id="c1-clip1"', '<clipPath id="c1-clip1m"']);
   });
 
   it('maps data onto the plot area: x from the left margin to the right one, y upwards', () => {

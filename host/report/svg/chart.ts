@@ -164,7 +164,11 @@ export function renderChart(spec: ChartSpec): string {
     const clip = `${spec.id}-clip${i}`;
     const last = i === spec.panels.length - 1;
     const g: string[] = [];
-    g.push(`<clipPath id="${esc(clip)}"><rect x="${px(M.left)}" y="${px(top)}" width="${px(width - M.left - M.right)}" height="${px(h)}"/></clipPath>`);
+    const pw = width - M.left - M.right;
+    // Lines and bands stop at the frame; markers may overhang it by their radius, so a point on the edge of
+    // the domain is drawn whole rather than cut in half.
+    g.push(`<clipPath id="${esc(clip)}"><rect x="${px(M.left)}" y="${px(top)}" width="${px(pw)}" height="${px(h)}"/></clipPath>`);
+    g.push(`<clipPath id="${esc(clip)}m"><rect x="${px(M.left - 4)}" y="${px(top - 4)}" width="${px(pw + 8)}" height="${px(h + 8)}"/></clipPath>`);
     g.push(`<rect class="plot-bg" x="${px(M.left)}" y="${px(top)}" width="${px(width - M.left - M.right)}" height="${px(h)}"/>`);
     for (const t of sy.ticks()) {
       const y = sy.map(t.value);
@@ -176,7 +180,8 @@ export function renderChart(spec: ChartSpec): string {
       g.push(segment([x, top], [x, top + h], 'grid'));
       if (last) g.push(label(x, top + h + 15, t.label, { cls: 'tick', anchor: 'middle' }));
     }
-    g.push(`<g clip-path="url(#${esc(clip)})">${p.series.map((s) => drawSeries(s, sx, sy)).join('')}</g>`);
+    // Series keep their order (later ones on top), each under the clip that suits its kind.
+    for (const s of p.series) g.push(`<g clip-path="url(#${esc(clip)}${s.kind === 'points' ? 'm' : ''})">${drawSeries(s, sx, sy)}</g>`);
     g.push(`<rect class="frame" x="${px(M.left)}" y="${px(top)}" width="${px(width - M.left - M.right)}" height="${px(h)}"/>`);
     g.push(label(14, top + h / 2, p.yLabel, { cls: 'axt', anchor: 'middle', rotate: -90 }));
     if (last) g.push(label((M.left + width - M.right) / 2, top + h + 36, spec.xLabel, { cls: 'axt', anchor: 'middle' }));
