@@ -16,9 +16,11 @@ static volatile uint8_t ring_tail;
 static volatile uint32_t overflows;
 static volatile uint32_t lost;
 static uint8_t ch1_level;
+// TCNT1 as read by the first instructions of the INT0 vector.
+static volatile uint16_t ch1_stamp;
 volatile uint8_t capture_alarm_flag;
 
-static inline void ring_push(uint8_t flags, uint16_t lo, uint32_t hi) {
+static inline __attribute__((always_inline)) void ring_push(uint8_t flags, uint16_t lo, uint32_t hi) {
   uint8_t h = ring_head;
   uint8_t next = (uint8_t)((h + 1) & RING_MASK);
   if (next == ring_tail) {
@@ -34,7 +36,7 @@ static inline void ring_push(uint8_t flags, uint16_t lo, uint32_t hi) {
 // Upper 32 bits for a 16-bit Timer1 value taken with interrupts off. TOV1 still pending means the
 // overflow ISR has not counted it yet; a small value was then taken after that overflow, a large
 // one before it (valid while the value is read within 32768 ticks of being latched).
-static inline uint32_t upper_bits(uint16_t lo) {
+static inline __attribute__((always_inline)) uint32_t upper_bits(uint16_t lo) {
   uint32_t hi = overflows;
   if ((TIFR1 & _BV(TOV1)) && !(lo & 0x8000)) hi++;
   return hi;
@@ -136,8 +138,23 @@ ISR(TIMER1_CAPT_vect) {
   }
 }
 
-ISR(INT0_vect) {
-  uint16_t lo = TCNT1;
+// Ch1 latency is the time to the TCNT1 read, so the vector reads it first, before the C prologue saves
+// registers (push, lds and sts leave SREG alone), then jumps to the ordinary handler below.
+void __vector_int0_body(void) __attribute__((signal, used));
+ISR(INT0_vect, ISR_NAKED) {
+  __asm__ __volatile__(
+      "push r24\n\t"
+      "lds r24, %[tcnt_lo]\n\t"  // reading the low byte latches the high byte
+      "sts %[stamp], r24\n\t"
+      "lds r24, %[tcnt_hi]\n\t"
+      "sts %[stamp]+1, r24\n\t"
+      "pop r24\n\t"
+      "jmp __vector_int0_body\n\t" ::[tcnt_lo] "i"(_SFR_MEM_ADDR(TCNT1L)),
+      [tcnt_hi] "i"(_SFR_MEM_ADDR(TCNT1H)), [stamp] "i"(&ch1_stamp));
+}
+
+void __vector_int0_body(void) {
+  uint16_t lo = ch1_stamp;
   uint8_t level = CH1_PIN & _BV(CH1_BIT);
   uint32_t hi = upper_bits(lo);
   if (level != ch1_level) {

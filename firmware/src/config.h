@@ -5,7 +5,9 @@
 #include "board.h"
 
 // Firmware version in the hello line: at most 5 characters, so the hello line fits 80 bytes at seq ffff.
+#ifndef FW_VERSION
 #define FW_VERSION "0.1.0"
+#endif
 
 // Serial rate. 250000 is exact at 16 MHz (UBRR = 3, U2X = 0), 115200 is 2.1 % off; see hardware-notes/firmware.md.
 #ifndef BAUD

@@ -31,6 +31,9 @@ void system_early_init(void) {
 uint8_t system_reset_cause(void) { return saved_reset_cause; }
 
 void system_power_down_unused(void) {
+  // INT0 in any-change mode before the pins are touched: the reset default (low level) makes simavr 1.6
+  // poll the pin every cycle while it is low, which stops the emulator from skipping idle time.
+  EICRA = _BV(ISC00);
   ACSR = _BV(ACD);  // analog comparator off
   ADCSRA = 0;
   power_adc_disable();

@@ -101,10 +101,14 @@ static void install_tccr1b_watch(void) {
 // ---- schedule of input changes ---------------------------------------------------------------------
 // The input is driven from outside: registering the level as the port's "external" value makes simavr
 // keep it when the firmware writes PORTx (pull-ups), instead of pulling the pin high.
-static void drive(int ch, int level) {
+static void set_external(int ch, int level) {
   avr_ioport_external_t e = {.name = ch ? 'D' : 'B', .mask = ch ? 1u << 2 : 1u, .value = 0};
   e.value = level ? e.mask : 0;
   avr_ioctl(avr, AVR_IOCTL_IOPORT_SET_EXTERNAL(e.name), &e);
+}
+
+static void drive(int ch, int level) {
+  set_external(ch, level);
   avr_raise_irq(pin_irq[ch], (uint32_t)level);
 }
 
@@ -283,13 +287,20 @@ int main(int argc, char **argv) {
 
   const char *schedule_path = arg_value(argc, argv, "--schedule");
   if (schedule_path) read_schedule(schedule_path);
-  // Both inputs start low; changes at cycle 0 set other initial levels before the firmware runs.
-  drive(0, 0);
-  drive(1, 0);
+  // Both inputs start low; changes at cycle 0 set other initial levels before the firmware runs. A low
+  // level is only registered, not raised: the pin IRQ already reads 0, and raising it while INT0 is in its
+  // reset (low-level) mode starts a per-cycle poll in simavr 1.6 that never ends and stops idle skipping.
+  int initial[2] = {0, 0};
   while (next_change < n_changes && changes[next_change].cycle == 0) {
     change_t *c = &changes[next_change++];
-    drive(c->ch, c->level);
+    initial[c->ch] = c->level;
     fprintf(applied_out, "0 %d %d\n", c->ch, c->level);
+  }
+  for (int ch = 0; ch < 2; ch++) {
+    if (initial[ch])
+      drive(ch, 1);
+    else
+      set_external(ch, 0);
   }
   if (next_change < n_changes) avr_cycle_timer_register(avr, changes[next_change].cycle, apply_changes, NULL);
   const char *commands_path = arg_value(argc, argv, "--commands");
@@ -310,6 +321,19 @@ int main(int argc, char **argv) {
           "\"ubrr\":%u,\"u2x\":%d,\"bytesOut\":%lu,\"changesApplied\":%zu}\n",
           HZ, (uint64_t)avr->cycle, timer1_start == UINT64_MAX ? (int64_t)-1 : (int64_t)timer1_start,
           tifr_fix ? "true" : "false", state, ubrr, (avr->data[ADDR_UCSR0A] >> 1) & 1, bytes_out, next_change);
+  // Final values of the registers that say which interrupt sources and peripherals the firmware left on.
+  static const struct {
+    const char *name;
+    unsigned addr;
+  } regs[] = {{"EIMSK", 0x3d},  {"EECR", 0x3f},   {"SPCR", 0x4c},   {"ACSR", 0x50},  {"SMCR", 0x53},
+              {"SPMCSR", 0x57}, {"WDTCSR", 0x60}, {"PCICR", 0x68},  {"PRR", 0x64},   {"TIMSK0", 0x6e},
+              {"TIMSK1", 0x6f}, {"TIMSK2", 0x70}, {"ADCSRA", 0x7a}, {"TCCR1B", 0x81}, {"TWCR", 0xbc},
+              {"UCSR0B", 0xc1}};
+  fseek(info, -2, SEEK_CUR);  // reopen the JSON object: drop "}\n"
+  fprintf(info, ",\"registers\":{");
+  for (size_t i = 0; i < sizeof regs / sizeof regs[0]; i++)
+    fprintf(info, "%s\"%s\":%u", i ? "," : "", regs[i].name, avr->data[regs[i].addr]);
+  fprintf(info, "}}\n");
   fclose(info);
   fclose(uart_out);
   fclose(applied_out);

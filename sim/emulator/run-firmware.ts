@@ -51,7 +51,7 @@ export interface FirmwareRun {
   readonly lines: string[];
   /** Cycle at which each line's LF left the UART, index-aligned with `lines`. */
   readonly lineCycles: number[];
-  /** Every change the harness applied, in order, including the initial levels at cycle 0. */
+  /** Every change the harness applied, in order (changes scheduled at cycle 0 included). */
   readonly applied: AppliedChange[];
   /** Cycles per second of the emulated part (16e6). */
   readonly hz: number;
@@ -62,6 +62,8 @@ export interface FirmwareRun {
   /** UART divisor and double-speed bit the firmware programmed (baud = hz / ((u2x ? 8 : 16)(ubrr + 1))). */
   readonly ubrr: number;
   readonly u2x: 0 | 1;
+  /** Final values of interrupt-enable and peripheral registers (EIMSK, TIMSK0..2, PRR, WDTCSR, ...). */
+  readonly registers: Readonly<Record<string, number>>;
 }
 
 interface HarnessInfo {
@@ -70,6 +72,7 @@ interface HarnessInfo {
   timer1Start: number;
   ubrr: number;
   u2x: 0 | 1;
+  registers: Record<string, number>;
 }
 
 function toCycle(t_s: number): number {
@@ -133,6 +136,7 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
       cycles: info.cycles,
       ubrr: info.ubrr,
       u2x: info.u2x,
+      registers: info.registers,
     };
   } finally {
     await rm(dir, { recursive: true, force: true });
