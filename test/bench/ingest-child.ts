@@ -1,10 +1,11 @@
-// Child process of the ingest benchmark: reads a journal in one mode and prints {lines, wallS, maxRssMiB} as JSON.
+// Child process of the ingest benchmark: reads a journal in one mode and prints {lines, wallS, maxRssMiB} as JSON
+// (lines is counted in read mode only; the analyse mode must not pay for counting).
 //   read     the journal read line by line, nothing done with the lines (the pure I/O baseline)
 //   analyze  every entry pushed through the run pipeline, then the full result computed
 import { createReadStream } from 'node:fs';
 import { createInterface } from 'node:readline';
 import { performance } from 'node:perf_hooks';
-import { analyzeJournal } from './analysis-part.ts';
+import { analyzeJournalFile } from '../../host/pipeline/analyze-entries.ts';
 
 const [mode, file] = process.argv.slice(2);
 if ((mode !== 'read' && mode !== 'analyze') || !file) {
@@ -20,9 +21,8 @@ if (mode === 'read') {
   const rl = createInterface({ input: createReadStream(file, { encoding: 'latin1' }), crlfDelay: Infinity });
   for await (const _line of rl) lines++;
 } else {
-  const r = await analyzeJournal(file);
-  lines = r.entries;
-  summary = r.summary;
+  const { result } = await analyzeJournalFile(file);
+  summary = { T0_s: result.T0_s, g_m_s2: result.g_m_s2, passes: result.passes, periods: result.periods };
 }
 const wallS = (performance.now() - t0) / 1000;
 process.stdout.write(`${JSON.stringify({ mode, lines, wallS, maxRssMiB: process.resourceUsage().maxRSS / 1024, summary })}\n`);

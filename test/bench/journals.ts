@@ -1,76 +1,81 @@
-// Simulated journals for the benchmarks: written once per run through the simulator's streaming output.
-import { createWriteStream } from 'node:fs';
+// Simulated journals for the benchmarks, cached between runs under the OS temp folder.
+//
+// A 7-day journal takes the simulator longer than a benchmark may run, so files are kept, keyed by a hash of
+// the scenario and of every simulator source file: any change to the simulator makes a fresh file.
+import { createHash } from 'node:crypto';
+import { createWriteStream, existsSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
 import { once } from 'node:events';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { performance } from 'node:perf_hooks';
-import { importPart, type BenchContext } from './benchmark.ts';
-
-/** The parts of sim/index.ts the benchmarks use. */
-export interface SimApi {
-  loadScenario(nameOrFile: string): unknown;
-  simulateJournal(scenario: unknown, opts: Record<string, unknown>): { lines: Iterable<string> | AsyncIterable<string>; truth: unknown };
-}
-
-export async function loadSim(): Promise<SimApi> {
-  return importPart<SimApi>('sim/index.ts', ['loadScenario', 'simulateJournal']);
-}
+import { loadScenario, simulateJournal } from '../../sim/index.ts';
+import { REPO_ROOT, type BenchContext } from './benchmark.ts';
 
 export interface WrittenJournal {
   readonly file: string;
   readonly lines: number;
   readonly bytes: number;
-  /** Wall time to simulate and write it. */
-  readonly wallS: number;
-  readonly simulatedS: number;
-  readonly truth: unknown;
 }
 
-/** Scenario for the ingest and simulator figures: a 1 m (≈ 2 s) pendulum. */
-export const LONG_RUN_SCENARIO = 'bench-day';
+/** Scenario for the ingest figure: a 1 m (≈ 2 s) pendulum that keeps swinging for a week. */
+export const LONG_RUN_SCENARIO = join(REPO_ROOT, 'test', 'bench', 'scenarios', 'bench-day.json');
 
-const cache = new Map<string, Promise<WrittenJournal>>();
+const CACHE_DIR = join(tmpdir(), 'halfswing-bench-cache');
 
-/** Simulates `durationS` of a scenario into a journal file in the run's scratch folder (memoised per run). */
-export function simulatedJournal(ctx: BenchContext, scenarioName: string, durationS: number, seed = 1): Promise<WrittenJournal> {
-  const key = `${scenarioName}-${durationS}-${seed}`;
-  let p = cache.get(key);
-  if (!p) {
-    p = writeJournal(ctx, scenarioName, durationS, seed, join(ctx.workDir, `${key}.journal`));
-    cache.set(key, p);
-  }
-  return p;
+function simSourceHash(): string {
+  const h = createHash('sha256');
+  const walk = (dir: string): void => {
+    for (const name of readdirSync(dir).sort()) {
+      const p = join(dir, name);
+      if (statSync(p).isDirectory()) {
+        if (name !== 'build' && name !== 'emulator') walk(p);
+      } else if (name.endsWith('.ts') || name.endsWith('.json')) {
+        h.update(name).update(readFileSync(p));
+      }
+    }
+  };
+  walk(join(REPO_ROOT, 'sim'));
+  return h.digest('hex');
 }
 
-async function writeJournal(ctx: BenchContext, scenarioName: string, durationS: number, seed: number, file: string): Promise<WrittenJournal> {
-  const sim = await loadSim();
-  const scenario = sim.loadScenario(scenarioName);
-  const t0 = performance.now();
-  const { lines, truth } = sim.simulateJournal(scenario, { seed, durationS });
-  const out = createWriteStream(file, { encoding: 'latin1' });
+/** Returns a journal of `durationS` of a scenario, simulating it only when no cached copy matches. */
+export async function simulatedJournal(ctx: BenchContext, scenarioFile: string, durationS: number, seed = 1): Promise<WrittenJournal> {
+  const key = createHash('sha256').update(simSourceHash()).update(readFileSync(scenarioFile)).update(`${durationS} ${seed}`).digest('hex').slice(0, 16);
+  mkdirSync(CACHE_DIR, { recursive: true });
+  const file = join(CACHE_DIR, `${key}.journal`);
+  const meta = `${file}.json`;
+  if (existsSync(file) && existsSync(meta)) return JSON.parse(readFileSync(meta, 'utf8')) as WrittenJournal;
+  ctx.progress(`simulating ${durationS} s into ${file} (cached for later runs)`);
+  const { lines } = simulateJournal(loadScenario(scenarioFile), { seed, durationS });
+  const tmp = `${file}.${process.pid}.tmp`;
+  const out = createWriteStream(tmp, { encoding: 'latin1' });
   let n = 0;
   let bytes = 0;
   let chunk: string[] = [];
-  let nextReport = t0 + 5000;
+  let nextReport = Date.now() + 5000;
   const flush = async (): Promise<void> => {
     const text = `${chunk.join('\n')}\n`;
     chunk = [];
     bytes += text.length;
     if (!out.write(text)) await once(out, 'drain');
   };
-  for await (const line of lines) {
+  for (const line of lines) {
     chunk.push(line);
     n++;
     if (chunk.length >= 4096) {
       await flush();
-      const now = performance.now();
-      if (now > nextReport) {
-        ctx.progress(`simulating ${scenarioName} ${durationS} s: ${n} lines so far`);
-        nextReport = now + 5000;
+      if (Date.now() > nextReport) {
+        ctx.progress(`simulating: ${n} lines so far`);
+        nextReport = Date.now() + 5000;
       }
     }
   }
   if (chunk.length > 0) await flush();
   out.end();
   await once(out, 'finish');
-  return { file, lines: n, bytes, wallS: (performance.now() - t0) / 1000, simulatedS: durationS, truth };
+  renameSync(tmp, file);
+  const written: WrittenJournal = { file, lines: n, bytes };
+  const metaTmp = `${meta}.${process.pid}.tmp`;
+  writeFileSync(metaTmp, JSON.stringify(written));
+  renameSync(metaTmp, meta);
+  return written;
 }

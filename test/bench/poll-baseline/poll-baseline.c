@@ -9,13 +9,9 @@
 #include <avr/io.h>
 #include <stdint.h>
 
-#ifndef BAUD
-#error "build with -DBAUD=<the product firmware's baud>"
-#endif
-
-#ifdef SIMAVR_TAG
-#include <avr/avr_mcu_section.h>
-AVR_MCU(F_CPU, "atmega328p");
+// The UART is set up exactly as the product firmware sets it (the benchmark reads its UBRR0 and U2X0).
+#if !defined(UBRR_VALUE) || !defined(USE_U2X)
+#error "build with -DUBRR_VALUE=<n> -DUSE_U2X=<0|1>, the product firmware's UART settings"
 #endif
 
 static volatile uint32_t timer0_overflows;
@@ -86,11 +82,9 @@ static void edge_line(uint8_t ch, uint8_t level, uint32_t us) {
 }
 
 static void uart_init(void) {
-  // Same rounding as avr-libc's <util/setbaud.h>, written out so any exact baud builds.
-  uint16_t ubrr = (uint16_t)((F_CPU + 4UL * BAUD) / (8UL * BAUD) - 1UL);
-  UBRR0H = (uint8_t)(ubrr >> 8);
-  UBRR0L = (uint8_t)ubrr;
-  UCSR0A = _BV(U2X0);
+  UBRR0H = (uint8_t)(UBRR_VALUE >> 8);
+  UBRR0L = (uint8_t)UBRR_VALUE;
+  UCSR0A = USE_U2X ? _BV(U2X0) : 0;
   UCSR0B = _BV(TXEN0);
   UCSR0C = _BV(UCSZ01) | _BV(UCSZ00);
 }
