@@ -24,16 +24,27 @@ export function fixed(v: number, d: number): string {
   return signed(/^-0(\.0*)?$/.test(s) ? s.slice(1) : s);
 }
 
+// From a million up, digits stop being readable: such numbers (with such an uncertainty) get a shared power of
+// ten ("1.24e18").
+const BIG = 1e6;
+
 /** Value ± uncertainty: the uncertainty to two significant figures (GUM 7.2.6), the value to the same place. */
 export function valueU(v: number, u: number | null): { value: string; u: string | null } {
   if (u === null || !(u > 0) || !Number.isFinite(u)) return { value: sig(v, 6), u: null };
+  if (u >= BIG) {
+    const e = Math.floor(Math.log10(Math.max(Math.abs(v), u)));
+    const k = 10 ** e;
+    const d = Math.max(0, decimalsFor(u / k, 2));
+    return { value: `${fixed(v / k, d)}e${e}`, u: `${fixed(u / k, d)}e${e}` };
+  }
   const d = decimalsFor(u, 2);
   return { value: place(v, d), u: place(u, d) };
 }
 
-/** `v` to `n` significant figures, plain decimal notation. */
+/** `v` to `n` significant figures: plain decimals, or m·10^e as "1.24e18" from a million up. */
 export function sig(v: number, n: number): string {
   if (v === 0 || !Number.isFinite(v)) return Number.isFinite(v) ? '0' : '—';
+  if (Math.abs(v) >= BIG) return signed(v.toExponential(n - 1).replace('e+', 'e'));
   const d = Math.max(0, n - 1 - Math.floor(Math.log10(Math.abs(v))));
   return fixed(v, d);
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { decimalsFor, duration, sig, valueU } from '../../host/report/format.ts';
+import { parseShown } from './report-numbers.ts';
 
 const num = (s: string): number => Number(s.replace('\u2212', '-'));
 
@@ -14,11 +15,13 @@ describe('value ± uncertainty', () => {
     expect(valueU(-1234.5678, 0.81)).toEqual({ value: '\u22121234.57', u: '0.81' });
     expect(valueU(2.0060713, 3.1e-6)).toEqual({ value: '2.0060713', u: '0.0000031' });
     expect(valueU(12345.6, 123)).toEqual({ value: '12350', u: '120' });
+    expect(valueU(1.2401e18, 2.5e17)).toEqual({ value: '1.24e18', u: '0.25e18' });
+    expect(sig(793949040754908288, 3)).toBe('7.94e17');
   });
 
   it('for any value and uncertainty, the shown value is within half a unit of its last place and u has two figures', () => {
     fc.assert(
-      fc.property(fc.double({ min: -1e4, max: 1e4, noNaN: true }), fc.double({ min: 1e-9, max: 1e3, noNaN: true }), (v, u) => {
+      fc.property(fc.double({ min: -1e5, max: 1e5, noNaN: true }), fc.double({ min: 1e-9, max: 1e5, noNaN: true }), (v, u) => {
         const f = valueU(v, u);
         const d = decimalsFor(u);
         const ulp = 10 ** -d; // may exceed 1 when u is large (rounding to tens)
@@ -28,6 +31,18 @@ describe('value ± uncertainty', () => {
         const digits = f.u!.replace(/^[0.]+/, '').replace('.', '');
         expect(digits.replace(/0+$/, '').length).toBeLessThanOrEqual(2);
         expect(digits.length).toBeGreaterThanOrEqual(2);
+      }),
+    );
+  });
+
+  it('from a million up, value and uncertainty share a power of ten and still round from the input', () => {
+    fc.assert(
+      fc.property(fc.double({ min: -1e20, max: 1e20, noNaN: true }), fc.double({ min: 1e6, max: 1e20, noNaN: true }), (v, u) => {
+        const f = valueU(v, u);
+        const a = parseShown(f.value);
+        const b = parseShown(f.u!);
+        expect(Math.abs(a.value - v)).toBeLessThanOrEqual(a.halfUlp * (1 + 1e-9) + Math.abs(v) * 1e-15);
+        expect(Math.abs(b.value - u)).toBeLessThanOrEqual(b.halfUlp * (1 + 1e-9) + u * 1e-15);
       }),
     );
   });

@@ -15,12 +15,14 @@ export function shownByKey(html: string): Map<string, string[]> {
 
 /** A shown number (typographic minus allowed) and the half-unit of its last shown digit. */
 export function parseShown(text: string): { value: number; halfUlp: number } {
-  const t = text.trim().replace('\u2212', '-');
-  expect(t, `"${text}" is a plain decimal number`).toMatch(/^-?\d+(\.\d+)?$/);
+  const full = text.trim().replace('\u2212', '-');
+  expect(full, `"${text}" is a decimal number, with a power of ten from a million up`).toMatch(/^-?\d+(\.\d+)?(e\d+)?$/);
+  const [t, exp] = full.split('e') as [string, string | undefined];
+  const e = exp === undefined ? 0 : Number(exp);
   const dec = t.includes('.') ? t.length - t.indexOf('.') - 1 : 0;
   // Integers that end in zeros may be rounded to tens or hundreds (an uncertainty of 120 shows 12 345 as 12350).
-  const zeros = dec === 0 ? (/(0*)$/.exec(t)![1]!.length) : 0;
-  return { value: Number(t), halfUlp: 0.5 * 10 ** (zeros - dec) };
+  const zeros = dec === 0 && exp === undefined ? /(0*)$/.exec(t)![1]!.length : 0;
+  return { value: Number(full), halfUlp: 0.5 * 10 ** (zeros - dec + e) };
 }
 
 /** Asserts that the report shows `key` once or more and each shown value rounds from `expected`. */
