@@ -16,7 +16,7 @@ export interface DeviceLine {
 
 /** Reset-cause bits of the AVR MCUSR register (PORF, EXTRF, BORF, WDRF; ATmega328P datasheet, MCUSR). */
 const RESET_CAUSE: Readonly<Record<string, number>> = { power: 1, external: 2, brownout: 4, watchdog: 8 };
-/** Longest host command the model accepts, in characters (without the LF). */
+/** Longest host command, in characters without the LF (COMMAND_MAX_LINE in firmware/src/command.h). */
 export const MAX_COMMAND_CHARS = 16;
 const TICKS_MAX = 2 ** 48;
 /** Time from receiving a command to its reply entering the UART. */
@@ -109,29 +109,25 @@ export class DeviceModel {
     this.queue(Math.max(t + REPLY_LATENCY_S, this.lastAt), this.reply(cmdLine, t));
   }
 
+  /** The firmware's grammar (firmware/src/command.c): numbers of any length saturate, so huge values are `range`. */
   private reply(text: string, t: number): Body {
     const c = text[0]!;
     const cmd = /^[\x21-\x7e]$/.test(c) ? c : '-';
     const err = (reason: string): Body => ({ kind: 'R', ok: false, cmd, reason, fields: [] });
     if (text.length > MAX_COMMAND_CHARS) return err('too-long');
     if (c === '?') return text === '?' ? this.hello() : err('syntax');
+    if (c !== 'P' && c !== 'C') return err('unknown');
+    const m = (c === 'P' ? /^P ([0-9]+)$/ : /^C ([0-9a-fA-F]+)$/).exec(text);
+    if (!m) return err('syntax');
+    const v = parseInt(m[1]!, c === 'P' ? 10 : 16);
     if (c === 'P') {
-      const m = /^P ([0-9]{1,5})$/.exec(text);
-      if (!m) return err('syntax');
-      const ms = Number(m[1]);
-      if (ms < 100 || ms > 60000) return err('range');
-      this.setHeartbeat(ms, this.clock!.ticksAt(t));
-      return { kind: 'R', ok: true, cmd, fields: [`ms=${ms}`] };
+      if (v < 100 || v > 60000) return err('range');
+      this.setHeartbeat(v, this.clock!.ticksAt(t));
+      return { kind: 'R', ok: true, cmd, fields: [`ms=${v}`] };
     }
-    if (c === 'C') {
-      const m = /^C ([0-9a-fA-F]{1,2})$/.exec(text);
-      if (!m) return err('syntax');
-      const mask = parseInt(m[1]!, 16);
-      if (mask >= 1 << this.cfg.channels) return err('range');
-      this.mask = mask;
-      return { kind: 'R', ok: true, cmd, fields: [`mask=${mask.toString(16)}`] };
-    }
-    return err('unknown');
+    if (v >= 1 << this.cfg.channels) return err('range');
+    this.mask = v;
+    return { kind: 'R', ok: true, cmd, fields: [`mask=${v.toString(16)}`] };
   }
 
   private hello(): Body {

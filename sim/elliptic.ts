@@ -76,16 +76,10 @@ export function jacobi(u: number, m: number): { am: number; sn: number; cn: numb
     n++;
   }
   let phi = 2 ** n * a[n]! * u;
-  let phiPrev = phi;
-  for (let j = n; j > 0; j--) {
-    phiPrev = phi;
-    phi = (phi + Math.asin((c[j]! / a[j]!) * Math.sin(phi))) / 2;
-  }
+  for (let j = n; j > 0; j--) phi = (phi + Math.asin((c[j]! / a[j]!) * Math.sin(phi))) / 2;
   const sn = Math.sin(phi);
-  const cn = Math.cos(phi);
-  // dn = cos φ0 / cos(φ1 − φ0) (DLMF 22.20.5).
-  const dn = n > 0 ? cn / Math.cos(phiPrev - phi) : 1;
-  return { am: phi, sn, cn, dn };
+  // dn from DLMF 22.6.1 rather than cos φ0 / cos(φ1 − φ0), which loses digits as φ0 → π/2.
+  return { am: phi, sn, cn: Math.cos(phi), dn: Math.sqrt(1 - m * sn * sn) };
 }
 
 /** The exact undamped plane pendulum θ'' = −ω0² sin θ released from rest at θ0 (0 < θ0 < π) at t = 0. */

@@ -28,8 +28,9 @@ export function inZone(setup: SwingSetup, theta: number): boolean {
 export function* bobEvents(setup: SwingSetup, tEnd: number): Generator<BobEvent> {
   const { ode, omega0 } = setup;
   const series = new TaylorSeries(ode);
-  // At most one turning point per step, and θ monotonic within it (steps are cut at turning points).
-  const hMax = (2 * Math.PI) / omega0 / 16;
+  // Steps under half a period hold at most one turning point, so a sign change of θ' at the step's end finds
+  // it; cutting there keeps θ monotonic within every step, so endpoint signs find every zone crossing.
+  const hMax = (2 * Math.PI) / omega0 / 8;
   let t = 0;
   let theta = setup.theta0;
   let vel = 0;

@@ -49,9 +49,11 @@ export class TaylorSeries {
       }
       s[k1] = ss / k1;
       c[k1] = -cc / k1;
-      let qq = 0;
-      for (let j = 0; j <= k1; j++) qq += v[j]! * v[k1 - j]!;
-      q[k1] = qq;
+      if (b2 !== 0) {
+        let qq = 0;
+        for (let j = 0; j <= k1; j++) qq += v[j]! * v[k1 - j]!;
+        q[k1] = qq;
+      }
     }
   }
 

@@ -109,7 +109,7 @@ export const command: Command = {
     q: { type: 'string', arg: 'Q', description: 'linear (viscous) damping as small-amplitude Q' },
     quadratic: { type: 'string', arg: 'C', description: 'quadratic (air) damping c in −c|θ\'|θ\' (1/rad)' },
     coulomb: { type: 'string', arg: 'RAD', description: 'pivot friction θ_f (rad; amplitude falls 4θ_f per cycle)' },
-    ppm: { type: 'string', arg: 'PPM', description: 'device clock frequency error (ppm, + runs fast)' },
+    ppm: { type: 'string', arg: 'PPM', description: 'device clock frequency error (ppm, + runs fast; write negatives as --ppm=-200)' },
     drift: { type: 'string', arg: 'PPM/H', description: 'device clock drift (ppm per hour)' },
     'offset-mm': { type: 'string', arg: 'MM', description: 'beam offset from the lowest point (mm, + toward the release side)' },
     start: { type: 'string', arg: 'ISO', description: 'the journal\'s #start time (ISO-8601 UTC)' },
