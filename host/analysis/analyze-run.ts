@@ -94,6 +94,15 @@ export function analyzeRun(d: RunData): AnalysisResult {
     prev2 = prev1;
     prev1 = c;
   }
+  // A swing that barely clears the beam (transit over a third of the half-period, amplitude below ~2φb) has a
+  // mid-transit time that moves with the amplitude and the gate offset far more than a period's noise: such
+  // passes give amplitudes but no periods and no gate offset.
+  const medHalf = median(half);
+  const slow = new Uint8Array(n);
+  let slowCount = 0;
+  for (let c = 0; c < n; c++) if (p.index[c]! >= 0 && p.transit[c]! > medHalf / 3) (slow[c] = 1), slowCount++;
+  for (let c = 0; c < n; c++) if (Number.isFinite(period[c]!) && (slow[c] || slow[periodStart[c]!])) period[c] = NaN;
+  if (slowCount > 0) warnings.push(`${slowCount} pass(es) barely cleared the beam (transit over a third of the half-period): used for amplitudes only`);
   const pIdx: number[] = [];
   for (let c = 0; c < n; c++) if (Number.isFinite(period[c]!)) pIdx.push(c);
   const P = Float64Array.from(pIdx, (c) => period[c]!);
@@ -151,7 +160,10 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const ampA: number[] = [];
   for (let c = 0; c < n; c++) if (Number.isFinite(amp[c]!)) ampT.push(p.t[c]!), ampA.push(amp[c]!);
   if (rig && T0 !== null && validCount > 0 && ampA.length < validCount)
-    warnings.push(`${validCount - ampA.length} pass(es) had a transit no amplitude explains (longer than a swing that just clears the beam: check flag_width_m and length_m)`);
+    warnings.push(
+      `${validCount - ampA.length} pass(es) had a transit longer than a swing that just clears the beam would give: no amplitude for them` +
+        (validCount - ampA.length > 0.05 * validCount ? ' (many: check flag_width_m and length_m)' : ' (the swing was dying out, or a gate offset)'),
+    );
 
   const damping = T0 !== null && ampA.length ? fitDamping(ampT, ampA, T0) : null;
   if (T0 !== null && rig && !damping) warnings.push('too few swings, or too little decay, to fit the damping (needs ≥ 40 passes)');
@@ -164,7 +176,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   else if (law && law.C === null) warnings.push('amplitudes stay below 20°: C is not fitted (θ0⁴ cannot be told from θ0² there)');
 
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
-  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp }, omega0, rig.flag_width_m, rig.length_m) : null;
+  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp.map((v, c) => (slow[c] ? NaN : v)) }, omega0, rig.flag_width_m, rig.length_m) : null;
   if (gate && gate.alignedSegments > 0)
     warnings.push(`gate offset: the side of ${gate.alignedSegments} later segment(s) was matched to the first (passes between segments are not known)`);
 
@@ -239,11 +251,12 @@ export function analyzeRun(d: RunData): AnalysisResult {
   pIdx.forEach((c, k) => (pk[c] = k));
   for (let c = 0; c < n; c++) {
     const st = p.status[c]!;
-    const flags: string[] = st === 0 && p.bridgedBefore[c] === 0 && p.index[c] !== 0 ? NO_FLAGS : [];
+    const flags: string[] = st === 0 && p.bridgedBefore[c] === 0 && p.index[c] !== 0 && !slow[c] ? NO_FLAGS : [];
     if (st === 1) flags.push('rejected:transit');
     else if (st === 2) flags.push('rejected:timing');
     else if (st === 3) flags.push('unsequenced');
     if (p.bridgedBefore[c]! > 0) flags.push(`bridged:${p.bridgedBefore[c]}`);
+    if (slow[c]) flags.push('slow-transit');
     if (p.index[c] === 0) flags.push(`segment-start:${p.segment[c]}`);
     const k = pk[c]!;
     swings.push({

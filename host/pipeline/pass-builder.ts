@@ -3,6 +3,9 @@
 // Order matters: an unblocked gap shorter than `bounceS` inside a transit is chatter of the detector, so the two
 // blocked pieces merge first; only then is a blocked interval shorter than `glitchS` dropped as a glitch. A
 // blocked interval is final once the next block starts later than the bounce gap (or time has moved on past it).
+// Each transition is marked by its first edge: chatter right after the unblocking edge (a pulse, then the beam
+// clear again within `chainS`) keeps the end at that first edge. Both transitions then shift alike with chatter,
+// so the midpoint and the transit time stay unbiased.
 // Two block-starts in a row (the end between them was lost) drop the open interval and restart at the later edge,
 // so one lost line costs one pass, never the alignment of the passes after it.
 import { F64Column, I32Column } from './growable.ts';
@@ -30,6 +33,10 @@ interface Interval {
   start: number;
   end: number;
   hostUs: number;
+  /** The first unblocking edge of a chatter chain, while one is open. */
+  firstEnd: number | null;
+  /** The latest unblocking edge (the end itself unless chatter followed it). */
+  lastEdge: number;
 }
 
 /** Builds passes from blocked/unblocked edges of one channel. */
@@ -39,6 +46,7 @@ export class PassBuilder {
   private openStart: number | null = null;
   private openBoot = -1;
   private pending: Interval | null = null;
+  private chainEnd: number | null = null;
   /** True while the beam is blocked (last edge seen was a block start). */
   blocked = false;
 
@@ -47,6 +55,8 @@ export class PassBuilder {
     private readonly ticksPerS: (boot: number) => number,
     private readonly glitchS: number,
     private readonly bounceS: number,
+    /** Chatter ending within this time of the first unblocking edge keeps that edge as the end (s). */
+    private readonly chainS: number,
     /** Called with the index of each pass as it becomes final. */
     private readonly onPass: (index: number) => void = () => {},
   ) {}
@@ -58,19 +68,23 @@ export class PassBuilder {
       this.counts.resyncs++;
       this.openStart = ticks;
       this.openBoot = boot;
+      this.chainEnd = null;
       return;
     }
     const p = this.pending;
-    if (p && p.boot === boot && ticks - p.end < this.bounceS * this.ticksPerS(boot)) {
+    if (p && p.boot === boot && ticks - p.lastEdge < this.bounceS * this.ticksPerS(boot)) {
       this.counts.bounces++;
       this.openStart = p.start;
       this.openBoot = boot;
+      // Chatter after a real transit's end keeps that end; chatter at a block start just extends the block.
+      this.chainEnd = p.firstEnd ?? (p.end - p.start >= this.glitchS * this.ticksPerS(boot) ? p.end : null);
       this.pending = null;
       return;
     }
     this.flush();
     this.openStart = ticks;
     this.openBoot = boot;
+    this.chainEnd = null;
   }
 
   /** A block end at `ticks` of `boot`, received at `hostUs`. */
@@ -81,8 +95,11 @@ export class PassBuilder {
       this.openStart = null;
       return;
     }
-    this.pending = { boot, start: this.openStart, end: ticks, hostUs };
+    const first = this.chainEnd;
+    const chatter = first !== null && ticks - first < this.chainS * this.ticksPerS(boot);
+    this.pending = { boot, start: this.openStart, end: chatter ? first : ticks, hostUs, firstEnd: chatter ? first : null, lastEdge: ticks };
     this.openStart = null;
+    this.chainEnd = null;
   }
 
   /** Lines were lost just before the next record: an open interval can no longer be trusted. */
@@ -95,7 +112,7 @@ export class PassBuilder {
   advance(boot: number, ticks: number): void {
     const p = this.pending;
     // The 50 ms margin allows for edges printed slightly after a heartbeat that preceded them.
-    if (p && (p.boot !== boot || ticks - p.end > (this.bounceS + 0.05) * this.ticksPerS(boot))) this.flush();
+    if (p && (p.boot !== boot || ticks - p.lastEdge > (this.bounceS + 0.05) * this.ticksPerS(boot))) this.flush();
   }
 
   /** A new boot: whatever was open belongs to the old timebase. */
@@ -122,7 +139,7 @@ export class PassBuilder {
   }
 
   /** The pending interval if it would become a pass, without changing state (for a snapshot at end of data). */
-  pendingPass(): Readonly<Interval> | null {
+  pendingPass(): Readonly<Omit<Interval, 'firstEnd' | 'lastEdge'>> | null {
     const p = this.pending;
     return p && p.end - p.start >= this.glitchS * this.ticksPerS(p.boot) ? p : null;
   }

@@ -26,7 +26,7 @@ export interface PipelineOptions {
   readonly clock?: ClockOption;
   /** Channel of a 1 PPS reference (default 1, ignored when it is the pendulum's channel). */
   readonly ppsChannel?: number;
-  /** Blocked intervals shorter than this are glitches (s); default 2 % of the transit of a 90° swing, 10 µs–1 ms. */
+  /** Blocked intervals shorter than this are glitches (s); default 10 % of the transit of a 90° swing, 20 µs–2 ms. */
   readonly glitchS?: number;
   /** Unblocked gaps shorter than this inside a transit are bounce (s); same default as glitchS. */
   readonly bounceS?: number;
@@ -52,11 +52,18 @@ export interface RunPipeline {
 const TWO48 = 2 ** 48;
 const G_N = 9.80665;
 
-/** Glitch/bounce default: 2 % of the transit time of a 90° swing (the shortest plausible), within 10 µs–1 ms. */
+/**
+ * Transit time of a 90° swing, w/v at the bottom with v = 2√(gL)·sin 45°: shorter than any transit of a real
+ * swing, so a fraction of it separates detector chatter and glitches from transits. Without a rig: 5 ms.
+ */
+export function shortestTransitS(rig: Rig | null): number {
+  if (!rig) return 5e-3;
+  return rig.flag_width_m / (2 * Math.sqrt(G_N * rig.length_m) * Math.SQRT1_2);
+}
+
+/** Glitch/bounce default: 10 % of the shortest plausible transit (see shortestTransitS), within 20 µs–2 ms. */
 export function defaultEdgeThresholdS(rig: Rig | null): number {
-  if (!rig) return 1e-4;
-  const vMax = 2 * Math.sqrt(G_N / rig.length_m) * rig.length_m * Math.SQRT1_2;
-  return Math.min(1e-3, Math.max(1e-5, (0.02 * rig.flag_width_m) / vMax));
+  return Math.min(2e-3, Math.max(2e-5, 0.1 * shortestTransitS(rig)));
 }
 
 /** Creates a pipeline. */
@@ -142,7 +149,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     if (!builder) {
       glitchS = opts.glitchS ?? defaultEdgeThresholdS(rigNow());
       bounceS = opts.bounceS ?? defaultEdgeThresholdS(rigNow());
-      builder = new PassBuilder(ticksPerS, glitchS, bounceS, onPass);
+      builder = new PassBuilder(ticksPerS, glitchS, bounceS, 4 * bounceS, onPass);
     }
     return builder;
   };
