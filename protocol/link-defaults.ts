@@ -1,0 +1,56 @@
+// Host-side constants that must match the firmware build (firmware/src/config.h, board.h, capture.c).
+
+/**
+ * Serial rate of the shipped firmware (firmware/src/config.h `BAUD`). Exact at 16 MHz: UBRR0 = 3, U2X0 = 0,
+ * 0.0 % error (ATmega328P datasheet, USART "Examples of Baud Rate Setting" table); 115200 would be +2.1 %.
+ * The emulator test reads the divisor the firmware programs and checks it against this value.
+ */
+export const DEFAULT_BAUD = 250_000;
+
+/** Nominal Timer1 rate of the shipped firmware (prescaler 1 at F_CPU); the H line's `hz` says the same. */
+export const DEFAULT_TICK_HZ = 16_000_000;
+
+/**
+ * Ticks between an input edge on real silicon and the timestamp the firmware reports for it, per channel.
+ * The host subtracts these from `E` ticks. Constant offsets cancel in periods; they matter only when the
+ * two channels are compared (a second gate, a 1 PPS reference).
+ *
+ * ch0 (ICP1, hardware capture): 4 = the input capture noise canceler's delay, "4 system clock cycles"
+ * (ATmega328P datasheet, Timer/Counter1 "Noise Canceler"). The pin synchronizer adds a further fixed
+ * 2.5–3.5 cycles (datasheet, from memory, not included). The emulator shows 0 because simavr models neither.
+ *
+ * ch1 (INT0, counter read in software): 14, derived, not measured on silicon: interrupt response 4 cycles
+ * + 4 more when waking from sleep ("Interrupt Response Time", datasheet) + 3 for the vector's JMP + 2 for
+ * the PUSH before the first LDS of TCNT1 + 1 into that LDS. The emulator measures 5 (simavr enters an
+ * interrupt faster than silicon). When another ISR is running the read waits for it: see
+ * CH1_MAX_EXTRA_LATENCY_TICKS.
+ */
+export const CHANNEL_LATENCY_TICKS: readonly [number, number] = [4, 14];
+
+/** The same latencies measured in simavr 1.6 (test/firmware/firmware-timestamps.test.ts asserts them). */
+export const EMULATOR_CHANNEL_LATENCY_TICKS: readonly [number, number] = [0, 5];
+
+/**
+ * Worst extra ch1 latency, measured in the emulator: an INT0 edge that arrives just after a ch0 capture
+ * waits for the capture ISR to finish (the longest ISR). Typical extra latency is 0; this bound is the
+ * jitter to allow when comparing ch1 with ch0 edge by edge (150 ticks = 9.4 µs at 16 MHz).
+ */
+export const CH1_MAX_EXTRA_LATENCY_TICKS = 150;
+
+/**
+ * Shortest ch0 pulse whose two edges both come back, measured in the emulator (48 cycles = 3 µs): the
+ * capture ISR must flip the edge select before the second edge. Shorter pulses lose their second edge,
+ * and the firmware counts it in the `T` record's `lost` field.
+ */
+export const CH0_MIN_PULSE_TICKS = 48;
+
+/** Edges the firmware can buffer while the UART is busy (ring of 64 entries, one kept free). */
+export const EDGE_RING_CAPACITY = 63;
+
+/** Longest command line the firmware accepts, LF and one trailing CR excluded; longer gets `err <c> too-long`. */
+export const COMMAND_MAX_BYTES = 16;
+
+/** Default heartbeat period (`P` changes it within 100..60000 ms). */
+export const HEARTBEAT_DEFAULT_MS = 1000;
+export const HEARTBEAT_MIN_MS = 100;
+export const HEARTBEAT_MAX_MS = 60_000;
