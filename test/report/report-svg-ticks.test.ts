@@ -56,6 +56,9 @@ describe('nice ticks', () => {
     expect(ticks.map((t) => tickLabel(t, step))).toEqual(['0.0', '0.1', '0.2', '0.3', '0.4', '0.5', '0.6', '0.7', '0.8', '0.9', '1.0']);
     expect(tickLabel(-0.004, 0.002)).toBe('\u22120.004');
     expect(tickLabel(1e-17, 0.5)).toBe('0.0');
+    expect(tickLabel(2.5e17, 5e16)).toBe('2.5e17');
+    expect(tickLabel(-1e18, 5e17)).toBe('\u22121e18');
+    expect(tickLabel(3e6, 1e6)).toBe('3e6');
   });
 
   it('log ticks are 1-2-5 multiples of powers of ten inside the range', () => {

@@ -178,7 +178,9 @@ export function renderChart(spec: ChartSpec): string {
     for (const t of sx.ticks()) {
       const x = sx.map(t.value);
       g.push(segment([x, top], [x, top + h], 'grid'));
-      if (last) g.push(label(x, top + h + 15, t.label, { cls: 'tick', anchor: 'middle' }));
+      // Keep the outermost labels inside the drawing (estimated text width, as for the legend).
+      const half = (t.label.length * CHAR_W) / 2;
+      if (last) g.push(label(Math.min(Math.max(x, half + 2), width - half - 2), top + h + 15, t.label, { cls: 'tick', anchor: 'middle' }));
     }
     // Series keep their order (later ones on top), each under the clip that suits its kind.
     for (const s of p.series) g.push(`<g clip-path="url(#${esc(clip)}${s.kind === 'points' ? 'm' : ''})">${drawSeries(s, sx, sy)}</g>`);

@@ -55,6 +55,12 @@ export function logTicks(lo: number, hi: number): number[] {
 
 /** Label of a tick value with as many decimals as the step needs (no float noise such as 0.30000000000000004). */
 export function tickLabel(v: number, step: number): string {
+  // Labels of a million and more (a Q with no measurable loss) would not fit the margin: m·10^e as "2.5e17",
+  // with as many mantissa digits as the step needs.
+  if (Math.abs(v) >= 1e6 && Math.abs(v) >= step / 2) {
+    const digits = Math.max(0, Math.floor(Math.log10(Math.abs(v))) - Math.floor(Math.log10(step) + 1e-9));
+    return signed(Number(v.toExponential(digits)).toExponential().replace('e+', 'e'));
+  }
   const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
   const s = (Math.abs(v) < step / 2 ? 0 : v).toFixed(Math.min(decimals, 12));
   return signed(s);
