@@ -48,8 +48,12 @@ export function reduceKey(state: UiState, key: KeyPress, ctx: KeyContext): { sta
       }
       if (key.backspace || key.delete) return { state: { ...state, mode: { kind: 'note', text: mode.text.slice(0, -1) } } };
       if (key.ctrl || key.input === '') return { state };
-      const printable = key.input.replace(/[\x00-\x1f\x7f]/g, '');
-      return { state: { ...state, mode: { kind: 'note', text: (mode.text + printable).slice(0, MAX_NOTE_CHARS) } } };
+      // Typed fast or pasted, text and Enter arrive as one chunk: the line ends at the first CR or LF.
+      const end = key.input.search(/[\r\n]/);
+      const printable = (end < 0 ? key.input : key.input.slice(0, end)).replace(/[\x00-\x1f\x7f]/g, '');
+      const text = (mode.text + printable).slice(0, MAX_NOTE_CHARS);
+      if (end >= 0) return reduceKey({ ...state, mode: { kind: 'note', text } }, { input: '\r', return: true }, ctx);
+      return { state: { ...state, mode: { kind: 'note', text } } };
     }
     case 'confirm-quit':
       if (key.input === 'y' || key.input === 'Y') return { state, effect: { kind: 'quit' } };

@@ -28,24 +28,28 @@ export function layoutFor(columns: number | undefined, rows: number | undefined)
   return { width, height, numbersWidth, plotWidth, chartHeight, statusLines: 2 };
 }
 
-/** Packs `label value` items into at most `maxLines` lines of `width` columns, separated by ` · `; what does not fit is dropped. */
-export function packItems<T extends { label: string; value: string }>(items: readonly T[], width: number, maxLines: number): T[][] {
-  const lines: T[][] = [];
-  let current: T[] = [];
-  let used = 0;
-  for (const it of items) {
-    const w = it.label.length + 1 + it.value.length;
-    const need = current.length ? used + 3 + w : w;
-    if (need <= width) {
-      current.push(it);
-      used = need;
+/** Width of `label value` items joined by ` · `. */
+function itemsWidth(items: readonly { label: string; value: string }[]): number {
+  return items.reduce((w, it, i) => w + (i ? 3 : 0) + it.label.length + 1 + [...it.value].length, 0);
+}
+
+/**
+ * Fits `label value` items, joined by ` · `, into one line of `width` columns: the longest value (a path,
+ * usually) loses its beginning first, marked with `…`, so the end of a path stays readable.
+ */
+export function fitItems<T extends { label: string; value: string }>(items: readonly T[], width: number): T[] {
+  const out = items.map((it) => ({ ...it }));
+  for (let guard = 0; guard < 200 && itemsWidth(out) > width; guard++) {
+    const longest = out.reduce((best, it, i) => ([...it.value].length > [...out[best]!.value].length ? i : best), 0);
+    const it = out[longest]!;
+    const chars = [...it.value];
+    const over = itemsWidth(out) - width;
+    if (chars.length <= 4) {
+      out.pop();
       continue;
     }
-    if (current.length) lines.push(current);
-    if (lines.length >= maxLines) return lines;
-    current = [{ ...it, value: w > width ? it.value.slice(0, Math.max(0, width - it.label.length - 2)) + '…' : it.value }];
-    used = Math.min(width, w);
+    const keep = Math.max(3, chars.length - over - 1);
+    out[longest] = { ...it, value: `…${chars.slice(chars.length - keep).join('')}` };
   }
-  if (current.length && lines.length < maxLines) lines.push(current);
-  return lines;
+  return out;
 }

@@ -11,7 +11,7 @@ export function plainStatusLine(vm: ViewModel): string {
   const counts = vm.health.map((h) => `${h.label.replace(/ /g, '_')}=${h.count}`).join(' ');
   const parts = [
     `run=${status('run') ?? '—'}`,
-    `${vm.status.find((s) => s.label === 'link' || s.label === 'journal')?.value ?? ''}`,
+    `${vm.status.find((s) => s.label === 'link' || s.label === 'mode')?.value ?? ''}`,
     `passes=${num('passes')}`,
     `period=${num('period')}`,
     `amplitude=${num('amplitude')}`,

@@ -88,7 +88,8 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
       failure = e;
       ended = { kind: 'ended', why: (e as Error).message ?? 'failed' };
       store.flush();
-      if (!interactive) void shutdown(1);
+      // A failed source (no hello, a full disk) ends the view with its message rather than a frozen screen.
+      void shutdown(1);
     },
   );
 

@@ -31,6 +31,8 @@ export interface StatusItem {
   readonly label: string;
   readonly value: string;
   readonly tone: Tone;
+  /** First status line (where from, device, link) or second (clock, time, journal). */
+  readonly line: 1 | 2;
 }
 
 export interface NumberRow {
@@ -72,21 +74,21 @@ function connectionItem(feed: FeedStatus): StatusItem {
   const c = feed.connection;
   switch (c.kind) {
     case 'simulated':
-      return { label: 'link', value: 'simulated', tone: 'good' };
+      return { label: 'link', value: 'simulated', tone: 'good', line: 1 };
     case 'opening':
-      return { label: 'link', value: 'opening port', tone: 'accent' };
+      return { label: 'link', value: 'opening port', tone: 'accent', line: 1 };
     case 'waiting-hello':
-      return { label: 'link', value: 'waiting for hello', tone: 'accent' };
+      return { label: 'link', value: 'waiting for hello', tone: 'accent', line: 1 };
     case 'connected':
-      return { label: 'link', value: 'connected', tone: 'good' };
+      return { label: 'link', value: 'connected', tone: 'good', line: 1 };
     case 'reconnecting':
-      return { label: 'link', value: `reconnecting (try ${c.retries})`, tone: 'bad' };
+      return { label: 'link', value: `reconnecting (try ${c.retries})`, tone: 'bad', line: 1 };
     case 'following':
-      return { label: 'journal', value: 'following', tone: 'good' };
+      return { label: 'mode', value: 'following the file', tone: 'good', line: 1 };
     case 'replaying':
-      return { label: 'journal', value: 'replaying', tone: 'good' };
+      return { label: 'mode', value: 'replaying', tone: 'good', line: 1 };
     case 'ended':
-      return { label: 'link', value: `ended: ${c.why}`, tone: 'muted' };
+      return { label: feed.sourceKind === 'watch' ? 'mode' : 'link', value: `ended: ${c.why}`, tone: 'muted', line: 1 };
   }
 }
 
@@ -143,20 +145,25 @@ export function buildViewModel(input: ViewInput): ViewModel {
   const hello = live.hello;
   const watching = feed.sourceKind === 'watch';
   const source = watching && feed.journal ? `${feed.sourceLabel} (${formatBytes(feed.journal.bytes)})` : feed.sourceLabel;
-  const status: StatusItem[] = [{ label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: source, tone: 'accent' }];
-  if (feed.speed !== null) status.push({ label: 'speed', value: formatSpeed(feed.speed), tone: feed.speed === 1 ? 'normal' : 'accent' });
-  status.push({ label: 'device', value: hello ? `fw ${hello.fw}, protocol ${hello.proto}` : 'no hello yet', tone: hello ? 'normal' : 'muted' });
+  const status: StatusItem[] = [
+    { label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: source, tone: 'accent', line: 1 },
+  ];
+  if (feed.speed !== null) status.push({ label: 'speed', value: formatSpeed(feed.speed), tone: feed.speed === 1 ? 'normal' : 'accent', line: 1 });
+  status.push({ label: 'device', value: hello ? `fw ${hello.fw}, protocol ${hello.proto}` : 'no hello yet', tone: hello ? 'normal' : 'muted', line: 1 });
   status.push(connectionItem(feed));
   status.push({
     label: 'clock',
     value: result.clock_ppm !== null ? `${formatWithU(result.clock_ppm, result.clock_u_ppm, 1).replace(/^(?=\d)/, '+')} ppm` : 'not fitted yet',
     tone: result.clock_ppm !== null ? 'normal' : 'muted',
+    line: 2,
   });
-  status.push({ label: 'run', value: formatDuration(input.now_s), tone: 'normal' });
-  if (input.restartedAt_s !== null) status.push({ label: 'estimates since', value: formatDuration(input.restartedAt_s), tone: 'accent' });
+  status.push({ label: 'run', value: formatDuration(input.now_s), tone: 'normal', line: 2 });
+  if (input.restartedAt_s !== null) status.push({ label: 'estimates since', value: formatDuration(input.restartedAt_s), tone: 'accent', line: 2 });
   if (!watching)
     status.push(
-      feed.journal ? { label: 'journal', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal' } : { label: 'journal', value: 'none', tone: 'muted' },
+      feed.journal
+        ? { label: 'journal', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal', line: 2 }
+        : { label: 'journal', value: 'none', tone: 'muted', line: 2 },
     );
 
   const [h1, h2] = live.halfPeriodsS;

@@ -22,11 +22,14 @@ export interface AppProps {
   readonly interactive: boolean;
 }
 
-/** Host seconds now: the last line's time, advanced at the feed's speed while lines are still due. */
+/** Wall time after a line during which "now" is not advanced: a busy moment of this process is not a silent device. */
+export const ARRIVAL_GRACE_MS = 500;
+
+/** Host seconds now: the last line's time, advanced at the feed's speed (after a grace) while lines are still due. */
 export function estimateNow(snap: StoreSnapshot, feed: FeedStatus, nowMs: number): number {
   if (snap.lastHost_s === null) return 0;
   if (!expectsLines(feed.connection) || snap.lastArrivalMs === null) return snap.lastHost_s;
-  return snap.lastHost_s + (Math.max(0, nowMs - snap.lastArrivalMs) / 1000) * (feed.speed ?? 1);
+  return snap.lastHost_s + (Math.max(0, nowMs - snap.lastArrivalMs - ARRIVAL_GRACE_MS) / 1000) * (feed.speed ?? 1);
 }
 
 export function App({ store, status, nowMs, onEffect, interactive }: AppProps): React.JSX.Element {
@@ -36,10 +39,14 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
   const { stdout } = useStdout();
   const feed = status();
 
+  // Keys can arrive faster than frames: the reducer reads the latest state, not the one of the last render.
+  const uiRef = useRef<UiState>(INITIAL_UI);
   useInput(
     (input, key) => {
-      const { state, effect } = reduceKey(ui, { input, ctrl: key.ctrl, return: key.return, escape: key.escape, backspace: key.backspace, delete: key.delete }, { writesJournal: feed.writesJournal });
-      if (state.paused && !ui.paused) frozen.current = store.getSnapshot();
+      const before = uiRef.current;
+      const { state, effect } = reduceKey(before, { input, ctrl: key.ctrl, return: key.return, escape: key.escape, backspace: key.backspace, delete: key.delete }, { writesJournal: status().writesJournal });
+      if (state.paused && !before.paused) frozen.current = store.getSnapshot();
+      uiRef.current = state;
       setUi(state);
       if (effect) onEffect(effect);
     },
@@ -86,7 +93,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
 
   return (
     <Box flexDirection="column" width={L.width}>
-      <StatusBar title={vm.title} items={vm.status} width={L.width} lines={L.statusLines} />
+      <StatusBar title={vm.title} items={vm.status} width={L.width} />
       <Box flexDirection="row" height={L.height - L.statusLines - 3}>
         {ui.mode.kind === 'help' ? (
           <HelpPanel warnings={vm.warnings} width={L.width} />

@@ -2,15 +2,15 @@
 import React from 'react';
 import { Box, Text } from 'ink';
 import type { StatusItem } from '../view-model.ts';
-import { packItems } from '../layout.ts';
+import { fitItems } from '../layout.ts';
 import { TONE_COLOR } from './palette.ts';
 
-export function StatusBar({ title, items, width, lines }: { readonly title: string; readonly items: readonly StatusItem[]; readonly width: number; readonly lines: number }): React.JSX.Element {
+export function StatusBar({ title, items, width }: { readonly title: string; readonly items: readonly StatusItem[]; readonly width: number }): React.JSX.Element {
   const head = `▌${title} `;
-  const packed = packItems(items, width - head.length, lines);
+  const packed = ([1, 2] as const).map((line) => fitItems(items.filter((it) => it.line === line), width - head.length - 1));
   return (
     <Box flexDirection="column">
-      {Array.from({ length: lines }, (_, i) => (
+      {packed.map((_, i) => (
         <Text key={i} wrap="truncate">
           <Text color="black" backgroundColor="cyan">
             {i === 0 ? head : ' '.repeat(head.length)}

@@ -1,0 +1,114 @@
+// The live feed: a board's link journaled as it arrives (the journal never waits for the screen), shown as entries.
+import { journalHeader, parseJournalLine, type JournalEntry } from '../../../protocol/journal.ts';
+import type { DeviceLink, LinkEvent } from '../../link/device-link.ts';
+import type { JournalWriter } from '../../journal/journal-writer.ts';
+import type { ConnectionState, Feed, FeedStatus } from '../feed.ts';
+
+export interface DeviceFeedOptions {
+  readonly link: DeviceLink;
+  readonly writer: JournalWriter;
+  /** The link's clock: µs since this journal block's `#start`. */
+  readonly nowUs: () => number;
+  readonly start: Date;
+  readonly source: string;
+  readonly rigJson?: string;
+  readonly portLabel: string;
+}
+
+/** Annotation entries and data entries exactly as the journal gets them. */
+function toEntry(e: LinkEvent): JournalEntry | null {
+  if (e.type === 'line') return { kind: 'data', hostUs: e.hostUs, line: e.line };
+  if (e.type === 'annotation') return { kind: 'annotation', hostUs: e.hostUs, word: e.word, text: e.text };
+  return null;
+}
+
+/** Journals the link's lines and annotations as they arrive; the entries follow for the view. */
+export function deviceFeed(opts: DeviceFeedOptions): Feed {
+  const { link, writer } = opts;
+  const header = { start: opts.start, source: opts.source, ...(opts.rigJson !== undefined ? { rigJson: opts.rigJson } : {}) };
+  // The block header goes in with the first line, so a board that never answers leaves no journal behind.
+  let started = false;
+  const ensureBlock = (): void => {
+    if (!started) writer.startBlock(header);
+    started = true;
+  };
+  const queue: JournalEntry[] = journalHeader({ ...header, withMagic: true }).map(parseJournalLine);
+  let wake: (() => void) | null = null;
+  let connection: ConnectionState = { kind: 'opening' };
+  let closed = false;
+  let failure: Error | null = null;
+  let closing: Promise<void> | null = null;
+
+  const enqueue = (e: JournalEntry): void => {
+    queue.push(e);
+    wake?.();
+  };
+  const fail = (e: unknown): void => {
+    failure ??= e instanceof Error ? e : new Error(String(e));
+    void close();
+  };
+
+  link.onEvent((e) => {
+    if (e.type === 'state') {
+      if (e.state === 'opening') connection = { kind: 'opening' };
+      else if (e.state === 'waiting-hello') connection = { kind: 'waiting-hello' };
+      else if (e.state === 'connected') connection = { kind: 'connected' };
+      else if (e.state === 'reconnecting') connection = { kind: 'reconnecting', retries: e.attempt };
+      else {
+        closed = true;
+        connection = { kind: 'ended', why: failure ? failure.message : 'port closed' };
+        wake?.();
+      }
+      return;
+    }
+    const entry = toEntry(e);
+    if (!entry) return;
+    try {
+      ensureBlock();
+      if (e.type === 'line') writer.data(e.hostUs, e.line);
+      else if (e.type === 'annotation') writer.annotate(e.hostUs, e.word, e.text);
+    } catch (err) {
+      fail(err);
+    }
+    enqueue(entry);
+  });
+  // No hello at all: the link gives up with a message that says what to check.
+  link.ready.catch(fail);
+
+  async function close(): Promise<void> {
+    closing ??= (async () => {
+      await link.close();
+      writer.close();
+    })();
+    return closing;
+  }
+
+  async function* entries(): AsyncGenerator<JournalEntry> {
+    for (;;) {
+      while (queue.length > 0) yield queue.shift()!;
+      if (closed) break;
+      await new Promise<void>((r) => (wake = r));
+      wake = null;
+    }
+    if (failure) throw failure;
+  }
+
+  return {
+    entries: entries(),
+    status: (): FeedStatus => ({
+      sourceKind: 'live',
+      sourceLabel: link.path() ?? opts.portLabel,
+      speed: null,
+      connection,
+      journal: { path: writer.path, bytes: writer.size() },
+      writesJournal: !closed,
+    }),
+    async note(text) {
+      const hostUs = opts.nowUs();
+      ensureBlock();
+      writer.annotate(hostUs, 'note', text);
+      enqueue({ kind: 'annotation', hostUs, word: 'note', text });
+    },
+    close,
+  };
+}

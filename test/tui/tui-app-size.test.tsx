@@ -1,0 +1,58 @@
+// The frame fits a standard 80×24 terminal (one line to spare, so ink never clears the scrollback) and grows with a bigger one.
+import React from 'react';
+import { EventEmitter } from 'node:events';
+import { describe, expect, it } from 'vitest';
+import { render } from 'ink';
+import { App } from '../../host/tui/components/app.tsx';
+import { demoStatus, fixedStore, loadRecorded, tick } from './snapshots.ts';
+
+/** A fake terminal of a given size that keeps the last frame written. */
+class FakeTerminal extends EventEmitter {
+  last = '';
+  constructor(
+    readonly columns: number,
+    readonly rows: number,
+  ) {
+    super();
+  }
+  write = (s: string): boolean => {
+    this.last = s;
+    return true;
+  };
+}
+
+async function frameAt(columns: number, rows: number): Promise<string[]> {
+  const rec = loadRecorded('snapshot-night-reboot');
+  const out = new FakeTerminal(columns, rows);
+  const inst = render(<App store={fixedStore(rec.snapshot)} status={() => demoStatus()} nowMs={() => 0} onEffect={() => {}} interactive={false} />, {
+    stdout: out as unknown as NodeJS.WriteStream,
+    debug: true,
+    patchConsole: false,
+  });
+  await tick(50);
+  // Read before unmounting: in CI mode ink writes a bare last frame of its own on unmount.
+  const frame = out.last;
+  inst.unmount();
+  // Colour codes take no columns.
+  return frame.replace(/\x1b\[[0-9;]*m/g, '').replace(/\n$/, '').split('\n');
+}
+
+const cols = (s: string): number => [...s].length;
+
+describe('frame size', () => {
+  it('fits 80×24 with a line to spare', async () => {
+    const lines = await frameAt(80, 24);
+    expect(lines.length).toBeLessThanOrEqual(23);
+    expect(lines.length).toBeGreaterThanOrEqual(20);
+    for (const l of lines) expect(cols(l)).toBeLessThanOrEqual(80);
+  });
+
+  it('uses a larger terminal: wider plots and taller charts', async () => {
+    const small = await frameAt(80, 24);
+    const big = await frameAt(140, 40);
+    expect(big.length).toBeGreaterThan(small.length + 10);
+    expect(big.length).toBeLessThanOrEqual(39);
+    expect(Math.max(...big.map(cols))).toBeGreaterThan(120);
+    for (const l of big) expect(cols(l)).toBeLessThanOrEqual(140);
+  });
+});

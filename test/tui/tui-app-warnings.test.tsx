@@ -1,0 +1,64 @@
+// The warning line on recorded snapshots: silence, missing heartbeats, a gate off centre, the clock in the budget.
+import React from 'react';
+import { afterEach, describe, expect, it } from 'vitest';
+import { cleanup, render } from 'ink-testing-library';
+import { App, ARRIVAL_GRACE_MS } from '../../host/tui/components/app.tsx';
+import { clockShare, CLOCK_SHARE_WARN } from '../../host/tui/warnings.ts';
+import type { StoreSnapshot } from '../../host/tui/live-store.ts';
+import type { FeedStatus } from '../../host/tui/feed.ts';
+import { demoStatus, fixedStore, frameWhere, loadRecorded } from './snapshots.ts';
+
+afterEach(() => cleanup());
+
+const liveStatus = (over: Partial<FeedStatus> = {}): FeedStatus =>
+  demoStatus({ sourceKind: 'live', sourceLabel: '/dev/ttyUSB0', speed: null, connection: { kind: 'connected' }, journal: { path: 'run.journal', bytes: 1 }, writesJournal: true, ...over });
+
+function warningLine(snapshot: StoreSnapshot, status: FeedStatus, wallAfterLastLineMs: number) {
+  const r = render(<App store={fixedStore(snapshot)} status={() => status} nowMs={() => (snapshot.lastArrivalMs ?? 0) + wallAfterLastLineMs} onEffect={() => {}} interactive />);
+  return frameWhere(r.lastFrame, (f) => f.includes('health')).then((f) => {
+    const lines = f.split('\n');
+    return lines[lines.findIndex((l) => l.startsWith('health')) + 1]!;
+  });
+}
+
+describe('warning line', () => {
+  it('is quiet on a healthy night run', async () => {
+    const rec = loadRecorded('snapshot-night-reboot');
+    expect(clockShare(rec.snapshot.result.budget)).toBeLessThan(CLOCK_SHARE_WARN);
+    expect(await warningLine(rec.snapshot, liveStatus(), 0)).toContain('nothing to act on');
+  });
+
+  it('says the clock dominates the g budget early in the demo (nominal clock, ±2887 ppm)', async () => {
+    const rec = loadRecorded('snapshot-demo-120s');
+    expect(clockShare(rec.snapshot.result.budget)).toBeGreaterThan(CLOCK_SHARE_WARN);
+    expect(await warningLine(rec.snapshot, demoStatus(), 0)).toMatch(/clock uncertainty is \d+% of the g budget/);
+  });
+
+  it('warns when no line came for three periods and three heartbeats (a stalled board)', async () => {
+    const rec = loadRecorded('snapshot-night-reboot');
+    // 10 s of silence at real time: > 3 × T0 (2.45 s) and > 3 heartbeats (1 s).
+    const line = await warningLine(rec.snapshot, liveStatus(), 10_000 + ARRIVAL_GRACE_MS);
+    expect(line).toMatch(/no passes for 1\d s/);
+    expect(line).toContain('+1 more');
+  });
+
+  it('says nothing about silence once a replay has ended', async () => {
+    const rec = loadRecorded('snapshot-night-reboot');
+    expect(await warningLine(rec.snapshot, liveStatus({ connection: { kind: 'ended', why: 'end of journal' } }), 60_000)).toContain('nothing to act on');
+  });
+
+  it('asks to move a gate that is 3 mm off, in the right direction', async () => {
+    const rec = loadRecorded('snapshot-night-reboot');
+    const snap = { ...rec.snapshot, result: { ...rec.snapshot.result, gate_offset_m: -0.003, gate_offset_u_m: 0.0001 } };
+    expect(await warningLine(snap, liveStatus(), 0)).toContain('gate 3.0 mm off the lowest point: move 3.0 mm toward release side');
+  });
+
+  it('shows a reconnecting link with its retry count, and the disconnect first', async () => {
+    const rec = loadRecorded('snapshot-night-reboot');
+    const st = liveStatus({ connection: { kind: 'reconnecting', retries: 3 } });
+    const r = render(<App store={fixedStore(rec.snapshot)} status={() => st} nowMs={() => 0} onEffect={() => {}} interactive />);
+    const f = await frameWhere(r.lastFrame, (x) => x.includes('reconnecting'));
+    expect(f.split('\n')[0]).toContain('link reconnecting (try 3)');
+    expect(await warningLine(rec.snapshot, st, 0)).toContain('device disconnected');
+  });
+});
