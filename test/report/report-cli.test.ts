@@ -42,7 +42,7 @@ describe('analyze --report', () => {
     const html = readFileSync(join(dir, 'run-a.html'), 'utf8');
     expect(XMLValidator.validate(html)).toBe(true);
     expect(expectReportMatchesJson(html, json)).toBeGreaterThan(35);
-    expect(html).toContain('<a href="run-a.csv"');
+    expect(html).toContain('<a href="./run-a.csv"');
     expect(existsSync(join(dir, 'run-a.csv'))).toBe(true);
     expect(html).toContain('<code data-key="journal">run-a.journal</code>');
   });

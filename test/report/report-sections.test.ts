@@ -29,7 +29,7 @@ describe('report page', () => {
     for (const id of SECTIONS) expect(html, id).toContain(`id="${id}"`);
     expect(html.match(/<figure /g)).toHaveLength(6);
     expect(html.match(/<svg xmlns="http:\/\/www.w3.org\/2000\/svg" class="chart"/g)).toHaveLength(7);
-    expect(html).toContain('<a href="bench-a.csv"');
+    expect(html).toContain('<a href="./bench-a.csv"');
     expect(html).not.toContain('id="missing"');
   });
 
@@ -44,6 +44,7 @@ describe('report page', () => {
     const page = renderReport(r, { ...meta, journalName: `j ${evil}`, rig: { ...syntheticRig, name: `rig ${evil}` }, csvName: `c ${evil}.csv` });
     expect(XMLValidator.validate(page)).toBe(true);
     expect(page).not.toContain('<script>');
+    expect(renderReport(r, { ...meta, csvName: 'javascript:alert(1) #x.csv' })).toContain('<a href="./javascript%3Aalert(1)%20%23x.csv"');
     const text = JSON.stringify(new XMLParser({ htmlEntities: true, processEntities: true }).parse(page));
     for (const p of ['warn', 'src', 'fw', 'rig', 'j']) expect(text).toContain(`${p} <script>alert(1)</script> & \\"q\\" \ufffd`);
   });

@@ -36,7 +36,7 @@ export function periodPlot(r: AnalysisResult, s: PlotSeries, law: PeriodLaw): st
     const rd = robustDomain(res, [...lawMinusFit, 0]);
     const u = smallTimeUnit(rd ? Math.max(Math.abs(rd.domain[0]), Math.abs(rd.domain[1])) : Math.max(maxAbs(res), maxAbs(lawMinusFit)));
     lower.push({ kind: 'hline', label: '', y: 0, tone: 4 });
-    lower.push({ kind: 'points', label: rd && rd.outside > 0 ? `residual (${rd.outside} beyond the axis)` : '', x: amps, y: res.map((v) => v * u.mul), shape: 'circle', tone: 1 });
+    lower.push({ kind: 'points', label: '', x: amps, y: res.map((v) => v * u.mul), shape: 'circle', tone: 1 });
     if (T0 !== null) lower.push({ kind: 'line', label: 'exact law − fit', x: grid, y: lawMinusFit.map((v) => v * u.mul), dash: '2 3', tone: 2 });
     return renderChart({
       id: 'period',
@@ -44,7 +44,14 @@ export function periodPlot(r: AnalysisResult, s: PlotSeries, law: PeriodLaw): st
       xLabel: 'amplitude θ0 (degrees)',
       panels: [
         { yLabel: 'period (s)', series: main, weight: 2.4 },
-        { yLabel: `residual (${u.name})`, series: lower, weight: 1, include: 0, ...(rd ? { domain: [rd.domain[0] * u.mul, rd.domain[1] * u.mul] as const } : {}) },
+        {
+          yLabel: `residual (${u.name})`,
+          series: lower,
+          weight: 1,
+          include: 0,
+          ...(rd ? { domain: [rd.domain[0] * u.mul, rd.domain[1] * u.mul] as const } : {}),
+          ...(rd && rd.outside > 0 ? { note: `${rd.outside} point${rd.outside > 1 ? 's' : ''} beyond the axis` } : {}),
+        },
       ],
       plotHeight: 380,
     });

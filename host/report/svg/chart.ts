@@ -23,6 +23,8 @@ export interface PanelSpec {
   readonly include?: number;
   /** A fixed y domain (still widened to nice numbers), for data whose early values would swamp the rest. */
   readonly domain?: readonly [number, number];
+  /** A short note in the panel's top right corner (e.g. how many points lie beyond the axis). */
+  readonly note?: string;
 }
 
 export interface ChartSpec {
@@ -186,6 +188,7 @@ export function renderChart(spec: ChartSpec): string {
     for (const s of p.series) g.push(`<g clip-path="url(#${esc(clip)}${s.kind === 'points' ? 'm' : ''})">${drawSeries(s, sx, sy)}</g>`);
     g.push(`<rect class="frame" x="${px(M.left)}" y="${px(top)}" width="${px(width - M.left - M.right)}" height="${px(h)}"/>`);
     g.push(label(14, top + h / 2, p.yLabel, { cls: 'axt', anchor: 'middle', rotate: -90 }));
+    if (p.note) g.push(label(width - M.right - 6, top + 13, p.note, { cls: 'pnote', anchor: 'end' }));
     if (last) g.push(label((M.left + width - M.right) / 2, top + h + 36, spec.xLabel, { cls: 'axt', anchor: 'middle' }));
     out.push(`<g class="panel">${g.join('')}</g>`);
     top += h + M.gap;
