@@ -1,6 +1,6 @@
 // The simulated device behind a pseudo-terminal (socat pty pair), so the host opens it like a real serial port.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, rmSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -50,8 +50,16 @@ export async function openPtyPair(): Promise<PtyPair> {
     proc.once('error', () => resolve('cannot start socat (install it: apt-get install socat)'));
     proc.once('exit', (code) => resolve(`socat exited early (code ${code})`));
   });
+  // If this process exits without closing (a test worker torn down), socat and the folder must not outlive it.
+  const onExit = (): void => {
+    proc.kill('SIGTERM');
+    rmSync(dir, { recursive: true, force: true });
+  };
+  process.once('exit', onExit);
   const close = async (): Promise<void> => {
-    if (proc.exitCode === null && proc.signalCode === null) {
+    process.removeListener('exit', onExit);
+    // A socat that never started (not installed) has no pid and will send no 'exit'.
+    if (proc.pid !== undefined && proc.exitCode === null && proc.signalCode === null) {
       proc.kill('SIGTERM');
       await new Promise((r) => proc.once('exit', r));
     }
@@ -61,7 +69,7 @@ export async function openPtyPair(): Promise<PtyPair> {
     if (existsSync(hostPath) && existsSync(simPath)) return { hostPath, simPath, close };
     const why = await Promise.race([failed, new Promise<undefined>((r) => setTimeout(() => r(undefined), 20))]);
     if (why) {
-      await rm(dir, { recursive: true, force: true });
+      await close();
       throw new PtyError(why);
     }
   }

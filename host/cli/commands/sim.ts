@@ -55,10 +55,15 @@ function simOptions(args: ParsedArgs): SimOptions {
   return o;
 }
 
+/** Writes with back-pressure; false once the reader has gone (EPIPE after `| head`), which ends the run quietly. */
 async function write(out: NodeJS.WritableStream, text: string): Promise<boolean> {
-  if (out.write(text)) return true;
-  const r = await Promise.race([once(out, 'drain').then(() => true), once(out, 'error').then(() => false)]);
-  return r;
+  try {
+    if (out.write(text)) return true;
+    await once(out, 'drain');
+    return true;
+  } catch {
+    return false;
+  }
 }
 
 async function toStdout(scenario: Scenario, o: SimOptions, speed: number, truthFile: string | undefined, io: CommandIo): Promise<number> {
