@@ -73,7 +73,7 @@ svg.chart{font-family:"DejaVu Sans",system-ui,sans-serif}
 .tick{font-size:11px;fill:var(--muted)}
 .axt{font-size:12px;fill:var(--ink)}
 .lg{font-size:11.5px;fill:var(--ink)}
-.pnote{font-size:11px;fill:var(--muted);font-style:italic}
+.pnote{font-size:11px;fill:var(--ink);font-style:italic;paint-order:stroke;stroke:#fff;stroke-width:4px;stroke-linejoin:round}
 .ln{fill:none;stroke-width:1.8}
 .mk{stroke-width:.9}
 .bd{stroke:none;opacity:.22}
