@@ -2,4 +2,4 @@
 import { describe, inject } from 'vitest';
 
 /** `describe` when the firmware toolchain is there; `describe.skip` otherwise (global setup printed why). */
-export const describeFirmware: typeof describe = inject('firmwareToolchain') ? describe : describe.skip;
+export const describeFirmware = inject('firmwareToolchain') ? describe : describe.skip;
