@@ -27,7 +27,7 @@ function plotsSection(r: AnalysisResult): string {
     figure('fig-period', 1, 'Period against amplitude', 'Each full period (every second pass) at its measured amplitude, the exact law through the fitted T0, and the fit T0(1 + Bθ0² + Cθ0⁴); below, the data and the exact law minus that fit.', periodPlot(r, s, periodRatio)),
     figure('fig-amplitude', 2, 'Amplitude against time', 'Amplitude per swing from its transit time, with each damping fit started from the first swing; the chosen model is solid. The log axis turns exponential decay into a straight line.', amp, toggle),
     figure('fig-q', 3, 'Q against amplitude', 'Q = π·θ0/Δθ0 per cycle from the chosen damping fit; the diamond is the Q reported above.', qPlot(r, s)),
-    figure('fig-alternation', 4, 'Half-period alternation', `Difference between neighbouring half-periods; it alternates in sign when the beam is off the lowest point.${gate}`, alternationPlot(s)),
+    figure('fig-alternation', 4, 'Half-period alternation', `Each swing’s two half-periods differ when the beam is off the lowest point: the difference (long minus short, by the side of the pass) stays on one side of zero and grows as the amplitude falls, about 4δ/(ω0·θ0) for an offset δ; zero means a centred gate.${gate}`, alternationPlot(s)),
     figure('fig-clock', 5, 'Clock offset', `In each window of the run, the smallest host receive time minus device time of a heartbeat, about the line fitted through those minima, whose slope is the clock’s rate error. USB latency only ever adds delay, so the minima trace the lower envelope.${clock}`, clockPlot(r, s)),
     figure('fig-g', 6, 'Running estimate of g', 'g from the swings up to each time, with its expanded uncertainty band (k = 2).', gRunningPlot(r, s)),
   ];

@@ -3,7 +3,7 @@ import type { AnalysisResult, PlotSeries } from '../../analysis/result.ts';
 import { renderChart, type SeriesSpec } from '../svg/chart.ts';
 import { maxAbs, noData, smallTimeUnit, timeUnit } from './figure.ts';
 
-/** Difference of consecutive half-periods over time; a constant non-zero level means the gate is off centre. */
+/** Half-period difference (long − short, by pass side) over time; a level away from zero means the gate is off centre. */
 export function alternationPlot(s: PlotSeries): string {
   const h = s.halfPeriodAlternation;
   if (h.t_s.length === 0) return noData('no half-periods: the run needs consecutive passes in both directions.');
@@ -19,7 +19,7 @@ export function alternationPlot(s: PlotSeries): string {
         include: 0,
         series: [
           { kind: 'hline', label: '', y: 0, tone: 4 },
-          { kind: 'points', label: 'difference of neighbouring half-periods', x: h.t_s.map((v) => v / tu.div), y: h.diff_s.map((v) => v * u.mul), shape: 'triangle', tone: 1 },
+          { kind: 'points', label: 'half-period difference, long − short', x: h.t_s.map((v) => v / tu.div), y: h.diff_s.map((v) => v * u.mul), shape: 'triangle', tone: 1 },
         ],
       },
     ],
