@@ -112,8 +112,12 @@ export class FakePort {
     while (this.device.onCommand && (lf = this.written.indexOf('\n')) >= 0) {
       const cmd = this.written.slice(0, lf);
       this.written = this.written.slice(lf + 1);
-      const replies = this.device.onCommand(cmd);
-      if (replies.length > 0) setImmediate(() => this.isOpen && this.emit(replies.map((l) => `${l}\n`).join('')));
+      const answer = this.device.onCommand;
+      // Replies are made when they are sent, so their seq follows whatever the test emitted meanwhile.
+      setImmediate(() => {
+        const replies = answer(cmd);
+        if (replies.length > 0 && this.isOpen) this.emit(replies.map((l) => `${l}\n`).join(''));
+      });
     }
   }
 

@@ -1,6 +1,8 @@
 // The far end of a pty for recorder tests: socat makes the pty, this process plays the board on socat's stdio.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, rmSync } from 'node:fs';
+import { closeSync, existsSync, openSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { once } from 'node:events';
 
 /** True when socat is on PATH. Pty tests must fail, not skip, when it is missing under CI=true. */
@@ -12,7 +14,13 @@ export function haveSocat(): boolean {
 export function ptyTestsEnabled(): boolean {
   if (haveSocat()) return true;
   if (process.env.CI === 'true') throw new Error('socat is missing and CI=true: pty tests must run (apt-get install socat)');
-  process.stderr.write('skipping pty recorder tests: socat is not installed (apt-get install socat)\n');
+  // Several test files ask; the run (their common parent process) prints the line once.
+  try {
+    closeSync(openSync(join(tmpdir(), `halfswing-no-socat-${process.ppid}`), 'wx'));
+    process.stderr.write('skipping pty recorder tests: socat is not installed (apt-get install socat)\n');
+  } catch {
+    // already said
+  }
   return false;
 }
 

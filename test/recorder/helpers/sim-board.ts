@@ -11,6 +11,8 @@ export class SimBoard {
   dropped = 0;
   private cable: PtyCable | undefined;
   private simT = 0;
+  private gate: Promise<void> | undefined;
+  private openGate: (() => void) | undefined;
 
   constructor(
     scenario: Scenario,
@@ -31,6 +33,18 @@ export class SimBoard {
     this.cable = undefined;
   }
 
+  /** Holds the board's output after the line in flight (the model's time stands still too). */
+  pause(): void {
+    this.gate ??= new Promise((r) => (this.openGate = r));
+  }
+
+  resume(): void {
+    const open = this.openGate;
+    this.gate = undefined;
+    this.openGate = undefined;
+    open?.();
+  }
+
   /** The board's clock: host seconds of the last line it produced. */
   get now(): number {
     return this.simT;
@@ -42,6 +56,7 @@ export class SimBoard {
    */
   async run(untilS = Infinity, between?: (i: number) => string | Buffer | undefined): Promise<void> {
     for (;;) {
+      if (this.gate) await this.gate;
       const due = this.device.peekTime();
       if (due === Infinity || due >= untilS) return;
       const waitMs = ((due - this.simT) * 1000) / this.speed;
