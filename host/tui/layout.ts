@@ -34,22 +34,23 @@ function itemsWidth(items: readonly { label: string; value: string }[]): number 
 }
 
 /**
- * Fits `label value` items, joined by ` · `, into one line of `width` columns: the longest value (a path,
- * usually) loses its beginning first, marked with `…`, so the end of a path stays readable.
+ * Fits `label value` items, joined by ` · `, into one line of `width` columns. Values marked `shrink` (paths)
+ * lose their beginning first, marked with `…`, so the end of a path stays readable; then items drop from the end.
  */
-export function fitItems<T extends { label: string; value: string }>(items: readonly T[], width: number): T[] {
+export function fitItems<T extends { label: string; value: string; shrink?: boolean }>(items: readonly T[], width: number): T[] {
   const out = items.map((it) => ({ ...it }));
-  for (let guard = 0; guard < 200 && itemsWidth(out) > width; guard++) {
-    const longest = out.reduce((best, it, i) => ([...it.value].length > [...out[best]!.value].length ? i : best), 0);
-    const it = out[longest]!;
-    const chars = [...it.value];
+  const len = (v: string): number => [...v].length;
+  for (let guard = 0; guard < 200 && out.length > 0 && itemsWidth(out) > width; guard++) {
     const over = itemsWidth(out) - width;
-    if (chars.length <= 4) {
+    const candidates = out.map((it, i) => [it, i] as const).filter(([it]) => it.shrink && len(it.value) > 8);
+    if (candidates.length === 0) {
       out.pop();
       continue;
     }
-    const keep = Math.max(3, chars.length - over - 1);
-    out[longest] = { ...it, value: `…${chars.slice(chars.length - keep).join('')}` };
+    const [it, i] = candidates.reduce((a, b) => (len(b[0].value) > len(a[0].value) ? b : a));
+    const chars = [...it.value];
+    const keep = Math.max(7, chars.length - over - 1);
+    out[i] = { ...it, value: `…${chars.slice(chars.length - keep).join('')}`, shrink: keep > 7 };
   }
   return out;
 }

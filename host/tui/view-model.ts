@@ -31,8 +31,10 @@ export interface StatusItem {
   readonly label: string;
   readonly value: string;
   readonly tone: Tone;
-  /** First status line (where from, device, link) or second (clock, time, journal). */
+  /** First status line (where from, device) or second (link, clock, time, journal). */
   readonly line: 1 | 2;
+  /** A path that may lose its beginning when the line is too narrow. */
+  readonly shrink?: boolean;
 }
 
 export interface NumberRow {
@@ -74,21 +76,21 @@ function connectionItem(feed: FeedStatus): StatusItem {
   const c = feed.connection;
   switch (c.kind) {
     case 'simulated':
-      return { label: 'link', value: 'simulated', tone: 'good', line: 1 };
+      return { label: 'link', value: 'simulated', tone: 'good', line: 2 };
     case 'opening':
-      return { label: 'link', value: 'opening port', tone: 'accent', line: 1 };
+      return { label: 'link', value: 'opening port', tone: 'accent', line: 2 };
     case 'waiting-hello':
-      return { label: 'link', value: 'waiting for hello', tone: 'accent', line: 1 };
+      return { label: 'link', value: 'waiting for hello', tone: 'accent', line: 2 };
     case 'connected':
-      return { label: 'link', value: 'connected', tone: 'good', line: 1 };
+      return { label: 'link', value: 'connected', tone: 'good', line: 2 };
     case 'reconnecting':
-      return { label: 'link', value: `reconnecting (try ${c.retries})`, tone: 'bad', line: 1 };
+      return { label: 'link', value: `reconnecting (try ${c.retries})`, tone: 'bad', line: 2 };
     case 'following':
-      return { label: 'mode', value: 'following the file', tone: 'good', line: 1 };
+      return { label: 'mode', value: 'following the file', tone: 'good', line: 2 };
     case 'replaying':
-      return { label: 'mode', value: 'replaying', tone: 'good', line: 1 };
+      return { label: 'mode', value: 'replaying', tone: 'good', line: 2 };
     case 'ended':
-      return { label: feed.sourceKind === 'watch' ? 'mode' : 'link', value: `ended: ${c.why}`, tone: 'muted', line: 1 };
+      return { label: feed.sourceKind === 'watch' ? 'mode' : 'link', value: `ended: ${c.why}`, tone: 'muted', line: 2 };
   }
 }
 
@@ -146,10 +148,11 @@ export function buildViewModel(input: ViewInput): ViewModel {
   const watching = feed.sourceKind === 'watch';
   const source = watching && feed.journal ? `${feed.sourceLabel} (${formatBytes(feed.journal.bytes)})` : feed.sourceLabel;
   const status: StatusItem[] = [
-    { label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: source, tone: 'accent', line: 1 },
+    { label: feed.sourceKind === 'demo' ? 'scenario' : feed.sourceKind === 'live' ? 'port' : 'journal', value: source, tone: 'accent', line: 1, shrink: true },
   ];
   if (feed.speed !== null) status.push({ label: 'speed', value: formatSpeed(feed.speed), tone: feed.speed === 1 ? 'normal' : 'accent', line: 1 });
-  status.push({ label: 'device', value: hello ? `fw ${hello.fw}, protocol ${hello.proto}` : 'no hello yet', tone: hello ? 'normal' : 'muted', line: 1 });
+  if (hello) status.push({ label: 'fw', value: hello.fw, tone: 'normal', line: 1 }, { label: 'protocol', value: String(hello.proto), tone: 'normal', line: 1 });
+  else status.push({ label: 'device', value: 'no hello yet', tone: 'muted', line: 1 });
   status.push(connectionItem(feed));
   status.push({
     label: 'clock',
@@ -162,7 +165,7 @@ export function buildViewModel(input: ViewInput): ViewModel {
   if (!watching)
     status.push(
       feed.journal
-        ? { label: 'journal', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal', line: 2 }
+        ? { label: 'journal', value: `${feed.journal.path} (${formatBytes(feed.journal.bytes)})`, tone: 'normal', line: 2, shrink: true }
         : { label: 'journal', value: 'none', tone: 'muted', line: 2 },
     );
 

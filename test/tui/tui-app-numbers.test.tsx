@@ -74,7 +74,7 @@ describe('live screen numbers', () => {
     const top = f.split('\n').slice(0, 2).join('\n');
     expect(top).toContain('scenario demo-low-q');
     expect(top).toContain('speed ×5');
-    expect(top).toContain(`fw ${rec.snapshot.live.hello!.fw}, protocol ${rec.snapshot.live.hello!.proto}`);
+    expect(top).toContain(`fw ${rec.snapshot.live.hello!.fw} · protocol ${rec.snapshot.live.hello!.proto}`);
     expect(top).toContain('link simulated');
     expect(top).toMatch(/clock [+-]?\d/);
     expect(top).toContain(`run ${formatDuration(rec.snapshot.lastHost_s!)}`);

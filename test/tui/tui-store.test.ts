@@ -1,0 +1,118 @@
+// The view's store: the same numbers as `analyze` for the same lines, throttled publishing, and restarting the estimates.
+import { describe, expect, it } from 'vitest';
+import { loadScenario, simulateJournal } from '../../sim/index.ts';
+import { parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
+import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';
+import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
+import { createLiveStore, medianSpacing, type PipelineLike } from '../../host/tui/live-store.ts';
+
+function journal(seconds: number, scenario = 'demo-low-q', seed = 7): { entries: JournalEntry[]; T0: number } {
+  const { lines, truth } = simulateJournal(loadScenario(scenario), { seed, durationS: seconds });
+  return { entries: [...lines].map(parseJournalLine), T0: truth.physics.T0_s };
+}
+
+/** A hand-driven interval timer and clock. */
+function manualTime() {
+  let fn: (() => void) | null = null;
+  const t = { now: 0, ticks: 0 };
+  return {
+    t,
+    timers: { setInterval: (f: () => void) => ((fn = f), 1), clearInterval: () => (fn = null) },
+    advance(ms: number) {
+      t.now += ms;
+      t.ticks++;
+      fn?.();
+    },
+  };
+}
+
+describe('live store', () => {
+  it('ends with exactly the analysis `analyze` gives for the same entries', () => {
+    const { entries, T0 } = journal(600);
+    const m = manualTime();
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
+    entries.forEach((e, i) => {
+      store.push(e);
+      if (i % 50 === 0) m.advance(100);
+    });
+    store.flush();
+    const shown = store.getSnapshot().result;
+    expect(shown).toEqual(analyzeEntries(entries));
+    // And it is the right pendulum: T0 within 1e-4 of the simulator's truth.
+    expect(Math.abs(shown.T0_s! / T0 - 1)).toBeLessThan(1e-4);
+  });
+
+  it('publishes at most once per timer tick and recomputes the full result at most twice a second', () => {
+    const { entries } = journal(300);
+    const m = manualTime();
+    let results = 0;
+    const counting = (): PipelineLike => {
+      const p = createRunPipeline();
+      return { push: (e) => p.push(e), live: (n) => p.live(n), result: () => (results++, p.result()) };
+    };
+    const store = createLiveStore({ createPipeline: counting, nowMs: () => m.t.now, timers: m.timers, liveHz: 10, resultHz: 2 });
+    let publishes = 0;
+    store.subscribe(() => publishes++);
+    const before = results;
+    entries.forEach((e, i) => {
+      store.push(e);
+      if (i % 10 === 0) m.advance(100);
+    });
+    // Every tick publishes (lines keep coming) but no more often; 10 ticks per second and ≤ 2 results.
+    expect(publishes).toBeLessThanOrEqual(m.t.ticks);
+    expect(results - before).toBeLessThanOrEqual(Math.ceil(m.t.now / 500) + 1);
+    expect(results - before).toBeGreaterThan(0);
+  });
+
+  it('keeps publishing while nothing arrives, so time-based warnings can appear', () => {
+    const m = manualTime();
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
+    let publishes = 0;
+    store.subscribe(() => publishes++);
+    for (let i = 0; i < 50; i++) m.advance(100);
+    expect(publishes).toBeGreaterThanOrEqual(4);
+    expect(publishes).toBeLessThanOrEqual(6);
+  });
+
+  it('restarts the estimates from now, keeping the run-wide health counts', () => {
+    const { entries } = journal(600, 'night-run-faults', 3);
+    const m = manualTime();
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
+    const half = Math.floor(entries.length / 2);
+    entries.slice(0, half).forEach((e) => store.push(e));
+    store.flush();
+    const before = store.getSnapshot();
+    store.restart();
+    entries.slice(half).forEach((e) => store.push(e));
+    store.flush();
+    const after = store.getSnapshot();
+    const whole = analyzeEntries(entries);
+    expect(after.restartedAt_s).toBeCloseTo(before.lastHost_s!, 9);
+    // Only the second half's passes are in the estimates, and T0 is still the pendulum's.
+    expect(after.result.passes).toBeLessThan(whole.passes * 0.6);
+    expect(after.result.passes).toBeGreaterThan(whole.passes * 0.4);
+    expect(Math.abs(after.result.T0_s! / whole.T0_s! - 1)).toBeLessThan(1e-3);
+    // The device, link and line counts are those of the whole run.
+    expect(after.live.counts.crc_errors).toBe(whole.counts.crc_errors);
+    expect(after.live.counts.bad_lines).toBe(whole.counts.bad_lines);
+    expect(after.live.hello).toEqual(before.live.hello);
+  });
+
+  it('knows the rig from the journal and the heartbeat spacing from the lines', () => {
+    const { entries } = journal(60);
+    const m = manualTime();
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
+    entries.forEach((e) => store.push(e));
+    store.flush();
+    const s = store.getSnapshot();
+    expect(s.rig?.length_m).toBe(loadScenario('demo-low-q').rig.length_m);
+    // The device sends one heartbeat per second of device time (protocol/SPEC.md §4.3), on a clock within ±1 %.
+    expect(s.heartbeatInterval_s!).toBeGreaterThan(0.99);
+    expect(s.heartbeatInterval_s!).toBeLessThan(1.01);
+  });
+
+  it('takes the median spacing, so one lost heartbeat does not double it', () => {
+    expect(medianSpacing([0, 1, 2, 4, 5, 6])).toBe(1);
+    expect(medianSpacing([3])).toBeNull();
+  });
+});
