@@ -1,6 +1,8 @@
 // The benchmarks in the order `npm run bench` runs them.
 import type { Benchmark } from './benchmark.ts';
+import { estimator } from './estimator.ts';
 import { firmwareTiming } from './firmware-timing.ts';
 import { ingest } from './ingest.ts';
+import { simulatorSpeed } from './simulator-speed.ts';
 
-export const BENCHMARKS: readonly Benchmark[] = [ingest, firmwareTiming];
+export const BENCHMARKS: readonly Benchmark[] = [ingest, simulatorSpeed, firmwareTiming, estimator];

@@ -79,3 +79,45 @@ export function seededNormal(seed: number): () => number {
   const u = seededUniform(seed);
   return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
 }
+
+/**
+ * Least-squares fit of pass times t_k = a + b·k + c·(−1)^k (a gate off the lowest point makes consecutive
+ * half-periods alternate long and short); returns the half-period b.
+ */
+export function fitHalfPeriod(k: readonly number[], t: readonly number[]): number {
+  // Normal equations of the three-parameter model (centred, so the intercept drops out of b and c).
+  const mk = mean(k);
+  const mt = mean(t);
+  let n = 0;
+  let sa = 0; // Σ alt
+  let skk = 0;
+  let ska = 0;
+  let saa = 0;
+  let sky = 0;
+  let say = 0;
+  let sy = 0;
+  for (let i = 0; i < k.length; i++) {
+    const x = k[i]! - mk;
+    const alt = k[i]! % 2 === 0 ? 1 : -1;
+    const y = t[i]! - mt;
+    n++;
+    sa += alt;
+    skk += x * x;
+    ska += x * alt;
+    saa += alt * alt;
+    sky += x * y;
+    say += alt * y;
+    sy += y;
+  }
+  // Unknowns (a, b, c) with columns 1, x, alt; Σx = 0 by centring.
+  const m = [
+    [n, 0, sa],
+    [0, skk, ska],
+    [sa, ska, saa],
+  ] as const;
+  const r = [sy, sky, say] as const;
+  const det3 = (c0: readonly number[], c1: readonly number[], c2: readonly number[]): number =>
+    c0[0]! * (c1[1]! * c2[2]! - c2[1]! * c1[2]!) - c1[0]! * (c0[1]! * c2[2]! - c2[1]! * c0[2]!) + c2[0]! * (c0[1]! * c1[2]! - c1[1]! * c0[2]!);
+  const col = (j: number): number[] => [m[0][j]!, m[1][j]!, m[2][j]!];
+  return det3(col(0), [...r], col(2)) / det3(col(0), col(1), col(2));
+}
