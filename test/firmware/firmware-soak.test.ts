@@ -13,12 +13,12 @@ describeFirmware('soak at the default baud', () => {
     const rnd = seededRandom(9);
     // An E line is about 24 bytes: 25 000 bytes/s at 250 kbaud carry ~1000 lines/s; send ~750 edges/s.
     const edges: FirmwareEdge[] = [];
-    const levels = [0, 0];
+    const levels: [number, number] = [0, 0];
     let t = 0.2;
     for (let i = 0; i < 4000; i++) {
       t += 0.0008 + rnd() * 0.0010;
       const ch = (rnd() < 0.5 ? 0 : 1) as 0 | 1;
-      levels[ch] ^= 1;
+      levels[ch] = levels[ch] ? 0 : 1;
       edges.push({ t_s: t, ch, level: levels[ch] as 0 | 1 });
     }
     const commands = Array.from({ length: 20 }, (_, i) => ({ t_s: 0.3 + i * 0.25, text: i % 2 ? '?\n' : 'C 3\n' }));
