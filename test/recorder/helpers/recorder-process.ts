@@ -16,9 +16,15 @@ export interface RecorderChild {
   peakRssKb(): number | undefined;
 }
 
-/** Starts the recorder; its stdin is /dev/null-less: closed ('ignore'). */
-export function startRecorder(args: string[], env: NodeJS.ProcessEnv = {}): RecorderChild {
-  const proc = spawn(process.execPath, [BIN, 'record', ...args], { stdio: ['ignore', 'pipe', 'pipe'], env: { ...process.env, ...env } });
+/**
+ * Starts the recorder with no terminal: stdin is /dev/null, or with `closedStdin` not open at all (the shell's
+ * `<&-`), as some service managers leave it.
+ */
+export function startRecorder(args: string[], opts: { closedStdin?: boolean } = {}): RecorderChild {
+  const argv = [BIN, 'record', ...args];
+  const proc = opts.closedStdin
+    ? spawn('sh', ['-c', 'exec "$0" "$@" <&-', process.execPath, ...argv], { stdio: ['ignore', 'pipe', 'pipe'] })
+    : spawn(process.execPath, argv, { stdio: ['ignore', 'pipe', 'pipe'] });
   let err = '';
   proc.stderr!.setEncoding('utf8');
   proc.stderr!.on('data', (d: string) => (err += d));
