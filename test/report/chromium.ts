@@ -2,14 +2,17 @@
 import { execFile } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { delimiter, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 
-const CANDIDATES = ['/usr/bin/chromium', '/usr/bin/chromium-browser', '/usr/bin/google-chrome'];
+const NAMES = ['chromium', 'chromium-browser', 'google-chrome'];
 
-/** The browser binary, or null when none is installed. */
+/** The browser binary found on PATH (Debian's package installs `chromium`), or null when none is installed. */
 export function findChromium(): string | null {
-  return CANDIDATES.find((p) => existsSync(p)) ?? null;
+  for (const dir of (process.env.PATH ?? '').split(delimiter).filter(Boolean)) {
+    for (const n of NAMES) if (existsSync(join(dir, n))) return join(dir, n);
+  }
+  return null;
 }
 
 // Everything that could reach a network is off: the machine has none, and a report must not need one.
