@@ -78,7 +78,7 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
     else if (e.kind === 'note') opts.feed.note?.(e.text).catch((err: unknown) => opts.stderr.write(`halfswing: note not written: ${(err as Error).message}\n`));
   };
 
-  const pumping = pump(opts.feed.entries, (e) => store.push(e)).then(
+  void pump(opts.feed.entries, (e) => store.push(e)).then(
     () => {
       ended = { kind: 'ended', why: 'end of input' };
       store.flush();
@@ -128,7 +128,6 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
   const code = await done;
   offSignal();
   if (!interactive) opts.stdout.write(`${plainStatusLine(vmNow())}\n`);
-  void pumping;
   if (failure) throw failure;
   return code;
 }
