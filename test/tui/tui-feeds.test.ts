@@ -5,12 +5,12 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { followJournal } from '../../host/journal/follow-journal.ts';
 import { openJournalWriter } from '../../host/journal/journal-writer.ts';
-import type { DeviceLink, LinkEvent } from '../../host/link/device-link.ts';
+import type { LinkEvent } from '../../host/link/device-link.ts';
 import { encodeRecord } from '../../protocol/encode.ts';
 import { JOURNAL_MAGIC, parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import type { HelloRecord } from '../../protocol/records.ts';
 import { journalFeed } from '../../host/tui/feeds/journal-feed.ts';
-import { deviceFeed } from '../../host/tui/feeds/device-feed.ts';
+import { deviceFeed, type FeedLink } from '../../host/tui/feeds/device-feed.ts';
 
 const tmp = (): string => mkdtempSync(join(tmpdir(), 'halfswing-tui-feed-'));
 const hello: HelloRecord = { kind: 'H', seq: 0, proto: 1, fw: '0.1.0', mcu: 'm328p', hz: 16_000_000, ch: 2, boot: 0x0a3f, extra: {} };
@@ -52,11 +52,9 @@ function fakeLink() {
   const listeners: ((e: LinkEvent) => void)[] = [];
   let resolveReady!: (h: HelloRecord) => void;
   let closed = false;
-  const link: DeviceLink & { emit(e: LinkEvent): void; closed(): boolean } = {
+  const link: FeedLink & { emit(e: LinkEvent): void; closed(): boolean } = {
     ready: new Promise((r) => (resolveReady = r)),
     onEvent: (fn) => void listeners.push(fn),
-    send: async () => {},
-    stats: () => ({ bytes: 0, lines: 0, validLines: 0, lineErrors: 0, overLong: 0, tailsDiscarded: 0, reconnects: 0, heartbeatMs: 1000 }),
     path: () => '/dev/ttyFAKE0',
     async close() {
       if (closed) return;
@@ -65,9 +63,6 @@ function fakeLink() {
     },
     emit: (e) => listeners.forEach((fn) => fn(e)),
     closed: () => closed,
-    [Symbol.asyncIterator]: () => {
-      throw new Error('the feed subscribes, it does not iterate');
-    },
   };
   return { link, resolveReady };
 }

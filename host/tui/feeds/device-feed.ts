@@ -4,8 +4,11 @@ import type { DeviceLink, LinkEvent } from '../../link/device-link.ts';
 import type { JournalWriter } from '../../journal/journal-writer.ts';
 import type { ConnectionState, Feed, FeedStatus } from '../feed.ts';
 
+/** The part of the device link the feed uses. */
+export type FeedLink = Pick<DeviceLink, 'ready' | 'onEvent' | 'path' | 'close'>;
+
 export interface DeviceFeedOptions {
-  readonly link: DeviceLink;
+  readonly link: FeedLink;
   readonly writer: JournalWriter;
   /** The link's clock: µs since this journal block's `#start`. */
   readonly nowUs: () => number;
