@@ -67,7 +67,7 @@ function prepare(base: Scenario, opts: SimOptions): Run {
       boots: [],
     },
     swings: { stride, t_s: [], theta_rad: [] },
-    passes: { stride, enter_s: [], exit_s: [] },
+    passes: { stride, enter_s: [], exit_s: [], amplitude_rad: [] },
     release_host_s: t0,
     final: { t_s: 0, amplitude_rad: phys.release_rad, at_rest: false },
     faults: { schedule, counts },
@@ -86,7 +86,10 @@ function prepare(base: Scenario, opts: SimOptions): Run {
     } else if (e.kind === 'rest') truth.final = { t_s: e.t, amplitude_rad: e.theta, at_rest: true };
     else if (e.kind === 'enter') {
       exitWanted = enters++ % stride === 0;
-      if (exitWanted) truth.passes.enter_s.push(e.t);
+      if (exitWanted) {
+        truth.passes.enter_s.push(e.t);
+        truth.passes.amplitude_rad.push(truth.final.amplitude_rad);
+      }
     } else if (exitWanted) {
       truth.passes.exit_s.push(e.t);
       exitWanted = false;

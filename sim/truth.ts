@@ -71,8 +71,12 @@ export interface Truth {
   };
   /** Turning points (t since release = host seconds − release_host_s, signed amplitude), every `stride`-th. */
   readonly swings: { stride: number; t_s: number[]; theta_rad: number[] };
-  /** Bob entries into and exits from the beam zone (before sensor delays), every `stride`-th pair. */
-  readonly passes: { stride: number; enter_s: number[]; exit_s: number[] };
+  /**
+   * Bob entries into and exits from the beam zone (time since release, before sensor delays), every
+   * `stride`-th pair, with the signed amplitude of the turning point the bob swung from. A run that ends
+   * during a pass has one more entry than exits.
+   */
+  readonly passes: { stride: number; enter_s: number[]; exit_s: number[]; amplitude_rad: number[] };
   /** Host seconds since #start at which the bob was released (true time 0 of the swing). */
   readonly release_host_s: number;
   final: { t_s: number; amplitude_rad: number; at_rest: boolean };
