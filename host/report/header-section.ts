@@ -35,6 +35,17 @@ function rigRows(rig: Rig): string[] {
   return rows;
 }
 
+// In-page links only (fragments), so they work offline and in a saved copy.
+const TOC: readonly (readonly [string, string])[] = [
+  ['result', 'Result'],
+  ['details', 'Further results'],
+  ['plots', 'Plots'],
+  ['budget', 'Uncertainty budget'],
+  ['corrections', 'Corrections'],
+  ['counts', 'Faults'],
+  ['warnings', 'Warnings'],
+];
+
 /** The page header with the run facts and the journal's identity. */
 export function headerSection(r: AnalysisResult, meta: ReportMeta): string {
   const name = meta.rig?.name;
@@ -43,7 +54,7 @@ export function headerSection(r: AnalysisResult, meta: ReportMeta): string {
     row('duration', esc(duration(r.run.duration_s)), 'duration'),
     row('source', r.run.source !== null ? esc(r.run.source) : '<span class="muted">not recorded</span>', 'source'),
     row('firmware', r.run.firmware !== null ? esc(r.run.firmware) : '<span class="muted">no hello line seen</span>', 'firmware'),
-    row('nominal tick rate', r.run.hz_nominal !== null ? `${esc(sig(r.run.hz_nominal / 1e6, 6))} MHz` : '<span class="muted">unknown</span>'),
+    row('nominal tick rate', r.run.hz_nominal !== null ? `${esc(String(Number((r.run.hz_nominal / 1e6).toPrecision(9))))} MHz` : '<span class="muted">unknown</span>'),
     row('journal', `<code data-key="journal">${esc(meta.journalName)}</code>`),
     row('SHA-256', `<code class="hash" data-key="sha256">${esc(meta.journalSha256)}</code>`),
   ];
@@ -53,6 +64,7 @@ export function headerSection(r: AnalysisResult, meta: ReportMeta): string {
   return (
     `<header class="top"><p class="kicker">halfswing · pendulum run report</p>` +
     `<h1>${name ? esc(name) : 'Pendulum run'}</h1>` +
+    `<nav class="toc">${TOC.map(([id, t]) => `<a href="#${id}">${t}</a>`).join(' ')}</nav>` +
     `<div class="cols"><section class="card" id="run"><h2>Run</h2><dl class="facts">${run.join('')}</dl></section>` +
     `<section class="card" id="rig"><h2>Rig</h2>${rig}</section></div></header>`
   );

@@ -80,6 +80,11 @@ export function detailsTable(r: AnalysisResult): string {
     add('amplitude change per mm of flag width', `${esc(sig(sens.per_width_deg_per_mm, 2))}°/mm`, at);
     add('amplitude change per µs of on/off delay difference', `${esc(sig(sens.per_delay_difference_deg_per_us, 2))}°/µs`, at);
   }
+  add(
+    'edge cleaning',
+    `blocks under ${esc(sig(r.settings.glitch_s * 1e6, 3))} µs dropped; gaps under ${esc(sig(r.settings.bounce_s * 1e6, 3))} µs merged`,
+    'glitch and bounce limits used',
+  );
   add('passes used / full periods', `${num('passes', String(r.passes))} / ${num('periods', String(r.periods))}`);
   return (
     `<section id="details"><h2>Further results</h2><table class="tbl"><tbody>` +

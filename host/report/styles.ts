@@ -6,6 +6,8 @@ html{background:#e9ecef}
 body{margin:0 auto;max-width:960px;background:var(--paper);color:var(--ink);font:15px/1.45 "DejaVu Sans","Segoe UI",system-ui,sans-serif;padding:28px 40px 40px}
 h1{font:600 30px/1.15 "DejaVu Serif",Georgia,serif;margin:2px 0 18px;letter-spacing:-.01em}
 h2{font:600 13px/1.2 "DejaVu Sans",system-ui,sans-serif;text-transform:uppercase;letter-spacing:.12em;color:var(--muted);margin:28px 0 10px;padding-bottom:5px;border-bottom:1px solid var(--rule)}
+.toc{margin:-8px 0 18px;font-size:13px}
+.toc a{margin-right:14px;text-decoration:none;border-bottom:1px solid var(--rule)}
 .kicker{margin:0;font-size:12px;letter-spacing:.14em;text-transform:uppercase;color:var(--t2);font-weight:600}
 .cols{display:grid;grid-template-columns:1fr 1fr;gap:20px}
 .card h2{margin-top:0}
@@ -88,7 +90,7 @@ svg.chart{font-family:"DejaVu Sans",system-ui,sans-serif}
   body{max-width:none;padding:0;font-size:10pt}
   h1{font-size:20pt}
   .result{background:none}
-  .toggle,.toggle-l{display:none}
+  .toggle,.toggle-l,.toc{display:none}
   *{-webkit-print-color-adjust:exact;print-color-adjust:exact}
   section,.fig,.count,tr{break-inside:avoid;page-break-inside:avoid}
   h2{break-after:avoid;page-break-after:avoid}

@@ -30,6 +30,9 @@ describe('report page', () => {
     expect(html.match(/<figure /g)).toHaveLength(6);
     expect(html.match(/<svg xmlns="http:\/\/www.w3.org\/2000\/svg" class="chart"/g)).toHaveLength(7);
     expect(html).toContain('<a href="./bench-a.csv"');
+    const targets = [...html.matchAll(/href="#([^"]+)"/g)].map((m) => m[1]!);
+    expect(targets.length).toBeGreaterThanOrEqual(7);
+    for (const t of targets) expect(html.includes(`id="${t}"`), `link target #${t}`).toBe(true);
     expect(html).not.toContain('id="missing"');
   });
 
