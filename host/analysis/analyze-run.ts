@@ -129,22 +129,32 @@ export function analyzeRun(d: RunData): AnalysisResult {
   };
   let keep: Uint8Array = new Uint8Array(P.length).fill(1);
   if (T0 !== null && rig) {
-    // A first T0 from a subsample of ≤ ~2000 periods, then every amplitude with ω0 = 2π/T0 and the final T0.
-    // One more round would move T0 by ~1e-8 relative (the amplitude depends on ω0 only weakly).
+    // ω0 = 2π/T0 enters the amplitudes, which enter T0: a fixed point that converges by a factor of about
+    // −θ0²/24 per round (−0.15 at 60°). Iterate it to convergence on a subsample of ≤ ~2000 periods first,
+    // then compute every amplitude, and repeat on all periods only while T0 still moves by more than 1e-9.
     const stride = Math.max(1, Math.floor(pIdx.length / 2000));
-    fillAmplitudes(T0, stride);
-    const sub: number[] = [];
-    for (let k = 0; k < pIdx.length; k += stride) sub.push(P[k]! / periodRatio(pAmp[k]!));
-    const subKeep = clipMask(sub).keep;
-    const t1 = maskedMean(sub, subKeep);
-    if (Number.isFinite(t1)) T0 = t1;
-    fillAmplitudes(T0, 1);
-    P0 = reducePeriods(P, pAmp);
-    const cm = clipMask(P0);
-    keep = cm.keep;
-    clipped = cm.clipped;
-    const t2 = maskedMean(P0, keep);
-    if (Number.isFinite(t2)) T0 = t2;
+    for (let iter = 0; iter < 60; iter++) {
+      fillAmplitudes(T0, stride);
+      const sub: number[] = [];
+      for (let k = 0; k < pIdx.length; k += stride) sub.push(P[k]! / periodRatio(pAmp[k]!));
+      const t1 = maskedMean(sub, clipMask(sub).keep);
+      if (!Number.isFinite(t1)) break;
+      const moved = Math.abs(t1 - T0) / T0;
+      T0 = t1;
+      if (moved < 1e-12) break;
+    }
+    for (let iter = 0; iter < 5; iter++) {
+      fillAmplitudes(T0, 1);
+      P0 = reducePeriods(P, pAmp);
+      const cm = clipMask(P0);
+      keep = cm.keep;
+      clipped = cm.clipped;
+      const t2 = maskedMean(P0, keep);
+      if (!Number.isFinite(t2)) break;
+      const moved = Math.abs(t2 - T0) / T0;
+      T0 = t2;
+      if (moved < 1e-9) break;
+    }
   } else if (T0 !== null) {
     const cm = clipMask(P);
     keep = cm.keep;
