@@ -2,7 +2,9 @@
 import type { Benchmark } from './benchmark.ts';
 import { estimator } from './estimator.ts';
 import { firmwareTiming } from './firmware-timing.ts';
+import { handTiming } from './hand-timing.ts';
 import { ingest } from './ingest.ts';
+import { live } from './live.ts';
 import { simulatorSpeed } from './simulator-speed.ts';
 
-export const BENCHMARKS: readonly Benchmark[] = [ingest, simulatorSpeed, firmwareTiming, estimator];
+export const BENCHMARKS: readonly Benchmark[] = [ingest, live, simulatorSpeed, firmwareTiming, estimator, handTiming];
