@@ -4,7 +4,7 @@ import { decodeLine } from '../../protocol/decode.ts';
 import type { AnnotationWord } from '../../protocol/journal.ts';
 import type { HelloRecord } from '../../protocol/records.ts';
 import { UserError } from '../cli/errors.ts';
-import { DEFAULT_BAUD } from './baud.ts';
+import { DEFAULT_BAUD, HEARTBEAT_DEFAULT_MS } from '../../protocol/link-defaults.ts';
 import { LineFramer } from './line-framer.ts';
 import { monotonicClock, type MicrosClock } from './monotonic-clock.ts';
 import { openErrorMessage } from './open-errors.ts';
@@ -135,7 +135,7 @@ class Link implements DeviceLink {
     this.baud = opts.baud ?? DEFAULT_BAUD;
     this.helloTimeoutMs = opts.helloTimeoutMs ?? 5000;
     this.helloNudgeMs = opts.helloNudgeMs ?? Math.min(1500, this.helloTimeoutMs / 4);
-    this.heartbeatMs = opts.heartbeatMs ?? 1000;
+    this.heartbeatMs = opts.heartbeatMs ?? HEARTBEAT_DEFAULT_MS;
     this.backoff = { first: opts.backoffMs?.first ?? 250, max: opts.backoffMs?.max ?? 10_000 };
     this.highWater = opts.highWater ?? 20_000;
     this.ready = new Promise<HelloRecord>((res, rej) => {

@@ -76,22 +76,20 @@ const withinThreeSigma = (r: { g_m_s2: number | null; g_u_m_s2: number | null },
 describe.skipIf(!enabled)('record over a pty: faults', () => {
   it('cable pulled mid-run and plugged back: one disconnect, one connect, every line before and after journaled, g still right', async () => {
     const { port, journal, rec, board } = await rig(CLEAN, 150);
-    const running = board.run();
-    await waitFor(() => board.now >= 120, 'board at 120 s');
-    board.pause();
+    // Each stretch ends at a board time, so the story is the same however loaded the machine is.
+    await board.run(120);
     await waitFor(() => journalDataLines(journal).length === board.sent.length, 'lines before the pull');
     const before = board.sent.length;
     board.detach();
     await cables[0]!.kill();
     // The board keeps swinging and sending for 20 s while the cable is out; those lines are lost.
-    board.resume();
-    await waitFor(() => board.now >= 140, 'board at 140 s');
-    board.pause();
+    await board.run(140);
     await waitFor(() => journalText(journal).includes(' disconnect '), 'the recorder saw the loss');
     const cable2 = await plug(port);
     board.attach(cable2);
-    board.resume();
-    await running;
+    // The recorder reopens the port and asks '?'; the board answers when it runs on.
+    await waitFor(() => board.commands > 0, 'the recorder back on the port');
+    await board.run();
     await waitFor(() => journalDataLines(journal).length === board.sent.length, 'lines after the replug');
     rec.proc.kill('SIGTERM');
     expect(await rec.exited).toBe(0);
@@ -163,7 +161,8 @@ describe.skipIf(!enabled)('record over a pty: faults', () => {
 
   it('SIGKILL mid-run leaves a journal of whole lines (at most a cut last one) that replays to the numbers of the lines it holds; a re-run appends', async () => {
     const { port, journal, rec, board } = await rig(CLEAN, 150);
-    const running = board.run();
+    // Killed while the board is sending, at some point between 200 s and 250 s of board time.
+    const running = board.run(250);
     await waitFor(() => board.now >= 200, 'board at 200 s');
     rec.proc.kill('SIGKILL');
     await rec.exited;
@@ -195,6 +194,7 @@ describe.skipIf(!enabled)('record over a pty: faults', () => {
     board.device.command(board.now, ask);
     board.resume();
     await running;
+    await board.run();
     // The board said hello long ago: the new recorder's '?' gets a fresh one.
     await waitFor(() => journalText(journal).split('#start').length === 3, 'second section');
     rec2.proc.kill('SIGTERM');

@@ -1,5 +1,5 @@
 // `halfswing probe`: checks a board: hello, reply to '?', heartbeat regularity, line errors, present gate levels.
-import { DEFAULT_BAUD } from '../../link/baud.ts';
+import { DEFAULT_BAUD } from '../../../protocol/link-defaults.ts';
 import { openDeviceLink } from '../../link/device-link.ts';
 import { monotonicClock } from '../../link/monotonic-clock.ts';
 import { formatProbe, probeBoard } from '../../link/probe-report.ts';

@@ -5,7 +5,7 @@ import { openJournalWriter } from '../../journal/journal-writer.ts';
 import { runRecorder } from '../../journal/recorder.ts';
 import { statusLine, type RecorderStatus } from '../../journal/recorder-status.ts';
 import { writeStatusFile } from '../../journal/status-file.ts';
-import { DEFAULT_BAUD } from '../../link/baud.ts';
+import { DEFAULT_BAUD } from '../../../protocol/link-defaults.ts';
 import { openDeviceLink } from '../../link/device-link.ts';
 import { monotonicClock } from '../../link/monotonic-clock.ts';
 import { holdSleepInhibitor } from '../../link/sleep-inhibitor.ts';

@@ -9,6 +9,8 @@ export class SimBoard {
   readonly sent: string[] = [];
   /** Lines the board sent while no cable was attached (lost, as on a pulled cable). */
   dropped = 0;
+  /** Host commands received so far. */
+  commands = 0;
   private cable: PtyCable | undefined;
   private simT = 0;
   private gate: Promise<void> | undefined;
@@ -26,7 +28,10 @@ export class SimBoard {
   attach(cable: PtyCable): void {
     this.cable = cable;
     // Host commands reach the model at the board's current time, as the firmware would see them.
-    cable.onCommand((cmd) => this.device.command(this.simT, cmd));
+    cable.onCommand((cmd) => {
+      this.commands++;
+      this.device.command(this.simT, cmd);
+    });
   }
 
   detach(): void {
