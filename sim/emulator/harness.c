@@ -165,6 +165,20 @@ static void uart_xoff(avr_irq_t *irq, uint32_t value, void *param) {
   rx_xoff = 1;
 }
 
+// Simulated hang of the main loop: the CPU is parked on a `rjmp .` (avr-libc's __stop_program loop) with
+// interrupts still on, as when main spins forever; ISRs keep running, the watchdog is no longer reset.
+static void stall(avr_t *a) {
+  for (uint32_t pc = 0; pc + 1 < a->flashend; pc += 2) {
+    if (a->flash[pc] == 0xff && a->flash[pc + 1] == 0xcf) {
+      a->pc = pc;
+      if (a->state == cpu_Sleeping) a->state = cpu_Running;
+      fprintf(applied_out, "%" PRIu64 " stall\n", (uint64_t)a->cycle);
+      return;
+    }
+  }
+  die("stall: no `rjmp .` in the firmware");
+}
+
 static void no_sleep(avr_t *a, avr_cycle_count_t how_long) {
   (void)a;
   (void)how_long;
@@ -241,7 +255,8 @@ int main(int argc, char **argv) {
   if (!elf || !cycles_s || !uart_path || !applied_path || !info_path) {
     fprintf(stderr,
             "usage: halfswing-emu --elf FILE --cycles N --uart-out FILE --applied-out FILE --info-out FILE\n"
-            "       [--schedule FILE] [--commands FILE] [--uart-times FILE] [--host-baud N] [--no-tifr-fix]\n");
+            "       [--schedule FILE] [--commands FILE] [--uart-times FILE] [--host-baud N] [--no-tifr-fix]\n"
+            "       [--stall-at CYCLE]\n");
     return 2;
   }
   uint64_t max_cycles = strtoull(cycles_s, NULL, 10);
@@ -307,8 +322,16 @@ int main(int argc, char **argv) {
   if (commands_path) read_commands(commands_path);
   if (n_commands) avr_cycle_timer_register(avr, commands[0].cycle ? commands[0].cycle : 1, feed_command, NULL);
 
+  const char *stall_s = arg_value(argc, argv, "--stall-at");
+  uint64_t stall_at = stall_s ? strtoull(stall_s, NULL, 10) : UINT64_MAX;
+
   int state = cpu_Running;
   while (avr->cycle < max_cycles) {
+    // Between instructions (the core overwrites a PC changed from inside a cycle timer).
+    if (avr->cycle >= stall_at) {
+      stall(avr);
+      stall_at = UINT64_MAX;
+    }
     state = avr_run(avr);
     if (state == cpu_Done || state == cpu_Crashed) break;
   }

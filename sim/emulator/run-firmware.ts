@@ -37,6 +37,8 @@ export interface RunFirmwareOptions {
   readonly tifrFix?: boolean;
   /** Host side baud rate for pacing command bytes (default 250000). */
   readonly hostBaud?: number;
+  /** Simulates a hang of the main loop at this emulated time (ISRs keep running): for watchdog tests. */
+  readonly stallAtS?: number;
 }
 
 /** A change as the harness really applied it (simavr applies a change at an instruction boundary). */
@@ -113,6 +115,7 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
       '--host-baud', String(options.hostBaud ?? 250_000),
     ];
     if (options.tifrFix === false) args.push('--no-tifr-fix');
+    if (options.stallAtS !== undefined) args.push('--stall-at', String(toCycle(options.stallAtS)));
     // simavr prints its own messages on stdout; the UART bytes are in their own file.
     await run(HARNESS_BIN, args, { maxBuffer: 16 * 1024 * 1024 });
     const info = JSON.parse(await readFile(files.info, 'utf8')) as HarnessInfo;
@@ -122,7 +125,7 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
     const lineCycles = (await readFile(files.times, 'utf8')).split('\n').filter((s) => s !== '').map(Number);
     const applied = (await readFile(files.applied, 'utf8'))
       .split('\n')
-      .filter((s) => s !== '')
+      .filter((s) => s !== '' && !s.endsWith(' stall'))
       .map((s) => {
         const [cycle, ch, level] = s.split(' ').map(Number);
         return { cycle: cycle!, ch: ch as 0 | 1, level: level as 0 | 1 };

@@ -1,6 +1,7 @@
 // Heartbeats from the tick counter, host commands and their replies, reset cause, watchdog and
 // interrupt sources, as the real firmware does them in the emulator.
 import { beforeAll, expect, it } from 'vitest';
+import { decodeLine } from '../../protocol/decode.ts';
 import type { HelloRecord, ReplyRecord } from '../../protocol/records.ts';
 import { DEFAULT_BAUD, DEFAULT_TICK_HZ } from '../../protocol/link-defaults.ts';
 import { EMULATOR_HZ, runFirmware, type FirmwareRun } from '../../sim/emulator/run-firmware.ts';
@@ -116,6 +117,29 @@ describeFirmware('commands', () => {
     const sec = (t: number): number => t * EMULATOR_HZ - run.timer1StartCycle;
     expect(beats.filter((b) => b.ticks > sec(2.7) && b.ticks < sec(3.6)).every((b) => b.levels === 3)).toBe(true);
     expect(beats.at(-1)!.levels).toBe(1);
+  });
+});
+
+describeFirmware('watchdog', () => {
+  it('resets the board when the main loop hangs: a new hello with rc=8 (WDRF), a new boot id, no reset loop', async () => {
+    const run = await runFirmware({ edges: [], durationS: 5, stallAtS: 1.5 });
+    const records = decodeRun({ ...run, lines: run.lines.slice(0, 2) });
+    expect(records.map((r) => r.kind)).toEqual(['H', 'T']);
+    const after = run.lines.slice(2).map((l) => decodeLine(l));
+    const kinds = after.map((r) => (r.ok ? r.record.kind : 'rejected'));
+    // 1 s watchdog: nothing between the hang and the reset, then a fresh boot that keeps running.
+    expect(kinds[0]).toBe('H');
+    expect(kinds.slice(1).every((k) => k === 'T')).toBe(true);
+    expect(kinds.length).toBeGreaterThanOrEqual(3);
+    const hello = (after[0] as { ok: true; record: HelloRecord }).record;
+    const first = records[0] as HelloRecord;
+    expect(hello.seq).toBe(0);
+    expect(hello.extra).toEqual({ rc: '8' });
+    expect(hello.boot).not.toBe(first.boot);
+    // The reset came between 1 s and 1.1 s after the hang (WDTO_1S; the 128 kHz oscillator, datasheet).
+    const helloAt = run.lineCycles[2]! / run.hz;
+    expect(helloAt - 1.5).toBeGreaterThan(1.0);
+    expect(helloAt - 1.5).toBeLessThan(1.1);
   });
 });
 
