@@ -11,6 +11,12 @@ const run = promisify(execFile);
 /** The emulated part's clock: simavr runs the ATmega328P at 16 MHz, one cycle = one Timer1 tick. */
 export const EMULATOR_HZ = 16_000_000;
 
+/**
+ * Emulated time after reset before the firmware captures edges: the boot id takes two 16 ms watchdog
+ * periods, then the hello goes out and the channels are armed (measured: armed at ~34 ms).
+ */
+export const FIRMWARE_BOOT_S = 0.05;
+
 /** One input level change. `t_s` is emulated time since reset (cycle = round(t_s × 16e6)). */
 export interface FirmwareEdge {
   readonly t_s: number;
