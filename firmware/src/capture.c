@@ -155,6 +155,9 @@ ISR(INT0_vect, ISR_NAKED) {
 
 void __vector_int0_body(void) {
   uint16_t lo = ch1_stamp;
+  // A change after the vector was entered set INTF0 again, but the level read below already includes it:
+  // clear the flag first, so that change is not handled twice. A change after the clear re-raises it.
+  EIFR = _BV(INTF0);
   uint8_t level = CH1_PIN & _BV(CH1_BIT);
   uint32_t hi = upper_bits(lo);
   if (level != ch1_level) {

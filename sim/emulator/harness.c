@@ -82,6 +82,29 @@ static void install_tifr_fix(void) {
   }
 }
 
+// The same for the external interrupt flags (EIFR: INTF0, INTF1), which simavr 1.6 does not clear on a
+// write of one at all: the vector stays pending and runs again.
+#define ADDR_EIFR 0x3c
+static avr_int_vector_t *eifr_vectors[8];
+
+static void eifr_write_one_to_clear(avr_t *a, avr_io_addr_t addr, uint8_t v, void *param) {
+  (void)addr;
+  (void)param;
+  for (int i = 0; i < 8 && eifr_vectors[i]; i++) clear_if_written(a, eifr_vectors[i], v);
+}
+
+static void install_eifr_fix(void) {
+  int n = 0;
+  for (int i = 0; i < 64 && n < 8; i++) {
+    avr_int_vector_t *v = avr->interrupts.vector[i];
+    if (v && v->raised.reg == ADDR_EIFR) eifr_vectors[n++] = v;
+  }
+  if (n == 0) die("no vector flags in EIFR; cannot install the write-one-to-clear fix");
+  int io = AVR_DATA_TO_IO(ADDR_EIFR);
+  avr->io[io].w.c = eifr_write_one_to_clear;
+  avr->io[io].w.param = NULL;
+}
+
 // Records the cycle at which Timer1's clock starts: the firmware's tick 0.
 static void tccr1b_watch(avr_t *a, avr_io_addr_t addr, uint8_t v, void *param) {
   (void)param;
@@ -278,7 +301,10 @@ int main(int argc, char **argv) {
   avr->frequency = HZ;
   avr->sleep = no_sleep;  // idle sleep jumps to the next event instead of waiting in real time
 
-  if (tifr_fix) install_tifr_fix();
+  if (tifr_fix) {
+    install_tifr_fix();
+    install_eifr_fix();
+  }
   install_tccr1b_watch();
 
   uart_out = fopen(uart_path, "wb");

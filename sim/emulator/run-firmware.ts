@@ -39,7 +39,7 @@ export interface RunFirmwareOptions {
   readonly commands?: readonly FirmwareCommand[];
   /** Another ELF than firmware/build/halfswing.elf (e.g. a probe program). */
   readonly elfPath?: string;
-  /** false runs with simavr 1.6's own TIFR handling (clears every flag on any write): only for harness tests. */
+  /** false runs with simavr 1.6's own TIFR/EIFR handling (not write-one-to-clear): only for harness tests. */
   readonly tifrFix?: boolean;
   /** Host side baud rate for pacing command bytes (default 250000). */
   readonly hostBaud?: number;

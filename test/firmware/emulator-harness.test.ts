@@ -1,5 +1,5 @@
-// The harness itself: silicon write-one-to-clear semantics for TIFR0..2 (simavr 1.6 clears every flag),
-// and why it matters for the firmware's overflow count.
+// The harness itself: silicon write-one-to-clear semantics for TIFR0..2 (simavr 1.6 clears every flag)
+// and EIFR (simavr 1.6 stores the written value), and why it matters for the firmware.
 import { expect, it } from 'vitest';
 import { EMULATOR_HZ, runFirmware } from '../../sim/emulator/run-firmware.ts';
 import { REPO_ROOT } from '../../sim/emulator/toolchain.ts';
@@ -11,14 +11,15 @@ const PROBE = `${REPO_ROOT}sim/emulator/build/tifr-probe.elf`;
 describeFirmware('simavr harness', () => {
   // Silicon: "the flag is cleared by writing a logic one to its bit location" (ATmega328P datasheet, TIFRn
   // register descriptions); writing TIFRn = _BV(OCFnA) must leave a pending TOVn set.
-  it('restores write-one-to-clear on TIFR0, TIFR1 and TIFR2', async () => {
+  it('restores write-one-to-clear on TIFR0, TIFR1, TIFR2 and EIFR', async () => {
     const run = await runFirmware({ edges: [], durationS: 0.01, elfPath: PROBE });
-    expect(run.lines).toEqual(['t0 01', 't1 01', 't2 01']);
+    expect(run.lines).toEqual(['t0 01', 't1 01', 't2 01', 'e 01']);
   });
 
-  it('shows the simavr 1.6 behaviour without the fix (every flag cleared), so the probe can tell', async () => {
+  it('shows the simavr 1.6 behaviour without the fix, so the probe can tell', async () => {
     const run = await runFirmware({ edges: [], durationS: 0.01, elfPath: PROBE, tifrFix: false });
-    expect(run.lines).toEqual(['t0 00', 't1 00', 't2 00']);
+    // TIFRn: every flag cleared. EIFR: the written byte stored as is (INTF1 set, INTF0 gone, nothing cleared).
+    expect(run.lines).toEqual(['t0 00', 't1 00', 't2 00', 'e 02']);
   });
 
   it('without the fix, a capture just after an overflow loses that overflow and later ticks fall 65536 short', async () => {

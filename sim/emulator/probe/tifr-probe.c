@@ -1,6 +1,8 @@
 // Harness self-test program: does writing one flag bit to TIFRn clear only that bit (silicon) or all (simavr 1.6)?
 // For each timer n it lets TOVn and OCFnA both become pending, writes TIFRn = _BV(OCFnA), and prints
 // "t<n> <TIFRn & (TOVn|OCFnA) as 2 hex digits>" on the UART at 250000 baud. Silicon answers 01 (TOV kept).
+// Then the same for EIFR with INTF0 and INTF1 ("e <EIFR & 3>"; silicon: 01), raised by toggling PD2/PD3
+// as outputs with both external interrupts in any-change mode and disabled.
 #include <avr/io.h>
 #include <stdint.h>
 
@@ -48,6 +50,20 @@ int main(void) {
   }
   TIFR2 = _BV(OCF2A);
   report(2, TIFR2 & (_BV(TOV2) | _BV(OCF2A)));
+
+  EICRA = _BV(ISC00) | _BV(ISC10);
+  EIFR = _BV(INTF0) | _BV(INTF1);
+  DDRD = _BV(PD2) | _BV(PD3);
+  PORTD = _BV(PD2) | _BV(PD3);
+  while ((EIFR & 3) != 3) {
+  }
+  EIFR = _BV(INTF1);
+  uint8_t e = EIFR & 3;
+  put('e');
+  put(' ');
+  put('0');
+  put((char)('0' + e));
+  put('\n');
   for (;;) {
   }
 }

@@ -1,0 +1,43 @@
+// Pulses too short for the firmware to see both edges: the missed edge is counted in `lost`, never
+// silent, and the edge polarity stays right afterwards.
+import { expect, it } from 'vitest';
+import { CH0_MIN_PULSE_TICKS } from '../../protocol/link-defaults.ts';
+import { EMULATOR_HZ, runFirmware, type FirmwareEdge } from '../../sim/emulator/run-firmware.ts';
+import { decodeRun, edgesOf, heartbeatsOf } from './emulator-helpers.ts';
+import { describeFirmware } from './toolchain-gate.ts';
+
+describeFirmware('short pulses', () => {
+  it('ch0: pulses from CH0_MIN_PULSE_TICKS up come back whole; each shorter one counts one lost edge', async () => {
+    const widths = [10, 20, 30, 40, 46, CH0_MIN_PULSE_TICKS, 60, 80, 200];
+    const edges: FirmwareEdge[] = [];
+    widths.forEach((w, i) => {
+      const rise = Math.round((0.2 + i * 0.01) * EMULATOR_HZ);
+      edges.push({ t_s: rise / EMULATOR_HZ, ch: 0, level: 1 }, { t_s: (rise + w) / EMULATOR_HZ, ch: 0, level: 0 });
+    });
+    // An ordinary pulse afterwards must still read r then f.
+    edges.push({ t_s: 0.5, ch: 0, level: 1 }, { t_s: 0.51, ch: 0, level: 0 });
+    const run = await runFirmware({ edges, durationS: 1.3 });
+    const records = decodeRun(run);
+    const short = widths.filter((w) => w < CH0_MIN_PULSE_TICKS).length;
+    expect(heartbeatsOf(records).at(-1)!.lost).toBe(short);
+    const got = edgesOf(records, 0);
+    expect(got).toHaveLength(2 * widths.length + 2 - short);
+    // Every reported edge is a real one with the right polarity, exact to the tick.
+    const real = new Map(run.applied.map((a) => [a.cycle - run.timer1StartCycle, a.level ? 'r' : 'f']));
+    for (const e of got) expect(real.get(e.ticks)).toBe(e.edge);
+    expect(got.slice(-2).map((e) => e.edge)).toEqual(['r', 'f']);
+  });
+
+  it('ch1: two changes closer than the interrupt can look count as two lost edges', async () => {
+    const edges: FirmwareEdge[] = [];
+    for (let i = 0; i < 5; i++) {
+      const at = Math.round((0.2 + i * 0.01) * EMULATOR_HZ);
+      edges.push({ t_s: at / EMULATOR_HZ, ch: 1, level: 1 }, { t_s: (at + 2) / EMULATOR_HZ, ch: 1, level: 0 });
+    }
+    edges.push({ t_s: 0.5, ch: 1, level: 1 }, { t_s: 0.51, ch: 1, level: 0 });
+    const run = await runFirmware({ edges, durationS: 1.3 });
+    const records = decodeRun(run);
+    expect(heartbeatsOf(records).at(-1)!.lost).toBe(10);
+    expect(edgesOf(records, 1).map((e) => e.edge)).toEqual(['r', 'f']);
+  });
+});
