@@ -1,4 +1,4 @@
-// The measured figures quoted in README.md and hardware-notes/gates.md are what the simulator and `analyze` give today.
+// The measured figures quoted in README.md and hardware-notes/{gates,clock}.md are what the simulator and `analyze` give today.
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -9,6 +9,7 @@ import { runCli } from '../../host/cli/main.ts';
 const read = (p: string): string => readFileSync(new URL(`../../${p}`, import.meta.url), 'utf8');
 const readme = read('README.md');
 const gates = read('hardware-notes/gates.md');
+const clock = read('hardware-notes/clock.md');
 
 interface Budget {
   readonly name: string;
@@ -19,6 +20,7 @@ interface Analysis {
   readonly g_u_m_s2: number;
   readonly amplitude_start_deg: number;
   readonly B: number;
+  readonly clock_u_ppm: number;
   readonly budget: readonly Budget[];
 }
 
@@ -110,6 +112,12 @@ describe('figures quoted from simulated runs', () => {
     quotes(row('clock, not calibrated'), clubNominal.g_m_s2, 2e-3);
     quotes(row('clock, not calibrated'), clubHost.g_m_s2, 2e-3);
     expect(clubNominal.g_m_s2 / clubHost.g_m_s2 - 1).toBeCloseTo(-2 * 3000e-6, 3);
+  });
+
+  it('clock.md: the host-clock fit uncertainty of the two 20-minute runs', () => {
+    const para = clock.slice(clock.indexOf('Measured on the simulator'));
+    quotes(para.slice(0, 300), brass.clock_u_ppm, 0.006);
+    quotes(para.slice(0, 300), clubHost.clock_u_ppm, 0.006);
   });
 
   it('gates.md: 50 µs more unblocking delay reads the 25° amplitude low by d/Δt, and the text quotes the runs', () => {
