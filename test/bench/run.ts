@@ -1,4 +1,4 @@
-// `npm run bench [-- --only ID[,ID…]] [--json] [--quick]`: runs the benchmarks, prints the table, writes results.json.
+// `npm run bench [-- --only ID[,ID…]] [--json] [--quick] [--out FILE]`: runs the benchmarks, prints the table, writes results.json.
 import { mkdtempSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -14,6 +14,7 @@ const { values } = parseArgs({
     only: { type: 'string' },
     json: { type: 'boolean', default: false },
     quick: { type: 'boolean', default: false },
+    out: { type: 'string' },
     help: { type: 'boolean', short: 'h', default: false },
   },
   strict: true,
@@ -21,9 +22,9 @@ const { values } = parseArgs({
 
 if (values.help) {
   process.stdout.write(
-    `npm run bench -- [--only ID[,ID...]] [--json] [--quick]\n\nBenchmarks: ${BENCHMARKS.map((b) => `${b.id} (${b.title})`).join(', ')}\n` +
+    `npm run bench -- [--only ID[,ID...]] [--json] [--quick] [--out FILE]\n\nBenchmarks: ${BENCHMARKS.map((b) => `${b.id} (${b.title})`).join(', ')}\n` +
       `--json prints the results as one JSON object; --quick uses tiny sizes (smoke runs; the numbers mean nothing).\n` +
-      `Results are also written to test/bench/results.json.\n`,
+      `Results are also written to test/bench/results.json (or FILE).\n`,
   );
   process.exit(0);
 }
@@ -60,7 +61,7 @@ try {
 }
 
 const doc = { when: new Date().toISOString(), machine, quick: values.quick ?? false, results };
-const outFile = join(REPO_ROOT, 'test', 'bench', 'results.json');
+const outFile = values.out ?? join(REPO_ROOT, 'test', 'bench', 'results.json');
 writeFileSync(`${outFile}.tmp`, `${JSON.stringify(doc, null, 2)}\n`);
 renameSync(`${outFile}.tmp`, outFile);
 
@@ -68,5 +69,5 @@ if (values.json) {
   process.stdout.write(`${JSON.stringify(doc)}\n`);
 } else {
   const notes = renderNotes(results);
-  process.stdout.write(`\nMachine: ${machineLine(machine)}\n\n${renderTable(results)}\n${notes ? `\n${notes}\n` : ''}\nWritten to test/bench/results.json\n`);
+  process.stdout.write(`\nMachine: ${machineLine(machine)}\n\n${renderTable(results)}\n${notes ? `\n${notes}\n` : ''}\nWritten to ${outFile}\n`);
 }
