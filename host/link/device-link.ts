@@ -122,7 +122,9 @@ class Link implements DeviceLink {
   private lastBeatUs = 0;
   private timers = new Set<NodeJS.Timeout>();
   private listeners: ((e: LinkEvent) => void)[] = [];
+  /** Events not yet taken by the iterator: `queue[head..]` (a head index, so taking one is O(1)). */
   private queue: LinkEvent[] = [];
+  private head = 0;
   private wake: (() => void) | undefined;
   private paused = false;
   private iterating = false;
@@ -199,9 +201,13 @@ class Link implements DeviceLink {
     if (this.iterating) throw new Error('a DeviceLink has one iterator');
     this.iterating = true;
     for (;;) {
-      while (this.queue.length > 0) {
-        const e = this.queue.shift()!;
-        if (this.paused && this.queue.length < this.highWater / 2) {
+      while (this.head < this.queue.length) {
+        const e = this.queue[this.head++]!;
+        if (this.head >= 1024 && this.head * 2 >= this.queue.length) {
+          this.queue = this.queue.slice(this.head);
+          this.head = 0;
+        }
+        if (this.paused && this.backlog() < this.highWater / 2) {
           this.paused = false;
           this.session?.resume();
         }
@@ -217,7 +223,7 @@ class Link implements DeviceLink {
     for (const fn of this.listeners) fn(e);
     if (!this.iterating && this.listeners.length > 0) return;
     this.queue.push(e);
-    if (!this.paused && this.queue.length >= this.highWater) {
+    if (!this.paused && this.backlog() >= this.highWater) {
       // A slow consumer: stop reading; the OS buffer (and the tty's flow) holds the rest.
       this.paused = true;
       this.session?.pause();
@@ -225,6 +231,10 @@ class Link implements DeviceLink {
     const w = this.wake;
     this.wake = undefined;
     w?.();
+  }
+
+  private backlog(): number {
+    return this.queue.length - this.head;
   }
 
   private annotate(word: AnnotationWord, text: string): void {

@@ -224,4 +224,22 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
     await link.close();
     expect(lines(all).at(-1)).toBe(last);
   });
+
+  it('a slow consumer holds the port back instead of losing lines or queueing without bound', async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, heartbeatMs: 60_000, highWater: 50 });
+    await link.ready;
+    const sent = Array.from({ length: 2000 }, (_, i) => d.edge(1000 + i, i % 2 ? 'r' : 'f'));
+    b.port('/dev/ttyX').emit(sent.map((l) => `${l}\n`).join(''));
+    const got: string[] = [];
+    for await (const e of link) {
+      if (e.type === 'line' && e.line.startsWith('E')) got.push(e.line);
+      if (got.length % 100 === 0) await tick(1);
+      if (got.length === sent.length) break;
+    }
+    expect(got).toEqual(sent);
+    await link.close();
+  });
 });

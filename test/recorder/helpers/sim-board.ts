@@ -14,6 +14,9 @@ export class SimBoard {
   private cable: PtyCable | undefined;
   private simT = 0;
   private gate: Promise<void> | undefined;
+  private stopped = false;
+  private lastWallMs = performance.now();
+  private wake: (() => void) | undefined;
   private openGate: (() => void) | undefined;
 
   constructor(
@@ -31,6 +34,8 @@ export class SimBoard {
     cable.onCommand((cmd) => {
       this.commands++;
       this.device.command(this.simT, cmd);
+      // A reply is due now: cut the wait for the next line short.
+      this.wake?.();
     });
   }
 
@@ -41,6 +46,12 @@ export class SimBoard {
   /** Holds the board's output after the line in flight (the model's time stands still too). */
   pause(): void {
     this.gate ??= new Promise((r) => (this.openGate = r));
+  }
+
+  /** Ends `run` after the line in flight. */
+  stop(): void {
+    this.stopped = true;
+    this.resume();
   }
 
   resume(): void {
@@ -57,19 +68,32 @@ export class SimBoard {
 
   /**
    * Runs the board until host time `untilS` (or the end of the run), pacing each line after the previous one
-   * by Δt / speed. `between(i)` may return garbage to write before the i-th line.
+   * by Δt / speed (after a pause the board catches up at once). `between(i)` may return garbage to write before the i-th line.
    */
   async run(untilS = Infinity, between?: (i: number) => string | Buffer | undefined): Promise<void> {
     for (;;) {
       if (this.gate) await this.gate;
+      if (this.stopped) return;
       const due = this.device.peekTime();
       if (due === Infinity || due >= untilS) return;
-      const waitMs = ((due - this.simT) * 1000) / this.speed;
-      if (waitMs >= 1) await new Promise((r) => setTimeout(r, waitMs));
+      // Paced from the wall time of the previous line, so a wake-up for a command does not stretch the gap.
+      const waitMs = this.lastWallMs + ((due - this.simT) * 1000) / this.speed - performance.now();
+      if (waitMs >= 1) {
+        const woken = await new Promise<boolean>((r) => {
+          const t = setTimeout(() => r(false), waitMs);
+          this.wake = () => {
+            clearTimeout(t);
+            r(true);
+          };
+        });
+        this.wake = undefined;
+        if (woken) continue;
+      }
       // As fast as possible must still let the commands and the pipe's drain events in.
       if (this.sent.length % 512 === 0) await new Promise((r) => setImmediate(r));
       const l = this.device.pop()!;
       this.simT = l.t;
+      this.lastWallMs = performance.now();
       if (!this.cable) {
         this.dropped++;
         continue;
