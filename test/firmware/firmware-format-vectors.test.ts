@@ -97,6 +97,47 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
     expect(line!.length + 1).toBeLessThanOrEqual(80);
   });
 
+  it('classifies random command lines as the contract says (property test against a reference reading)', () => {
+    // The command grammar of protocol/SPEC.md read independently: `?`, `P <decimal 100..60000>`,
+    // `C <hex mask 0..3>`; at most 16 bytes before LF, one trailing CR dropped, blank lines ignored.
+    const reference = (bytes: number[]): string => {
+      let n = bytes.length;
+      if (n <= 17 && n > 0 && bytes[n - 1] === 0x0d) n--;
+      if (n === 0) return 'none';
+      const first = bytes[0]!;
+      const letter = first > 0x20 && first < 0x7f ? String.fromCharCode(first) : '-';
+      if (n > 16) return `error ${letter} too-long`;
+      const text = String.fromCharCode(...bytes.slice(0, n));
+      const arg = text.slice(2);
+      const number = (re: RegExp, base: number, lo: number, hi: number, kind: string): string => {
+        if (text[1] !== ' ' || !re.test(arg)) return `error ${letter} syntax`;
+        const v = parseInt(arg, base);
+        return v < lo || v > hi ? `error ${letter} range` : `${kind} ${letter}`;
+      };
+      if (letter === '?') return n === 1 ? 'hello ?' : 'error ? syntax';
+      if (letter === 'P') return number(/^[0-9]+$/, 10, 100, 60000, 'period');
+      if (letter === 'C') return number(/^[0-9a-fA-F]+$/, 16, 0, 3, 'channels');
+      return `error ${letter} unknown`;
+    };
+    const byte = fc.oneof(
+      fc.constantFrom(0x3f, 0x50, 0x43, 0x20, 0x0d, 0x30, 0x31, 0x39, 0x61, 0x46),
+      fc.integer({ min: 0x00, max: 0xff }).filter((b) => b !== 0x0a),
+    );
+    const lines = fc.sample(
+      fc.oneof(
+        fc.array(byte, { minLength: 0, maxLength: 24 }),
+        fc.tuple(fc.constantFrom('P ', 'C '), fc.stringMatching(/^[0-9a-fA-F]{1,7}$/)).map(([a, b]) => [...Buffer.from(a + b)]),
+      ),
+      { numRuns: 3000, seed: 7 },
+    );
+    const got = ask(lines.map((l) => (l.length ? `cmd ${Buffer.from(l).toString('hex')}` : 'cmd')));
+    lines.forEach((l, i) => {
+      const [kind, letter, , reason] = got[i]!.split(' ');
+      const summary = kind === 'none' ? 'none' : kind === 'error' ? `${kind} ${letter} ${reason}` : `${kind} ${letter}`;
+      expect(summary, JSON.stringify(Buffer.from(l).toString('latin1'))).toBe(reference(l));
+    });
+  });
+
   it('parses commands and names each error with the contract tokens', () => {
     const hex = (s: string): string => Buffer.from(s, 'latin1').toString('hex');
     const cases: [string, string][] = [
