@@ -48,6 +48,7 @@ export interface RunData {
   readonly run: AnalysisResult['run'];
   readonly warnings: readonly string[];
   readonly settings: AnalysisResult['settings'];
+  readonly lineRejections?: AnalysisResult['line_rejections'];
   /** Standard uncertainty of the sensor's blocking − unblocking delay difference, s (default 5 µs). */
   readonly delayDifferenceU_s?: number;
 }
@@ -360,6 +361,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     L_eff_m: model ? model.L_eff_m : null,
     amplitude_sensitivity: sens,
     settings: d.settings,
+    line_rejections: d.lineRejections ?? {},
     swings,
     plots,
     run: d.run,

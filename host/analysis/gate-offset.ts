@@ -32,20 +32,25 @@ export function timeFromBottom(theta: number, theta0: number, omega0: number): n
 export function offsetFromAlternation(diffS: number, theta0: number, omega0: number, widthM: number, lengthM: number): number {
   const k = Math.sin(0.5 * theta0);
   const half = widthM / 2;
-  const speed = (e: number): number => 2 * omega0 * Math.sqrt(Math.max(1e-300, k * k - Math.sin(0.5 * e) ** 2));
-  // Start from the simple form x0 ≈ L·Ω·D/4.
-  let x0 = (lengthM * 2 * omega0 * k * diffS) / 4;
+  // m(x0) is odd in x0: start from its slope at 0, then Newton on the exact m (two steps reach ~1e-12 m).
+  const e0 = Math.asin(half / lengthM);
+  let x0 = diffS / 4 / (1 / (bottomSpeed(e0, k, omega0) * lengthM * Math.cos(e0)));
   for (let i = 0; i < 20; i++) {
     const ep = Math.asin(Math.max(-1, Math.min(1, (x0 + half) / lengthM)));
     const em = Math.asin(Math.max(-1, Math.min(1, (x0 - half) / lengthM)));
     const m = 0.5 * (timeFromBottom(ep, theta0, omega0) + timeFromBottom(em, theta0, omega0));
-    const dm = 0.5 * (1 / (speed(ep) * lengthM * Math.cos(ep)) + 1 / (speed(em) * lengthM * Math.cos(em)));
+    const dm = 0.5 * (1 / (bottomSpeed(ep, k, omega0) * lengthM * Math.cos(ep)) + 1 / (bottomSpeed(em, k, omega0) * lengthM * Math.cos(em)));
     const step = (m - diffS / 4) / dm;
     x0 -= step;
     if (!Number.isFinite(x0)) return NaN;
-    if (Math.abs(step) < 1e-13) break;
+    if (Math.abs(step) < 1e-12) break;
   }
   return x0;
+}
+
+/** Angular speed θ' at angle e for amplitude sin(θ0/2) = k (energy law). */
+function bottomSpeed(e: number, k: number, omega0: number): number {
+  return 2 * omega0 * Math.sqrt(Math.max(1e-300, k * k - Math.sin(0.5 * e) ** 2));
 }
 
 /** Gate offset from the lowest point (m), with its standard uncertainty. */

@@ -1,5 +1,6 @@
 // The analysis result: what `analyze --json` prints, what the report draws and what the live view shows.
 // SI units throughout; every `_u` is a standard uncertainty (k = 1).
+import type { RejectReason } from '../../protocol/records.ts';
 
 /** Fault and health counts of a run. */
 export interface RunCounts {
@@ -140,6 +141,8 @@ export interface AnalysisResult {
   readonly amplitude_sensitivity: AmplitudeSensitivityReport | null;
   /** Edge cleaning settings used, seconds. */
   readonly settings: { readonly glitch_s: number; readonly bounce_s: number };
+  /** Device lines rejected by the decoder, by reason (always filled; optional so that older fixtures compile). */
+  readonly line_rejections?: Readonly<Partial<Record<RejectReason, number>>>;
   /** One row per pass (rejected ones flagged), in time order. Not part of `analyze --json`. */
   readonly swings: readonly SwingRow[];
   /** Downsampled series for plots (≤ ~2000 points each). */

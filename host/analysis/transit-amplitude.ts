@@ -39,6 +39,14 @@ export function naiveAmplitude(transitS: number, phiB: number, omega0: number): 
   return k <= 1 ? 2 * Math.asin(k) : NaN;
 }
 
+/** Slope of the harmonic form asin(cc·x) (a module-level function: hot, and closures cost a name helper each call). */
+function chordSlope(x: number, cc: number, oneMinusA2: number): number {
+  const cx = cc * x;
+  if (cx < 0.999) return cc / Math.sqrt(1 - cx * cx);
+  const h = 1e-7 * Math.min(x, 1 - x);
+  return (g(x + h, oneMinusA2) - g(x - h, oneMinusA2)) / (2 * h);
+}
+
 /**
  * Amplitude θ0 (radians) from a transit time τ (s), solving the exact integral; NaN when no amplitude gives τ
  * (τ ≤ 0, or τ longer than the transit of a swing that just clears the beam).
@@ -55,14 +63,8 @@ export function amplitudeFromTransit(transitS: number, phiB: number, omega0: num
   // true slope by O(φb²) (~1e-4 relative): each step gains ~4 digits from a start already within ~1e-6, so one or
   // two evaluations of G reach ~1e-14. Near s = 1 (a swing that barely clears the beam) a numeric slope is used.
   const cc = (0.5 * phiB) / a;
-  const slope = (x: number): number => {
-    const cx = cc * x;
-    if (cx < 0.999) return cc / Math.sqrt(1 - cx * cx);
-    const h = 1e-7 * Math.min(x, 1 - x);
-    return (g(x + h, c) - g(x - h, c)) / (2 * h);
-  };
   for (let i = 0; i < 60; i++) {
-    const step = (g(s, c) - target) / slope(s);
+    const step = (g(s, c) - target) / chordSlope(s, cc, c);
     let next = s - step;
     if (!(next > 0)) next = 0.5 * s;
     if (!(next < 1)) next = 0.5 * (1 + s);

@@ -75,7 +75,7 @@ export async function* readJournalBatches(path: string): AsyncGenerator<JournalE
     if (e.version !== 1) throw new UserError(`${path} is journal format ${e.version}; this version reads format 1`);
     return e;
   };
-  for await (const chunk of createReadStream(path, { encoding: 'latin1', highWaterMark: 1 << 20 })) {
+  for await (const chunk of createReadStream(path, { encoding: 'latin1', highWaterMark: 1 << 16 })) {
     const text = rest + (chunk as string);
     const out: JournalEntry[] = [];
     let from = 0;

@@ -1,4 +1,5 @@
 // What the live view reads ten times a second: the latest swing, link health and recent points, cheap to build.
+import type { RejectReason } from '../../protocol/records.ts';
 import type { RunCounts } from '../analysis/result.ts';
 
 /** The device as it introduced itself in its last hello. */
@@ -49,5 +50,7 @@ export interface LiveState {
   readonly meanPeriodS: number | null;
   readonly meanPeriodCount: number;
   readonly counts: RunCounts;
+  /** Device lines rejected by the decoder, by reason. */
+  readonly lineRejections: Readonly<Partial<Record<RejectReason, number>>>;
   readonly recent: LiveRecent;
 }

@@ -4,6 +4,7 @@
 // `result` runs the full analysis over everything pushed so far without changing the state, so calling it (or
 // `live`) at any moment never changes later numbers.
 import type { JournalEntry } from '../../protocol/journal.ts';
+import type { RejectReason } from '../../protocol/records.ts';
 import { parseRig, type Rig } from '../../protocol/rig.ts';
 import { SequenceTracker } from '../../protocol/sequence.ts';
 import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
@@ -66,6 +67,21 @@ export function defaultEdgeThresholdS(rig: Rig | null): number {
   return Math.min(2e-3, Math.max(2e-5, 0.1 * shortestTransitS(rig)));
 }
 
+/** Amplitude (degrees) of one live swing: ω0 from its period, reduced to zero amplitude in two rounds. */
+function liveAmplitude(rig: Rig, transit: number, period: number | null): number | null {
+  if (period === null) return null;
+  const phiB = blockHalfAngle(rig.flag_width_m, rig.length_m);
+  let t0 = period;
+  let amp: number | null = null;
+  for (let k = 0; k < 3; k++) {
+    const a = amplitudeFromTransit(transit, phiB, (2 * Math.PI) / t0);
+    if (!Number.isFinite(a)) break;
+    amp = (a * 180) / Math.PI;
+    t0 = period / periodRatio(a);
+  }
+  return amp;
+}
+
 /** Creates a pipeline. */
 export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   const tracker = new SequenceTracker();
@@ -80,6 +96,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   let levels: number | null = null;
   const c = { crc: 0, bad: 0, lost: 0, disconnects: 0, malformed: 0, otherEdges: 0 };
   let rejectedSinceGood = 0;
+  const rejections: Partial<Record<RejectReason, number>> = {};
   // Per boot: nominal hz, tick unwrap state, the first (host, ticks) seen, the largest `lost`.
   const bootHz: number[] = [];
   const bootFirst: { hostUs: number; ticks: number }[] = [];
@@ -97,12 +114,12 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   const ppsCh = opts.ppsChannel ?? 1;
 
   // Live state.
-  const recent = { t: [] as number[], period: [] as (number | null)[], amp: [] as (number | null)[], transit: [] as number[] };
+  // Amplitudes of recent swings are solved lazily, in live(): batch runs never pay for them.
+  const recent = { t: [] as number[], period: [] as (number | null)[], amp: [] as (number | null | undefined)[], transit: [] as number[] };
   let liveLast: { boot: number; t: number } | null = null;
   let liveHalf: [number | null, number | null] = [null, null];
   let livePeriod: number | null = null;
   let liveTransit: number | null = null;
-  let liveAmp: number | null = null;
   let meanSum = 0;
   let meanN = 0;
   let restartUs = -Infinity;
@@ -125,22 +142,10 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     liveLast = { boot: b, t };
     livePeriod = period;
     liveTransit = transit;
-    const rig = rigNow();
-    liveAmp = null;
-    if (rig && period !== null) {
-      const phiB = blockHalfAngle(rig.flag_width_m, rig.length_m);
-      let t0 = period;
-      for (let k = 0; k < 2; k++) {
-        const a = amplitudeFromTransit(transit, phiB, (2 * Math.PI) / t0);
-        if (!Number.isFinite(a)) break;
-        liveAmp = (a * 180) / Math.PI;
-        t0 = period / periodRatio(a);
-      }
-    }
     if (period !== null && p.hostUs.at(i) >= restartUs) (meanSum += period), meanN++;
     recent.t.push(t);
     recent.period.push(period);
-    recent.amp.push(liveAmp);
+    recent.amp.push(undefined);
     recent.transit.push(transit);
     if (recent.t.length > RECENT_POINTS) for (const k of ['t', 'period', 'amp', 'transit'] as const) recent[k].shift();
   };
@@ -167,6 +172,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     if (!r.ok) {
       if (r.reason === 'bad-crc') c.crc++;
       else c.bad++;
+      rejections[r.reason] = (rejections[r.reason] ?? 0) + 1;
       rejectedSinceGood++;
       return;
     }
@@ -281,6 +287,9 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
 
     live(nowHostUs?: number): LiveState {
       const now = nowHostUs ?? lastHostUs;
+      const rig = rigNow();
+      for (let k = recent.amp.length - 1; k >= 0 && recent.amp[k] === undefined; k--) recent.amp[k] = rig ? liveAmplitude(rig, recent.transit[k]!, recent.period[k]!) : null;
+      const liveAmp = recent.amp.length ? (recent.amp[recent.amp.length - 1] ?? null) : null;
       return {
         hello,
         bootIndex: boot,
@@ -296,7 +305,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         meanPeriodS: meanN ? meanSum / meanN : null,
         meanPeriodCount: meanN,
         counts: counts(),
-        recent: { t_s: [...recent.t], period_s: [...recent.period], amplitude_deg: [...recent.amp], transit_s: [...recent.transit] },
+        lineRejections: { ...rejections },
+        recent: { t_s: [...recent.t], period_s: [...recent.period], amplitude_deg: recent.amp.map((a) => a ?? null), transit_s: [...recent.transit] },
       };
     },
 
@@ -362,6 +372,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         }),
         run: { start_iso: startIso, duration_s: lastUs / 1e6, source, firmware: hello?.fw ?? null, hz_nominal: bootHz[0] ?? (sawHello ? hzNow : null) },
         warnings: w,
+        lineRejections: { ...rejections },
         settings: { glitch_s: glitchS || (opts.glitchS ?? defaultEdgeThresholdS(rig)), bounce_s: bounceS || (opts.bounceS ?? defaultEdgeThresholdS(rig)) },
         ...(opts.delayDifferenceU_s !== undefined ? { delayDifferenceU_s: opts.delayDifferenceU_s } : {}),
       });

@@ -30,6 +30,8 @@ export function buildJournal(opts: {
   edges: readonly Edge[];
   durationS: number;
   hz?: number;
+  /** Rate error of the device clock: ticks run at hz·(1 + ppm·1e-6) per true second. */
+  ppm?: number;
   tickOffset?: number;
   latencyS?: (i: number) => number;
   drop?: (i: number, r: DeviceRecord) => boolean;
@@ -53,7 +55,7 @@ export function buildJournal(opts: {
   for (const ev of events) {
     while (boot + 1 < boots.length && ev.t >= boots[boot + 1]!) (boot++, (seq = 0));
     const bootT = boots[boot]!;
-    const ticks = Math.round((ev.t - bootT) * hz) + (opts.tickOffset ?? 0);
+    const ticks = Math.round((ev.t - bootT) * hz * (1 + (opts.ppm ?? 0) * 1e-6)) + (opts.tickOffset ?? 0);
     const rec = ev.make(seq, ticks % 2 ** 48);
     seq = (seq + 1) % 0x10000;
     const idx = i++;

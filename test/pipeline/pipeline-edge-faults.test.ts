@@ -74,6 +74,7 @@ describe('edges → passes: bounce, glitches, resync, bridging, objects', () => 
     const b = buildJournal({ edges: passEdges(mids(30), TAU), durationS: 35, mangle: (i, l) => (i === 25 ? l.replace(/\*..$/, l.endsWith('*00') ? '*01' : '*00') : l) });
     const r = analyzeEntries(b.entries, { clock: 'nominal' });
     expect(r.counts.crc_errors).toBe(1);
+    expect(r.line_rejections).toEqual({ 'bad-crc': 1 });
     expect(r.counts.lines_lost).toBe(0);
   });
 
