@@ -11,7 +11,7 @@ export const TONE_COLOR: Readonly<Record<Tone, string | undefined>> = {
 };
 
 /** Chart tones: measured points stand out, the law and fits are quieter lines. */
-export const CHART_COLOR: Readonly<Record<string, string | undefined>> = {
+export const CHART_COLOR: Readonly<Record<string, 'yellow' | 'magenta' | 'gray' | undefined>> = {
   points: 'yellow',
   law: 'magenta',
   fit: 'magenta',
