@@ -31,7 +31,7 @@ interface Pending {
   line: string | undefined;
 }
 
-type Input = 'edge' | 'heartbeat' | 'reboot' | 'ready' | 'stall' | 'resume';
+type Input = 'edge' | 'heartbeat' | 'check' | 'reboot' | 'ready' | 'stall' | 'resume';
 
 export interface DeviceOptions {
   readonly device: Scenario['device'];
@@ -68,6 +68,8 @@ export class DeviceModel {
   /** Keeps lines released at the end of a stall in their original order. */
   private stallOrder = 0;
   private lastAt = -Infinity;
+  /** The last capture, while the ISR's blind time after it is unresolved (see Scenario device.pin_check_ticks). */
+  private window: { at: number; checkAt: number; level: 0 | 1; missed: number } | undefined;
   private ri = 0;
   private si = 0;
   private di = 0;
@@ -173,6 +175,7 @@ export class DeviceModel {
       if (t < best[0]) best = [t, k];
     };
     if (this.up && this.stalledUntil === undefined) consider(this.nextHbAt, 'heartbeat');
+    if (this.window && this.window.missed > 0) consider(this.window.checkAt, 'check');
     if (!this.up) consider(this.readyAt, 'ready');
     if (this.ri < s.reboots.length) consider(s.reboots[this.ri]!.t, 'reboot');
     if (this.stalledUntil !== undefined) consider(this.stalledUntil, 'resume');
@@ -210,6 +213,9 @@ export class DeviceModel {
       case 'heartbeat':
         this.onHeartbeat(t);
         return;
+      case 'check':
+        this.resolveWindow(this.levels[this.o.channel] as 0 | 1);
+        return;
       case 'reboot':
         this.onReboot(t, this.o.schedule.reboots[this.ri]!.cause);
         this.ri++;
@@ -236,20 +242,29 @@ export class DeviceModel {
 
   private onEdge(e: PinEdge): void {
     const ch = this.o.channel;
-    const changed = this.levels[ch] !== e.level;
+    const before = this.levels[ch] as 0 | 1;
+    if (before === e.level) return;
     this.levels[ch] = e.level;
-    if (!changed) return;
     if (!this.up) {
       this.o.counts.edges_missed_while_down++;
       return;
     }
     if (!(this.mask & (1 << ch))) return;
+    const at = this.clock!.ticksAt(e.t);
+    const w = this.window;
+    if (w && at < w.at + this.cfg.pin_check_ticks && (w.missed > 0 || at - w.at < this.cfg.min_edge_gap_ticks)) {
+      w.missed++;
+      this.o.counts.edges_lost_too_close++;
+      return;
+    }
+    this.resolveWindow(before);
+    this.window = { at, checkAt: this.clock!.timeAt(at + this.cfg.pin_check_ticks), level: e.level, missed: 0 };
     if (this.inDrop(e.t)) {
       this.lost++;
       this.o.counts.edges_lost_by_device++;
       return;
     }
-    const ticks = (Math.floor(this.clock!.ticksAt(e.t)) + this.cfg.capture_latency_ticks) % TICKS_MAX;
+    const ticks = (Math.floor(at) + this.cfg.capture_latency_ticks) % TICKS_MAX;
     const body: Body = { kind: 'E', ch, edge: e.level ? 'r' : 'f', ticks };
     if (this.stalledUntil !== undefined) {
       if (this.stallQueued >= this.cfg.buffer_edges) {
@@ -267,6 +282,18 @@ export class DeviceModel {
     // Lines leave in capture order: the main loop drains the edge buffer first in, first out.
     const lastE = this.pending.length ? this.pending[this.pending.length - 1]!.at : -Infinity;
     this.queue(Math.max(e.t + this.emitLatency(), lastE), body);
+  }
+
+  /** The ISR's pin check after a capture with missed edges: one lost if the pin is not at the captured level. */
+  private resolveWindow(levelAtCheck: 0 | 1): void {
+    const w = this.window;
+    this.window = undefined;
+    if (!w || w.missed === 0) return;
+    if (levelAtCheck !== w.level) {
+      this.lost++;
+      this.o.counts.edges_lost_by_device++;
+      this.o.counts.edges_lost_silently += w.missed - 1;
+    } else this.o.counts.edges_lost_silently += w.missed;
   }
 
   private setHeartbeat(ms: number, fromTicks: number): void {
@@ -296,6 +323,9 @@ export class DeviceModel {
     this.pending.length = 0;
     this.pending.push(...keep);
     this.o.counts.reboots++;
+    // A blind window still open at the reset is never checked: its missed edges go uncounted.
+    if (this.window) this.o.counts.edges_lost_silently += this.window.missed;
+    this.window = undefined;
     this.up = false;
     this.stalledUntil = undefined;
     this.readyAt = t + this.cfg.boot_time_s;
@@ -306,6 +336,7 @@ export class DeviceModel {
     this.up = true;
     this.seq = 0;
     this.lost = 0;
+    this.window = undefined;
     this.rc = RESET_CAUSE[this.readyCause] ?? 1;
     this.mask = (1 << this.cfg.channels) - 1;
     this.bootId = this.rng.nextU32() & 0xffff;

@@ -15,7 +15,7 @@ export interface FirmwareSchedule {
   readonly edges: ScheduleEdge[];
   /** Emulated run length covering every edge plus one heartbeat period. */
   readonly durationS: number;
-  /** Device ticks of each bob-made edge as the in-process model captures them (index-aligned with the non-initial edges). */
+  /** Device ticks of each pin edge on a phase-0 clock, before any capture loss (index-aligned with the non-initial edges). */
   readonly modelTicks: number[];
   /** The ticks of emulated time `leadS` (the schedule's origin maps to device tick round(leadS·hz)). */
   readonly leadS: number;
@@ -28,7 +28,9 @@ export interface FirmwareSchedule {
  */
 export function firmwareSchedule(scenario: Scenario, opts: SimOptions & { leadS?: number }): FirmwareSchedule {
   const leadS = opts.leadS ?? 0.05;
-  const { edges, initialLevel, scenario: sc } = simulatePinEdges(scenario, { ...opts, no_faults: true });
+  // Only the faults that happen at the pin (bounce, objects) can reach a real firmware through its input.
+  const pinOnly: Scenario = { ...scenario, faults: { bounce: scenario.faults.bounce, object: scenario.faults.object } };
+  const { edges, initialLevel, scenario: sc } = simulatePinEdges(pinOnly, { ...opts, no_faults: opts.no_faults ?? false });
   const d = sc.device;
   if (sc.rig.channel > 1) throw new RangeError('the emulated board has channels 0 and 1 only');
   const ch = sc.rig.channel as 0 | 1;

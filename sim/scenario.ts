@@ -73,6 +73,16 @@ export interface Scenario {
     readonly boot_time_s: number;
     /** Edge buffer depth while the main loop is stalled. */
     readonly buffer_edges: number;
+    /**
+     * The capture ISR's blind time, measured on the emulated firmware (ch0): an edge sooner than
+     * `min_edge_gap_ticks` (48) after a capture is missed; once one is missed, the input is re-armed only when
+     * the ISR checks the pin, `pin_check_ticks` (145) after the capture, and edges before that are missed too.
+     * At the check, a pin that differs from the captured level counts one edge in `lost`; a pin back at it
+     * (an even number missed) counts none: those edges vanish silently, as in the firmware. The firmware's check
+     * comes later when its main loop is busy (seen up to ≥ 159 ticks), so near these times the model is approximate.
+     */
+    readonly min_edge_gap_ticks: number;
+    readonly pin_check_ticks: number;
   };
   readonly host: {
     readonly start: string;
@@ -107,6 +117,8 @@ const DEFAULTS = {
     first_boot_s: 0.05,
     boot_time_s: 1.6,
     buffer_edges: 64,
+    min_edge_gap_ticks: 48,
+    pin_check_ticks: 145,
   },
   host: { start: '2026-01-05T09:00:00.000Z', usb_frame_us: 1000, usb_tail: { kind: 'exponential', mean_us: 150 } },
 } as const;
@@ -209,6 +221,8 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
         first_boot_s: num(0),
         boot_time_s: num(0),
         buffer_edges: num(0, 1e6),
+        min_edge_gap_ticks: num(0, 1e6),
+        pin_check_ticks: num(0, 1e6),
       }),
       host: sub({
         start: (v, at) => {

@@ -20,10 +20,14 @@ export interface FaultCounts {
   disconnects: number;
   stalls: number;
   device_drop_windows: number;
-  /** Edges the device dropped and counted in `lost` (drop windows + stall overflow). */
+  /** Edges the device counted in `lost` (drop windows, stall overflow, missed in the capture blind time). */
   edges_lost_by_device: number;
   /** Of which: the edge buffer overflowed during a stall. */
   edges_lost_in_stall: number;
+  /** Edges missed in the capture ISR's blind time (device.min_edge_gap_ticks, pin_check_ticks), counted or not. */
+  edges_lost_too_close: number;
+  /** Of those, the edges the device never counted in `lost` (a missed pulse that ended before the pin check). */
+  edges_lost_silently: number;
   /** Edges while the device was resetting (not counted by any device). */
   edges_missed_while_down: number;
   /** Heartbeats that fell due while the device was stalled and were never sent. */
@@ -99,6 +103,8 @@ export function emptyCounts(): FaultCounts {
     device_drop_windows: 0,
     edges_lost_by_device: 0,
     edges_lost_in_stall: 0,
+    edges_lost_too_close: 0,
+    edges_lost_silently: 0,
     edges_missed_while_down: 0,
     heartbeats_skipped: 0,
     bounce_pulses: 0,
