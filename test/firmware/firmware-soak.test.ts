@@ -3,9 +3,9 @@
 // The emulator's UART is byte-level, so this checks the firmware's framing and buffering under load; the
 // analog side (baud error against the USB bridge) is argued from the datasheet in hardware-notes/firmware.md.
 import { expect, it } from 'vitest';
-import { DEFAULT_BAUD } from '../../protocol/link-defaults.ts';
+import { CH1_MAX_EXTRA_LATENCY_TICKS, DEFAULT_BAUD, EMULATOR_CHANNEL_LATENCY_TICKS } from '../../protocol/link-defaults.ts';
 import { runFirmware, type FirmwareEdge } from '../../sim/emulator/run-firmware.ts';
-import { decodeRun, edgesOf, heartbeatsOf, seededRandom } from './emulator-helpers.ts';
+import { decodeRun, edgesOf, heartbeatsOf, latencies, seededRandom } from './emulator-helpers.ts';
 import { describeFirmware } from './toolchain-gate.ts';
 
 describeFirmware('soak at the default baud', () => {
@@ -27,6 +27,11 @@ describeFirmware('soak at the default baud', () => {
     expect(edgesOf(records)).toHaveLength(4000);
     expect(heartbeatsOf(records).at(-1)!.lost).toBe(0);
     expect(records.filter((r) => r.kind === 'R' || r.kind === 'H')).toHaveLength(21);
+    // Under load ch0 stays exact; ch1 waits at most for the longest other ISR.
+    expect(latencies(run, records, 0).every((l) => l === EMULATOR_CHANNEL_LATENCY_TICKS[0])).toBe(true);
+    const ch1 = latencies(run, records, 1).map((l) => -l);
+    expect(Math.min(...ch1)).toBe(EMULATOR_CHANNEL_LATENCY_TICKS[1]);
+    expect(Math.max(...ch1)).toBeLessThanOrEqual(EMULATOR_CHANNEL_LATENCY_TICKS[1] + CH1_MAX_EXTRA_LATENCY_TICKS);
     const bytes = run.lines.reduce((n, l) => n + l.length + 1, 0);
     const seconds = (run.lineCycles.at(-1)! - run.lineCycles[0]!) / run.hz;
     expect(bytes / seconds / (DEFAULT_BAUD / 10)).toBeGreaterThan(0.5);
