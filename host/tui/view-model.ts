@@ -186,7 +186,7 @@ export function buildViewModel(input: ViewInput): ViewModel {
       note: result.g_diff_sigma !== null ? `${formatFixed(result.g_diff_sigma, 1, true)}σ` : undefined,
       tone: result.g_diff_sigma !== null && Math.abs(result.g_diff_sigma) > 2 ? 'bad' : 'normal',
     });
-  numbers.push({ label: 'Q', value: result.Q !== null ? result.Q.toFixed(0) : '—', unit: '', tone: 'normal' });
+  numbers.push({ label: 'Q', value: formatWithU(result.Q, result.Q_u, 0), unit: '', tone: 'normal' });
   numbers.push({
     label: 'gate offset',
     value: result.gate_offset_m !== null ? formatFixed(result.gate_offset_m * 1000, 1, true) : '—',
@@ -194,7 +194,8 @@ export function buildViewModel(input: ViewInput): ViewModel {
     note: gateHint(result.gate_offset_m, result.gate_offset_u_m),
     tone: 'normal',
   });
-  numbers.push({ label: 'passes', value: String(Math.max(live.passes, result.passes)), unit: '', tone: 'normal' });
+  // The analysis' count of valid passes (what `analyze` reports); the live count only until the first result has any.
+  numbers.push({ label: 'passes', value: String(result.passes > 0 ? result.passes : live.passes), unit: '', tone: 'normal' });
 
   // Link and device counts come fresh from the live state; pass rejections only from the full analysis.
   const c = live.counts;

@@ -59,3 +59,23 @@ describe('plain fallback', () => {
     expect(last).toContain('ended: end of the simulated run');
   });
 });
+
+describe('watch through the CLI, piped', () => {
+  it('replays a journal to the same T0, g, Q and pass count as `analyze --json`', async () => {
+    const { execFileSync } = await import('node:child_process');
+    const { mkdtempSync, writeFileSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const { join, resolve } = await import('node:path');
+    const bin = resolve(import.meta.dirname, '..', '..', 'bin', 'halfswing.js');
+    const dir = mkdtempSync(join(tmpdir(), 'halfswing-tui-watch-'));
+    const path = join(dir, 'club.journal');
+    writeFileSync(path, `${[...simulateJournal(loadScenario('club-resonator'), { seed: 5, durationS: 900 }).lines].join('\n')}\n`);
+    const shown = execFileSync(process.execPath, [bin, 'watch', path, '--speed', '1000000'], { encoding: 'utf8', env: { ...process.env, CI: 'true' } });
+    const r = JSON.parse(execFileSync(process.execPath, [bin, 'analyze', path, '--json'], { encoding: 'utf8' })) as Record<string, number>;
+    const last = shown.trim().split('\n').at(-1)!;
+    expect(last).toContain(`T0=${formatWithU(r.T0_s, r.T0_u_s).replace(' ± ', '±')} s`);
+    expect(last).toContain(`g=${formatWithU(r.g_m_s2, r.g_u_m_s2).replace(' ± ', '±')} m/s²`);
+    expect(last).toContain(`Q=${formatWithU(r.Q, r.Q_u, 0).replace(' ± ', '±')}`);
+    expect(last).toContain(`passes=${r.passes} `);
+  });
+});
