@@ -1,9 +1,8 @@
 // Child process of the ingest benchmark: reads a journal in one mode and prints {lines, wallS, maxRssMiB} as JSON
 // (lines is counted in read mode only; the analyse mode must not pay for counting).
-//   read     the journal read line by line, nothing done with the lines (the pure I/O baseline)
+//   read     the journal split into lines, nothing done with them (the pure I/O baseline)
 //   analyze  every entry pushed through the run pipeline, then the full result computed
 import { createReadStream } from 'node:fs';
-import { createInterface } from 'node:readline';
 import { performance } from 'node:perf_hooks';
 import { analyzeJournalFile } from '../../host/pipeline/analyze-entries.ts';
 
@@ -17,9 +16,14 @@ const t0 = performance.now();
 let lines = 0;
 let summary: Record<string, unknown> = {};
 if (mode === 'read') {
-  // The same line reader as host/journal/read-journal.ts, so the ratio isolates the decoding and analysis.
-  const rl = createInterface({ input: createReadStream(file, { encoding: 'latin1' }), crlfDelay: Infinity });
-  for await (const _line of rl) lines++;
+  // 64 KiB chunks split on LF into line strings: the cheapest way to read lines in Node, so the ratio is all work.
+  let tail = '';
+  for await (const chunk of createReadStream(file, { encoding: 'latin1', highWaterMark: 1 << 16 })) {
+    const parts = (tail + (chunk as string)).split('\n');
+    tail = parts.pop()!;
+    lines += parts.length;
+  }
+  if (tail.length > 0) lines++;
 } else {
   const { result } = await analyzeJournalFile(file);
   summary = { T0_s: result.T0_s, g_m_s2: result.g_m_s2, passes: result.passes, periods: result.periods };

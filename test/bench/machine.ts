@@ -1,6 +1,6 @@
 // Describes the machine a benchmark ran on, for the results table and the README.
 import { readFileSync } from 'node:fs';
-import { availableParallelism, totalmem } from 'node:os';
+import { availableParallelism, loadavg, totalmem } from 'node:os';
 
 export interface Machine {
   readonly cores: number;
@@ -8,6 +8,8 @@ export interface Machine {
   readonly node: string;
   readonly memGiB: number;
   readonly platform: string;
+  /** 1-minute load average when the run started: other work on a shared machine skews the timings. */
+  readonly load1: number;
 }
 
 export function describeMachine(): Machine {
@@ -24,9 +26,10 @@ export function describeMachine(): Machine {
     node: process.version,
     memGiB: Math.round((totalmem() / 2 ** 30) * 10) / 10,
     platform: `${process.platform}-${process.arch}`,
+    load1: Math.round(loadavg()[0]! * 100) / 100,
   };
 }
 
 export function machineLine(m: Machine): string {
-  return `${m.cores} cores (nproc), ${m.cpu}, ${m.memGiB} GiB, Node ${m.node}, ${m.platform}`;
+  return `${m.cores} cores (nproc), ${m.cpu}, ${m.memGiB} GiB, Node ${m.node}, ${m.platform}; load average ${m.load1} at the start`;
 }
