@@ -221,6 +221,9 @@ export function buildViewModel(input: ViewInput): ViewModel {
     heartbeatInterval_s: input.heartbeatInterval_s,
     expectingLines: expectsLines(feed.connection),
     disconnected: feed.connection.kind === 'reconnecting',
+    blocked: live.blocked,
+    lastAmplitude_deg: live.amplitudeDeg,
+    beamHalfAngle_deg: rig ? Math.asin(Math.min(1, rig.flag_width_m / 2 / rig.length_m)) / RAD : null,
   });
 
   return {

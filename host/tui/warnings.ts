@@ -35,7 +35,15 @@ export interface WarningInput {
   /** The source is live (lines still expected); a finished replay warns about nothing stale. */
   readonly expectingLines: boolean;
   readonly disconnected: boolean;
+  /** The beam is blocked now (the bob may be resting in it). */
+  readonly blocked?: boolean;
+  /** The last measured amplitude, and the half-angle over which the bob blocks the beam (both degrees). */
+  readonly lastAmplitude_deg?: number | null;
+  readonly beamHalfAngle_deg?: number | null;
 }
+
+/** An amplitude within this factor of the beam's half-angle barely clears the beam: common practice, no source. */
+export const DYING_SWING_FACTOR = 1.5;
 
 /** Fraction of the combined variance of g carried by budget lines about the clock. */
 export function clockShare(budget: readonly BudgetLine[]): number {
@@ -56,11 +64,16 @@ export function warningsFor(w: WarningInput): ViewWarning[] {
   if (w.expectingLines && !w.disconnected && w.expectedPeriod_s !== null && w.expectedPeriod_s > 0) {
     const from = w.lastPass_s ?? w.since_s;
     const silent = w.now_s - from;
-    if (silent > SILENT_PERIODS * w.expectedPeriod_s)
-      out.push({
-        reason: 'no-passes',
-        text: `no passes for ${silent.toFixed(0)} s (${(silent / w.expectedPeriod_s).toFixed(0)} periods): is it swinging through the beam?`,
-      });
+    if (silent > SILENT_PERIODS * w.expectedPeriod_s) {
+      const head = `no passes for ${silent.toFixed(0)} s (${(silent / w.expectedPeriod_s).toFixed(0)} periods)`;
+      const dying = w.lastAmplitude_deg != null && w.beamHalfAngle_deg != null && w.lastAmplitude_deg < DYING_SWING_FACTOR * w.beamHalfAngle_deg;
+      const why = w.blocked
+        ? 'the beam stays blocked: is the bob resting in it?'
+        : dying
+          ? 'the swing has died down to the beam width: release it again, then press r'
+          : 'is it swinging through the beam?';
+      out.push({ reason: 'no-passes', text: `${head}: ${why}` });
+    }
   }
   if (w.expectingLines && !w.disconnected && w.lastHeartbeat_s !== null && w.heartbeatInterval_s !== null && w.heartbeatInterval_s > 0) {
     const gap = w.now_s - w.lastHeartbeat_s;

@@ -31,6 +31,14 @@ describe('warnings', () => {
     expect(reasons({ lastPass_s: 50, expectingLines: false })).toEqual([]);
   });
 
+  it('says why the passes stopped when it can tell', () => {
+    const text = (w: Partial<WarningInput>) => warningsFor({ ...base, lastPass_s: 80, ...w })[0]!.text;
+    expect(text({})).toMatch(/^no passes for 20 s \(10 periods\): is it swinging through the beam\?$/);
+    expect(text({ blocked: true })).toMatch(/beam stays blocked/);
+    expect(text({ lastAmplitude_deg: 1.6, beamHalfAngle_deg: 1.43 })).toMatch(/died down to the beam width/);
+    expect(text({ lastAmplitude_deg: 5, beamHalfAngle_deg: 1.43 })).toMatch(/is it swinging through the beam/);
+  });
+
   it('heartbeats missing for more than three intervals', () => {
     expect(reasons({ lastHeartbeat_s: 97.1 })).toEqual([]);
     expect(reasons({ lastHeartbeat_s: 96.9 })).toEqual(['heartbeats-missing']);
