@@ -1,8 +1,9 @@
-// Writing a simulated journal and its truth file: streamed to temporary files, renamed when complete.
-import { createWriteStream } from 'node:fs';
+// Writing a simulated journal and its truth file: whole at once (temp + rename), or paced in place for followers.
+import { createWriteStream, type WriteStream } from 'node:fs';
 import { rename, rm, writeFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import type { Scenario } from '../scenario.ts';
+import { paceLines, type PaceOptions } from '../pace.ts';
 import { simulateJournal, type SimOptions } from '../simulate.ts';
 import { truthJson, type Truth } from '../truth.ts';
 
@@ -11,14 +12,51 @@ export function truthPathFor(journalPath: string): string {
   return `${journalPath}.truth.json`;
 }
 
+export interface JournalFileOptions extends SimOptions {
+  readonly path: string;
+  readonly signal?: AbortSignal;
+  /**
+   * N× real time: the journal grows in place as a recorder's would (so `halfswing watch` can follow it), and a
+   * stop leaves the whole lines so far. Absent: as fast as possible, into a temporary file renamed at the end.
+   */
+  readonly speed?: number;
+  readonly now?: PaceOptions['now'];
+  readonly sleep?: PaceOptions['sleep'];
+}
+
+async function put(out: WriteStream, text: string): Promise<void> {
+  if (!out.write(text)) await once(out, 'drain');
+}
+
+async function writeTruth(path: string, truth: Truth): Promise<void> {
+  const tmp = `${truthPathFor(path)}.tmp-${process.pid}`;
+  await writeFile(tmp, `${truthJson(truth)}\n`);
+  await rename(tmp, truthPathFor(path));
+}
+
 /**
- * Simulates a run into `path` (and its truth into `path.truth.json`), writing with back-pressure so memory stays
- * flat for runs of days. Nothing is left at either path unless both are complete.
+ * Simulates a run into `path` and its truth into `path.truth.json`, with back-pressure so memory stays flat for
+ * runs of days. Unpaced, nothing is left at either path unless both are complete. Paced, the truth is written
+ * only when the run completes.
  */
-export async function writeScenarioJournal(scenario: Scenario, opts: SimOptions & { path: string; signal?: AbortSignal }): Promise<{ truth: Truth; lines: number }> {
-  const tmp = `${opts.path}.tmp-${process.pid}`;
-  const truthTmp = `${truthPathFor(opts.path)}.tmp-${process.pid}`;
+export async function writeScenarioJournal(scenario: Scenario, opts: JournalFileOptions): Promise<{ truth: Truth; lines: number }> {
   const { lines, truth } = simulateJournal(scenario, opts);
+  if (opts.speed !== undefined && Number.isFinite(opts.speed)) {
+    const out = createWriteStream(opts.path, { encoding: 'latin1' });
+    let n = 0;
+    try {
+      for await (const line of paceLines(lines, { speed: opts.speed, signal: opts.signal, now: opts.now, sleep: opts.sleep })) {
+        await put(out, `${line}\n`);
+        n++;
+      }
+    } finally {
+      out.end();
+      await once(out, 'close');
+    }
+    if (truth.complete) await writeTruth(opts.path, truth);
+    return { truth, lines: n };
+  }
+  const tmp = `${opts.path}.tmp-${process.pid}`;
   const out = createWriteStream(tmp, { encoding: 'latin1' });
   let n = 0;
   try {
@@ -28,20 +66,19 @@ export async function writeScenarioJournal(scenario: Scenario, opts: SimOptions 
       chunk += `${line}\n`;
       n++;
       if (chunk.length >= 1 << 16) {
-        if (!out.write(chunk)) await once(out, 'drain');
+        await put(out, chunk);
         chunk = '';
       }
     }
     out.end(chunk);
     await once(out, 'finish');
-    await writeFile(truthTmp, `${truthJson(truth)}\n`);
-    await rename(truthTmp, truthPathFor(opts.path));
+    await writeTruth(opts.path, truth);
     await rename(tmp, opts.path);
     return { truth, lines: n };
   } catch (e) {
     out.destroy();
     await rm(tmp, { force: true });
-    await rm(truthTmp, { force: true });
+    await rm(`${truthPathFor(opts.path)}.tmp-${process.pid}`, { force: true });
     throw e;
   }
 }

@@ -68,3 +68,43 @@ describe('halfswing sim', () => {
     expect(r.out).toBe([...lines].join('\n') + '\n');
   });
 });
+
+describe('writeScenarioJournal, paced', () => {
+  it('grows the journal in place at N× real time; a stop leaves whole lines and no truth file', async () => {
+    const { writeScenarioJournal } = await import('../../sim/index.ts');
+    const { existsSync } = await import('node:fs');
+    const dir = mkdtempSync(join(tmpdir(), 'halfswing-sim-paced-'));
+    const s = loadScenario('club-resonator');
+    let now = 0;
+    const slept: number[] = [];
+    const full = join(dir, 'full.journal');
+    await writeScenarioJournal(s, { seed: 1, durationS: 20, path: full, speed: 10, now: () => now, sleep: async (ms) => void (slept.push(ms), (now += ms)) });
+    const { lines } = simulateJournal(s, { seed: 1, durationS: 20 });
+    expect(readFileSync(full, 'latin1')).toBe([...lines].join('\n') + '\n');
+    expect(existsSync(`${full}.truth.json`)).toBe(true);
+    // 20 s of rig time at 10× is about 2 s of waiting on the injected clock.
+    expect(now).toBeGreaterThan(1900);
+    expect(now).toBeLessThan(2000);
+
+    const part = join(dir, 'part.journal');
+    const ac = new AbortController();
+    now = 0;
+    await writeScenarioJournal(s, {
+      seed: 1,
+      durationS: 20,
+      path: part,
+      speed: 10,
+      signal: ac.signal,
+      now: () => now,
+      sleep: async (ms) => {
+        now += ms;
+        if (now > 1000) ac.abort();
+      },
+    });
+    const text = readFileSync(part, 'latin1');
+    expect(text.endsWith('\n')).toBe(true);
+    expect(text.length).toBeLessThan(readFileSync(full, 'latin1').length);
+    expect(readFileSync(full, 'latin1').startsWith(text)).toBe(true);
+    expect(existsSync(`${part}.truth.json`)).toBe(false);
+  });
+});

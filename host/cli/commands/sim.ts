@@ -105,7 +105,7 @@ export const command: Command = {
     journal: { type: 'string', short: 'o', arg: 'FILE', description: 'write the journal to FILE, and its truth to FILE.truth.json' },
     truth: { type: 'string', arg: 'FILE', description: 'when streaming to stdout: write the truth JSON to FILE at the end' },
     pty: { type: 'boolean', description: 'serve the device on a pseudo-terminal (prints the port to open; needs socat)' },
-    speed: { type: 'string', arg: 'N', description: 'N× real time (default: as fast as possible for files and stdout, 1 for --pty)' },
+    speed: { type: 'string', arg: 'N', description: 'N× real time (default: as fast as possible for files and stdout, 1 for --pty); with --journal the file grows in place, for watch' },
     seed: { type: 'string', arg: 'N', description: 'random seed; the same seed gives the same bytes', default: '1' },
     duration: { type: 'string', arg: 'TIME', description: 'rig time to simulate: 90s, 20m, 2h, 7d (default: the scenario\'s)' },
     length: { type: 'string', arg: 'M', description: 'pendulum length, pivot to bob centre (m)' },
@@ -147,9 +147,22 @@ Everything is simulated: no hardware is touched.`,
     }
     if (journal) {
       const t = Date.now();
-      const { lines, truth } = await writeScenarioJournal(sc, { ...o, path: journal });
+      const ac = new AbortController();
+      const onInt = (): void => ac.abort();
+      process.once('SIGINT', onInt);
+      let r;
+      try {
+        r = await writeScenarioJournal(sc, { ...o, path: journal, speed: speedS, signal: ac.signal });
+      } catch (e) {
+        if (ac.signal.aborted) throw new UserError(`sim: stopped; nothing written to ${journal}`, 130);
+        throw e;
+      } finally {
+        process.removeListener('SIGINT', onInt);
+      }
+      const { lines, truth } = r;
+      const truthNote = truth.complete ? ` and ${truthPathFor(journal)}` : ' (stopped early: no truth file)';
       io.stderr.write(
-        `halfswing sim: wrote ${journal} (${lines} lines, ${(truth.duration_s / 3600).toFixed(2)} h of rig time, ${((Date.now() - t) / 1000).toFixed(1)} s) and ${truthPathFor(journal)}\n`,
+        `halfswing sim: wrote ${journal} (${lines} lines, ${(truth.duration_s / 3600).toFixed(2)} h of rig time, ${((Date.now() - t) / 1000).toFixed(1)} s)${truthNote}\n`,
       );
       return 0;
     }
