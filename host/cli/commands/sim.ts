@@ -4,6 +4,7 @@ import { writeFile, rename } from 'node:fs/promises';
 import { optNumber, optString, type Command, type CommandIo, type ParsedArgs } from '../command.ts';
 import { UserError } from '../errors.ts';
 import {
+  applyOverrides,
   DEFAULT_SCENARIO,
   listScenarios,
   loadScenario,
@@ -137,14 +138,14 @@ Everything is simulated: no hardware is touched.`,
     const speedS = optNumber(args, 'speed', { min: 1e-3, max: 1e6 });
     const journal = optString(args, 'journal');
     if (journal && args.values.pty) throw new UserError('sim: choose --journal FILE or --pty, not both', 2);
-    let sc: Scenario;
+    // The overrides are validated before anything is opened; the run itself applies them again.
     try {
-      sc = scenario;
-      simulateJournal(sc, o); // validates the overrides before anything is opened
+      applyOverrides(scenario, { ...o, duration_s: o.durationS });
     } catch (e) {
       if (e instanceof ScenarioError) throw new UserError(`sim: ${e.message}`, 2);
       throw e;
     }
+    const sc = scenario;
     if (journal) {
       const t = Date.now();
       const ac = new AbortController();
