@@ -51,6 +51,16 @@ export interface RunData {
   readonly lineRejections?: AnalysisResult['line_rejections'];
   /** Standard uncertainty of the sensor's blocking − unblocking delay difference, s (default 5 µs). */
   readonly delayDifferenceU_s?: number;
+  /** Build the per-pass rows (default true); a summary or --json does not need them. */
+  readonly rows?: boolean;
+}
+
+/** About `max` evenly spread values of an array (all when shorter): enough for a robust median, much cheaper. */
+function everyKth(xs: ArrayLike<number>, max: number): Float64Array {
+  const stride = Math.max(1, Math.floor(xs.length / max));
+  const out = new Float64Array(Math.ceil(xs.length / stride));
+  for (let i = 0, k = 0; i < xs.length; i += stride) out[k++] = xs[i]!;
+  return out;
 }
 
 /** Every `step`-th element, so plots stay ≤ ~max points. */
@@ -98,7 +108,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   // A swing that barely clears the beam (transit over a third of the half-period, amplitude below ~2φb) has a
   // mid-transit time that moves with the amplitude and the gate offset far more than a period's noise: such
   // passes give amplitudes but no periods and no gate offset.
-  const medHalf = median(half);
+  const medHalf = median(everyKth(half, 4000));
   const slow = new Uint8Array(n);
   let slowCount = 0;
   for (let c = 0; c < n; c++) if (p.index[c]! >= 0 && p.transit[c]! > medHalf / 3) (slow[c] = 1), slowCount++;
@@ -111,7 +121,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   // Amplitudes (exact transit-time solution) and the zero-amplitude period, iterated since ω0 = 2π/T0.
   const amp = new Float64Array(n).fill(NaN);
   const pAmp = new Float64Array(pIdx.length).fill(NaN);
-  let T0: number | null = P.length ? median(P) : null;
+  let T0: number | null = P.length ? median(everyKth(P, 4000)) : null;
   let P0: Float64Array = P;
   let clipped = 0;
   const phiB = rig ? blockHalfAngle(rig.flag_width_m, rig.length_m) : NaN;
@@ -176,7 +186,8 @@ export function analyzeRun(d: RunData): AnalysisResult {
         (validCount - ampA.length > 0.05 * validCount ? ' (many: check flag_width_m and length_m)' : ' (the swing was dying out, or a gate offset)'),
     );
 
-  const damping = T0 !== null && ampA.length ? fitDamping(ampT, ampA, T0) : null;
+  const medA = ampA.length ? median(ampA) : NaN;
+  const damping = T0 !== null && ampA.length ? fitDamping(ampT, ampA, T0, medA) : null;
   if (T0 !== null && rig && !damping) warnings.push('too few swings, or too little decay, to fit the damping (needs ≥ 40 passes)');
 
   const law = fitPeriodLaw(
@@ -196,7 +207,6 @@ export function analyzeRun(d: RunData): AnalysisResult {
   let relW = 0;
   let relD = 0;
   const delayU = d.delayDifferenceU_s ?? 5e-6;
-  const medA = ampA.length ? median(ampA) : NaN;
   if (rig && Number.isFinite(medA)) {
     let best = -1;
     for (let c = 0; c < n; c++) if (Number.isFinite(amp[c]!) && (best < 0 || Math.abs(amp[c]! - medA) < Math.abs(amp[best]! - medA))) best = c;
@@ -216,7 +226,8 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const dampRel = model ? model.lines.find((l) => l.name.startsWith('damping'))!.period_rel : 0;
   const T0u = T0 !== null ? T0 / (1 + dampRel) : null;
   const budget: BudgetLine[] = [];
-  const P0used = P0.filter((_, i) => keep[i] === 1);
+  const P0used: number[] = [];
+  for (let i = 0; i < P0.length; i++) if (keep[i] === 1) P0used.push(P0[i]!);
   const uStatRel = T0 !== null && P0used.length > 1 ? batchMeansStdError(P0used) / T0 : NaN;
   let g: number | null = null;
   let gU: number | null = null;
@@ -260,7 +271,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const swings: SwingRow[] = [];
   const pk = new Int32Array(n).fill(-1);
   pIdx.forEach((c, k) => (pk[c] = k));
-  for (let c = 0; c < n; c++) {
+  for (let c = 0; c < (d.rows === false ? 0 : n); c++) {
     const st = p.status[c]!;
     const flags: string[] = st === 0 && p.bridgedBefore[c] === 0 && p.index[c] !== 0 && !slow[c] ? NO_FLAGS : [];
     if (st === 1) flags.push('rejected:transit');

@@ -8,6 +8,7 @@
 // the windows' slope uncertainties. Q = πA/ΔA per cycle = πA/(T0·rate(A)) for small losses.
 import { linearFit } from './least-squares.ts';
 import type { DampingFit } from './result.ts';
+import { median } from './stats.ts';
 
 /** Rate of amplitude loss measured over one window. */
 export interface RateWindow {
@@ -64,10 +65,11 @@ const MODELS: readonly { model: DampingFit['model']; terms: readonly (0 | 1 | 2)
 ];
 
 /**
- * Fits the four loss laws to amplitudes A (radians) at times t (s); null when there are too few swings
+ * Fits the four loss laws to amplitudes A (radians) at times t (s), Q at the median amplitude (given, or computed);
+ * null when there are too few swings
  * (fewer than 40) or the amplitude does not measurably fall.
  */
-export function fitDamping(t: ArrayLike<number>, a: ArrayLike<number>, t0: number): DampingResult | null {
+export function fitDamping(t: ArrayLike<number>, a: ArrayLike<number>, t0: number, medianAmplitude?: number): DampingResult | null {
   const n = t.length;
   if (n < 40) return null;
   const windows = rateWindows(t, a, Math.max(5, Math.min(60, Math.floor(n / 20))));
@@ -88,8 +90,7 @@ export function fitDamping(t: ArrayLike<number>, a: ArrayLike<number>, t0: numbe
     fits.push({ model, score, a0: coef[0]!, a1: coef[1]!, a2: coef[2]!, rms_residual_deg: (Math.sqrt(ss / m) * 180) / Math.PI });
   }
   if (fits.length === 0) return null;
-  const sorted = Array.from(a).sort((x, y) => x - y);
-  const medA = sorted[sorted.length >> 1]!;
+  const medA = medianAmplitude ?? median(a);
   const best = fits.reduce((b, f) => (f.score < b.score ? f : b));
   const rate = lossRate(best, medA);
   if (!(rate > 0)) return null;

@@ -11,9 +11,9 @@ export function analyzeEntries(entries: Iterable<JournalEntry>, opts: PipelineOp
   return p.result();
 }
 
-/** Feeds a journal file through a pipeline and returns the pipeline (for its rig) and the result. */
-export async function analyzeJournalFile(path: string, opts: PipelineOptions = {}): Promise<{ pipeline: RunPipeline; result: AnalysisResult }> {
+/** Feeds a journal file through a pipeline and returns the pipeline (for its rig) and the result (`rows: false`: no swing rows). */
+export async function analyzeJournalFile(path: string, opts: PipelineOptions & { rows?: boolean } = {}): Promise<{ pipeline: RunPipeline; result: AnalysisResult }> {
   const p = createRunPipeline(opts);
   for await (const batch of readJournalBatches(path)) for (const e of batch) p.push(e);
-  return { pipeline: p, result: p.result() };
+  return { pipeline: p, result: p.result({ rows: opts.rows ?? true }) };
 }

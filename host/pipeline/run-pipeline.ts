@@ -42,8 +42,11 @@ export interface RunPipeline {
   push(entry: JournalEntry): void;
   /** A cheap snapshot for live views; `nowHostUs` (µs since `#start`) sets the heartbeat age. */
   live(nowHostUs?: number): LiveState;
-  /** The full analysis of everything pushed so far (deterministic; does not change the pipeline). */
-  result(): AnalysisResult;
+  /**
+   * The full analysis of everything pushed so far (deterministic; does not change the pipeline).
+   * `rows: false` leaves `swings` empty (faster, for a summary or JSON that does not print them).
+   */
+  result(opts?: { rows?: boolean }): AnalysisResult;
   /** Restarts the live running estimates (mean period) from `hostUs` on; the batch result is unaffected. */
   restartEstimates(hostUs: number): void;
   /** The rig in use (given, or from the journal), if any. */
@@ -310,7 +313,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       };
     },
 
-    result(): AnalysisResult {
+    result(ro: { rows?: boolean } = {}): AnalysisResult {
       const w = [...warnings];
       if (c.malformed > 0) w.push(`${c.malformed} journal line(s) were not in journal format and were skipped`);
       const rig = rigNow();
@@ -333,7 +336,9 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       const clock = chooseClock(opts.clock, beats, pulses, bootHz[0] ?? hzNow, w);
       const offsets = bootOffsets(beats, clock.ppm);
       const k = 1 + clock.ppm * 1e-6;
-      // Passes, the pending one included (a snapshot, not a state change).
+      // Passes, the pending one included (a snapshot, not a state change). The pass time is the middle of the
+      // blocked interval: the swing is time-symmetric about the lowest point, so for a centred beam the midpoint is
+      // the crossing time exactly; sensor delays shift every midpoint alike and cancel in intervals (DEVELOPERS.md).
       const pb = builder;
       const pend = pb?.pendingPass() ?? null;
       const np = (pb?.passes.length ?? 0) + (pend ? 1 : 0);
@@ -373,6 +378,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         run: { start_iso: startIso, duration_s: lastUs / 1e6, source, firmware: hello?.fw ?? null, hz_nominal: bootHz[0] ?? (sawHello ? hzNow : null) },
         warnings: w,
         lineRejections: { ...rejections },
+        rows: ro.rows ?? true,
         settings: { glitch_s: glitchS || (opts.glitchS ?? defaultEdgeThresholdS(rig)), bounce_s: bounceS || (opts.bounceS ?? defaultEdgeThresholdS(rig)) },
         ...(opts.delayDifferenceU_s !== undefined ? { delayDifferenceU_s: opts.delayDifferenceU_s } : {}),
       });

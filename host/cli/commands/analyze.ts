@@ -73,11 +73,12 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const clock = parseClockOption(optString(args, 'clock'));
     const rigPath = optString(args, 'rig');
     const rig = rigPath !== undefined ? await loadRig(rigPath, io.cwd) : undefined;
-    const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock });
-    if (result.passes === 0 && result.swings.length === 0)
-      throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.channel ?? 0}, and did the bob swing?)`);
     const csvPath = optString(args, 'csv');
     const reportPath = optString(args, 'report');
+    const rows = csvPath !== undefined || reportPath !== undefined;
+    const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows });
+    if (result.passes + result.counts.rejected_passes + (result.counts.unsequenced_passes ?? 0) === 0)
+      throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.channel ?? 0}, and did the bob swing?)`);
     const files: { path: string; text: string }[] = [];
     if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), text: swingsCsv(result.swings) });
     if (reportPath !== undefined) {
