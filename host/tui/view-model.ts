@@ -156,7 +156,12 @@ export function buildViewModel(input: ViewInput): ViewModel {
   status.push(connectionItem(feed));
   status.push({
     label: 'clock',
-    value: result.clock_ppm !== null ? `${formatWithU(result.clock_ppm, result.clock_u_ppm, 1).replace(/^(?=\d)/, '+')} ppm` : 'not fitted yet',
+    value:
+      result.clock_ppm === null
+        ? 'not fitted yet'
+        : result.clock_source === 'nominal'
+          ? `nominal (±${formatFixed(result.clock_u_ppm, 0)} ppm)`
+          : `${formatWithU(result.clock_ppm, result.clock_u_ppm, 1).replace(/^(?=\d)/, '+')} ppm (${result.clock_source})`,
     tone: result.clock_ppm !== null ? 'normal' : 'muted',
     line: 2,
   });

@@ -53,8 +53,8 @@ describe.skipIf(!hasTmux)('npm start in a terminal', () => {
     mkdirSync(join(repo, 'test', 'artifacts'), { recursive: true });
     writeFileSync(join(repo, 'test', 'artifacts', 'tui-demo-80x24.txt'), screen);
     expect(ready(screen), screen).toBe(true);
-    // Give it a few more seconds of swinging, as a newcomer would, then read the numbers.
-    await sleep(4000);
+    // Give it some more swinging, as a newcomer would (the damping fit and Q need ~40 passes), then read the numbers.
+    await sleep(10_000);
     const later = capture();
     writeFileSync(join(repo, 'test', 'artifacts', 'tui-demo-80x24.txt'), later);
 
