@@ -2,7 +2,8 @@
 import type { Rig } from '../../protocol/rig.ts';
 import { fitDamping, qualityFactor } from './damping.ts';
 import { periodRatio } from './elliptic.ts';
-import { gateOffset } from './gate-offset.ts';
+import { gateOffset, midShiftPerMetre } from './gate-offset.ts';
+import { fitT0Line } from './t0-line-fit.ts';
 import { normalGravityAtHeight } from './normal-gravity.ts';
 import { pendulumModel } from './pendulum-corrections.ts';
 import { clipMask, fitPeriodLaw, maskedMean, reducePeriods } from './period-law.ts';
@@ -173,7 +174,23 @@ export function analyzeRun(d: RunData): AnalysisResult {
     T0 = maskedMean(P, keep);
     warnings.push('no rig description: amplitudes, the reduction to zero amplitude and g are not available (give --rig FILE)');
   }
-  if (clipped > 0) warnings.push(`${clipped} period(s) far from the rest were left out of T0`);
+  if (clipped > 0) warnings.push(`${clipped} period(s) far from the rest were left out of the mean of periods`);
+
+  // The final T0: a line through the amplitude-reduced pass times (t0-line-fit.ts), far more efficient than the
+  // mean of the periods, which stays for the per-swing table and the running g. The fixed point above used the mean;
+  // the two differ by far less than the amplitude's sensitivity to ω0 could feel.
+  const T0mean = T0;
+  let line: ReturnType<typeof fitT0Line> = null;
+  if (T0 !== null) {
+    const use = new Uint8Array(n);
+    for (let c = 0; c < n; c++) use[c] = p.index[c]! >= 0 && !slow[c] ? 1 : 0;
+    const omega0m = (2 * Math.PI) / T0;
+    line = fitT0Line(
+      { index: p.index, segment: p.segment, t: p.t, amplitude: rig ? amp : new Float64Array(n), use },
+      rig ? (th: number) => midShiftPerMetre(th, omega0m, rig.flag_width_m, rig.length_m) : null,
+    );
+    if (line && Number.isFinite(line.T0)) T0 = line.T0;
+  }
   if (T0 === null) warnings.push(validCount === 0 ? 'no valid passes: nothing to analyse' : 'fewer than three passes in a row: no full period yet');
 
   // Amplitudes of valid passes in time order, for the start/end values and damping.
@@ -228,16 +245,24 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const budget: BudgetLine[] = [];
   const P0used: number[] = [];
   for (let i = 0; i < P0.length; i++) if (keep[i] === 1) P0used.push(P0[i]!);
-  const uStatRel = T0 !== null && P0used.length > 1 ? batchMeansStdError(P0used) / T0 : NaN;
+  const uStatRel = line && T0 !== null ? line.u_T0 / T0 : T0 !== null && P0used.length > 1 ? batchMeansStdError(P0used) / T0 : NaN;
   let g: number | null = null;
   let gU: number | null = null;
   let T0_u: number | null = null;
   if (T0u !== null) {
-    const redShift = (rel: number): number => (rel && rig ? Math.abs(maskedMean(reducePeriods(P, pAmp, 1 + rel), keep) / T0! - 1) : 0);
+    // A systematic scale error of the amplitudes moves either estimator of T0 alike; the mean shows it cheaply.
+    const redShift = (rel: number): number => (rel && rig ? Math.abs(maskedMean(reducePeriods(P, pAmp, 1 + rel), keep) / T0mean! - 1) : 0);
     const uRedW = redShift(relW);
     const uRedD = redShift(relD);
     const uClock = d.clock.u_ppm * 1e-6;
-    if (Number.isFinite(uStatRel)) budget.push({ name: 'period timing (statistics of the periods)', u_rel_g: 2 * uStatRel, note: `${P0used.length} periods` });
+    if (Number.isFinite(uStatRel))
+      budget.push({
+        name: 'period timing (statistics)',
+        u_rel_g: 2 * uStatRel,
+        note: line
+          ? `line through ${line.passes} reduced pass times; white ${(line.sigmaWhite_s * 1e6).toFixed(2)} µs, walk ${(line.sigmaWalk_s * 1e6).toFixed(3)} µs per pass`
+          : `${P0used.length} periods`,
+      });
     budget.push({ name: `device clock (${d.clock.source})`, u_rel_g: 2 * uClock, note: `${d.clock.ppm.toFixed(2)} ± ${d.clock.u_ppm.toPrecision(2)} ppm` });
     if (rig) {
       budget.push({ name: 'flag width (amplitude reduction)', u_rel_g: 2 * uRedW, note: `w = ${(rig.flag_width_m * 1000).toFixed(2)} ± ${(rig.flag_width_u_m * 1000).toFixed(2)} mm` });
@@ -312,7 +337,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
       if (m === 0) continue;
       const mean = s / m;
       const sdRel = m > 1 ? Math.sqrt(Math.max(0, s2 / m - mean * mean)) / mean / Math.sqrt(m) : 0;
-      const gk = g * (T0! / mean) ** 2;
+      const gk = g * (T0mean! / mean) ** 2;
       gRun.push({ t: p.t[pIdx[k1 - 1]!]!, g: gk, u: gk * Math.sqrt(sysRel2 + 4 * sdRel * sdRel) });
     }
   }

@@ -48,6 +48,12 @@ export function offsetFromAlternation(diffS: number, theta0: number, omega0: num
   return x0;
 }
 
+/** d(mid-transit time)/d(gate offset) at zero offset, s per metre: the alternation per metre of offset, halved. */
+export function midShiftPerMetre(theta0: number, omega0: number, widthM: number, lengthM: number): number {
+  const e0 = Math.asin(Math.min(1, widthM / 2 / lengthM));
+  return 1 / (bottomSpeed(e0, Math.sin(0.5 * theta0), omega0) * lengthM * Math.cos(e0));
+}
+
 /** Angular speed θ' at angle e for amplitude sin(θ0/2) = k (energy law). */
 function bottomSpeed(e: number, k: number, omega0: number): number {
   return 2 * omega0 * Math.sqrt(Math.max(1e-300, k * k - Math.sin(0.5 * e) ** 2));

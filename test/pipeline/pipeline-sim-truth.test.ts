@@ -32,6 +32,35 @@ describe('against the simulator truth', () => {
     expect(tInside).toBeGreaterThanOrEqual(34);
   });
 
+  it('T0 from timing alone is efficient and its stated uncertainty covers (least-squares bound, reference-values §8)', () => {
+    // Only pass-time jitter: 20 µs per edge, exact clock (given as 0 ppm), w known to 0.1 µm, no delays.
+    const sc = scenario({
+      name: 'timing-only',
+      rig: { length_m: 1, flag_width_m: 0.025, flag_width_u_m: 1e-7, bob_diameter_m: 0.025 },
+      duration_s: 120,
+      physics: { g_m_s2: 9.80665, release_deg: 3 },
+      gate: { offset_m: 0.0007, blocking_delay_us: 0, unblocking_delay_us: 0, jitter_us: 20 },
+    });
+    const errs: number[] = [];
+    let inside = 0;
+    let n = 0;
+    let u = 0;
+    for (let seed = 1; seed <= 40; seed++) {
+      const { truth, result: r } = simAndAnalyze(sc, { seed }, { clock: 0 });
+      errs.push(r.T0_s! - truth.physics.T0_s);
+      if (Math.abs(r.T0_s! - truth.physics.T0_s) < 2 * r.T0_u_s!) inside++;
+      n = r.passes;
+      u += r.T0_u_s! / 40;
+    }
+    const sd = Math.sqrt(errs.reduce((a, e) => a + e * e, 0) / errs.length);
+    // σ_T0 ≥ 2σ_pass√(12/(N(N²−1)))/r(θ0), σ_pass = 20 µs/√2 (OLS slope bound, Bevington & Robinson ch. 6, from memory).
+    const bound = (2 * (20e-6 / Math.SQRT2) * Math.sqrt(12 / (n * (n * n - 1)))) / 1.000171;
+    console.log(`timing-only T0: rms error ${(sd * 1e9).toFixed(1)} ns, LS bound ${(bound * 1e9).toFixed(1)} ns, mean stated u ${(u * 1e9).toFixed(1)} ns, coverage ${((100 * inside) / 40).toFixed(1)} %`);
+    expect(sd).toBeLessThan(1.5 * bound);
+    expect(u).toBeLessThan(2 * bound);
+    expect(inside).toBeGreaterThanOrEqual(34);
+  });
+
   it.each([3, 10, 30, 60])('amplitude per swing within 0.05° at %f° when w is exact', (deg) => {
     const sc = scenario({
       name: `amp-${deg}`,

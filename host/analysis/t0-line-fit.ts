@@ -1,0 +1,177 @@
+// T0 from a straight line through amplitude-reduced pass times: efficient where a mean of periods is not.
+//
+// A mean of the full periods t_k − t_(k−2) telescopes to its end points, so its error falls as 1/N, while a
+// least-squares line through N pass times reaches σ√(12/(N(N² − 1))) (reference-values §8). The swing is not
+// isochronous, so each half-period is first divided by the exact law r(θ) = 2K(sin²(θ/2))/π at its amplitude:
+//   τ_k = τ_(k−1) + (t_k − t_(k−1)) / r(θ̄),
+// and τ_k = a_seg + k·T0/2 + x_seg·s_k·μ(θ_k)/r(θ_k) + noise, with s_k = ±1 by pass parity and μ the mid-transit
+// shift per metre of gate offset (the alternation of §2b grows as the amplitude falls). Amplitudes are smoothed
+// over ±8 passes first, so their noise barely reaches τ. The slope comes from the Frisch–Waugh–Lovell form
+// (intercept and alternation partialled out per segment). Its uncertainty does not trust the residuals to be
+// independent: τ carries white timing noise σ_w and a random walk σ_u. The walk has a known source, the amplitude
+// noise carried into each reduced half-period (its size follows from the scatter of the raw amplitudes about the
+// smoothed ones), and possibly unknown ones (slow drifts), taken from the residual differences at a long lag when
+// they are significant (2σ). Var(β) = σ_w²Σc² + σ_u²ΣC², c the slope's weights on τ and C their tail sums.
+import { periodRatio } from './elliptic.ts';
+
+/** Inputs, parallel per pass: pass number within its segment, segment, time (s), amplitude (rad), usable flag. */
+export interface LinePasses {
+  readonly index: ArrayLike<number>;
+  readonly segment: ArrayLike<number>;
+  readonly t: ArrayLike<number>;
+  readonly amplitude: ArrayLike<number>;
+  readonly use: ArrayLike<number>;
+}
+
+/** The fitted T0 and the parts of its uncertainty. */
+export interface T0Line {
+  readonly T0: number;
+  readonly u_T0: number;
+  readonly passes: number;
+  readonly sigmaWhite_s: number;
+  readonly sigmaWalk_s: number;
+}
+
+const SMOOTH = 8;
+const LONG_LAG = 32;
+
+/** Smoothed amplitudes: mean over ±SMOOTH usable passes of the same segment (NaN where unusable). */
+export function smoothAmplitudes(p: LinePasses): Float64Array {
+  const n = p.t.length;
+  const out = new Float64Array(n).fill(NaN);
+  const list: number[] = [];
+  const flush = (): void => {
+    const m = list.length;
+    const pre = new Float64Array(m + 1);
+    for (let i = 0; i < m; i++) pre[i + 1] = pre[i]! + p.amplitude[list[i]!]!;
+    for (let i = 0; i < m; i++) {
+      const lo = Math.max(0, i - SMOOTH);
+      const hi = Math.min(m, i + SMOOTH + 1);
+      out[list[i]!] = (pre[hi]! - pre[lo]!) / (hi - lo);
+    }
+    list.length = 0;
+  };
+  let seg = -1;
+  for (let c = 0; c < n; c++) {
+    if (!p.use[c] || !Number.isFinite(p.amplitude[c]!)) continue;
+    if (p.segment[c] !== seg) flush(), (seg = p.segment[c]!);
+    list.push(c);
+  }
+  flush();
+  return out;
+}
+
+/**
+ * Fits T0; `mu(θ)` is the mid-transit shift per metre of gate offset (null: a constant alternation).
+ * Null with fewer than 8 usable passes.
+ */
+export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null): T0Line | null {
+  const th = smoothAmplitudes(p);
+  const n = p.t.length;
+  // Per segment: reduced times τ, pass numbers k, alternation regressor z.
+  const segs: { k: number[]; tau: number[]; z: number[] }[] = [];
+  let cur: { k: number[]; tau: number[]; z: number[] } | null = null;
+  // For the modelled walk: Σ (∂Δτ/∂θ̄)² over the steps, and the raw amplitudes' scatter about the smoothed ones.
+  let grad2 = 0;
+  let steps = 0;
+  let dev2 = 0;
+  let devN = 0;
+  let seg = -1;
+  let last = -1;
+  for (let c = 0; c < n; c++) {
+    if (!p.use[c] || !Number.isFinite(th[c]!)) continue;
+    if (p.segment[c] !== seg || !cur) {
+      seg = p.segment[c]!;
+      cur = { k: [], tau: [], z: [] };
+      segs.push(cur);
+      cur.tau.push(p.t[c]!);
+    } else {
+      const tb = 0.5 * (th[last]! + th[c]!);
+      const r = periodRatio(tb);
+      const dt = p.t[c]! - p.t[last]!;
+      cur.tau.push(cur.tau[cur.tau.length - 1]! + dt / r);
+      const h = 1e-5;
+      const dr = (periodRatio(tb + h) - periodRatio(Math.max(0, tb - h))) / (tb + h - Math.max(0, tb - h));
+      grad2 += ((dt * dr) / (r * r)) ** 2;
+      steps++;
+    }
+    if (Number.isFinite(p.amplitude[c]!)) (dev2 += (p.amplitude[c]! - th[c]!) ** 2), devN++;
+    const s = p.index[c]! % 2 === 0 ? -1 : 1;
+    cur.k.push(p.index[c]!);
+    cur.z.push((s * (mu ? mu(th[c]!) : 1)) / periodRatio(th[c]!));
+    last = c;
+  }
+  // Partial out [1, z] per segment from k and τ (Frisch–Waugh–Lovell).
+  const kt: number[][] = [];
+  const tt: number[][] = [];
+  let skk = 0;
+  let skt = 0;
+  let used = 0;
+  for (const s of segs) {
+    const m = s.k.length;
+    if (m < 4) {
+      kt.push([]);
+      tt.push([]);
+      continue;
+    }
+    const mean = (v: number[]): number => v.reduce((a, b) => a + b, 0) / v.length;
+    const zb = mean(s.z);
+    const zc = s.z.map((v) => v - zb);
+    const szz = zc.reduce((a, v) => a + v * v, 0);
+    const resid = (v: number[]): number[] => {
+      const vb = mean(v);
+      const vc = v.map((x) => x - vb);
+      const b = szz > 0 ? vc.reduce((a, x, i) => a + x * zc[i]!, 0) / szz : 0;
+      return vc.map((x, i) => x - b * zc[i]!);
+    };
+    // τ is shifted by its first value before centring, to keep the sums well conditioned.
+    const t0 = s.tau[0]!;
+    const k1 = resid(s.k);
+    const t1 = resid(s.tau.map((x) => x - t0));
+    kt.push(k1);
+    tt.push(t1);
+    for (let i = 0; i < m; i++) (skk += k1[i]! * k1[i]!), (skt += k1[i]! * t1[i]!);
+    used += m;
+  }
+  if (used < 8 || !(skk > 0)) return null;
+  const beta = skt / skk;
+  // Residual structure: white noise and a random walk.
+  let d1 = 0;
+  let n1 = 0;
+  let dL = 0;
+  let nL = 0;
+  const lag = (m: number): number => Math.max(2, Math.min(LONG_LAG, Math.floor(m / 4)));
+  let lagUsed = LONG_LAG;
+  for (let j = 0; j < kt.length; j++) {
+    const m = kt[j]!.length;
+    if (m < 4) continue;
+    const res = kt[j]!.map((k, i) => tt[j]![i]! - beta * k);
+    const L = lag(m);
+    lagUsed = Math.min(lagUsed, L);
+    for (let i = 1; i < m; i++) (d1 += (res[i]! - res[i - 1]!) ** 2), n1++;
+    for (let i = L; i < m; i++) (dL += (res[i]! - res[i - L]!) ** 2), nL++;
+  }
+  const v1 = n1 ? d1 / n1 : 0;
+  const vL = nL ? dL / nL : v1;
+  const W = 2 * SMOOTH + 1;
+  const sigmaTheta2 = devN > W ? ((dev2 / devN) * W) / (W - 1) : 0;
+  const walkModel = steps ? (grad2 / steps) * sigmaTheta2 : 0;
+  const walkSeen = (vL - v1) / Math.max(1, lagUsed - 1);
+  const walkSeenU = nL ? (vL * Math.sqrt((2 * lagUsed) / nL)) / Math.max(1, lagUsed - 1) : Infinity;
+  const walk2 = Math.max(walkModel, walkSeen > 2 * walkSeenU ? walkSeen : 0);
+  const white2 = Math.max(0, (v1 - walk2) / 2);
+  let cc = 0;
+  let tails = 0;
+  for (const k1 of kt) {
+    let tail = 0;
+    for (let i = k1.length - 1; i >= 1; i--) {
+      const c = k1[i]! / skk;
+      cc += c * c;
+      tail += c;
+      tails += tail * tail;
+    }
+    if (k1.length) cc += (k1[0]! / skk) ** 2;
+  }
+  const varBeta = white2 * cc + walk2 * tails;
+  return { T0: 2 * beta, u_T0: 2 * Math.sqrt(varBeta), passes: used, sigmaWhite_s: Math.sqrt(white2), sigmaWalk_s: Math.sqrt(walk2) };
+}
