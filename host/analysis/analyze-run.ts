@@ -221,8 +221,6 @@ export function analyzeRun(d: RunData): AnalysisResult {
 
   // Sensitivity of the amplitude at the median pass.
   let sens: AnalysisResult['amplitude_sensitivity'] = null;
-  let relW = 0;
-  let relD = 0;
   const delayU = d.delayDifferenceU_s ?? 5e-6;
   if (rig && Number.isFinite(medA)) {
     let best = -1;
@@ -233,8 +231,6 @@ export function analyzeRun(d: RunData): AnalysisResult {
       per_width_deg_per_mm: (s.dTheta_dWidth_rad_per_m * DEG) / 1000,
       per_delay_difference_deg_per_us: (-s.dTheta_dTransit_rad_per_s * DEG) / 1e6,
     };
-    relW = (s.dTheta_dWidth_rad_per_m * rig.flag_width_u_m) / amp[best]!;
-    relD = (s.dTheta_dTransit_rad_per_s * delayU) / amp[best]!;
   }
 
   // T0 corrections, g and the budget.
@@ -250,10 +246,25 @@ export function analyzeRun(d: RunData): AnalysisResult {
   let gU: number | null = null;
   let T0_u: number | null = null;
   if (T0u !== null) {
-    // A systematic scale error of the amplitudes moves either estimator of T0 alike; the mean shows it cheaply.
-    const redShift = (rel: number): number => (rel && rig ? Math.abs(maskedMean(reducePeriods(P, pAmp, 1 + rel), keep) / T0mean! - 1) : 0);
-    const uRedW = redShift(relW);
-    const uRedD = redShift(relD);
+    // The reduction's sensitivity to w and to the on/off delay difference: every amplitude solved again with the
+    // input moved by its standard uncertainty (the effect grows like θ³, so one operating point would not do).
+    // Either estimator of T0 moves alike under such a systematic change; the mean of periods shows it directly.
+    const redShift = (phi: number, dTransit: number): number => {
+      if (!rig || T0mean === null) return 0;
+      const omega0m = (2 * Math.PI) / T0mean;
+      const a2 = new Float64Array(n).fill(NaN);
+      const pa = new Float64Array(pIdx.length);
+      for (let k = 0; k < pIdx.length; k++) {
+        const c = pIdx[k]!;
+        const a = periodStart[c]!;
+        const m = periodMid[c]!;
+        for (const q of [a, m, c]) if (q >= 0 && Number.isNaN(a2[q]!)) a2[q] = amplitudeFromTransit(p.transit[q]! + dTransit, phi, omega0m);
+        pa[k] = m >= 0 ? 0.25 * (a2[a]! + 2 * a2[m]! + a2[c]!) : 0.5 * (a2[a]! + a2[c]!);
+      }
+      return Math.abs(maskedMean(reducePeriods(P, pa), keep) / maskedMean(P0, keep) - 1);
+    };
+    const uRedW = rig ? redShift(blockHalfAngle(rig.flag_width_m + rig.flag_width_u_m, rig.length_m), 0) : 0;
+    const uRedD = rig ? redShift(phiB, delayU) : 0;
     const uClock = d.clock.u_ppm * 1e-6;
     if (Number.isFinite(uStatRel))
       budget.push({

@@ -159,7 +159,9 @@ export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null)
   const walkSeen = (vL - v1) / Math.max(1, lagUsed - 1);
   const walkSeenU = nL ? (vL * Math.sqrt((2 * lagUsed) / nL)) / Math.max(1, lagUsed - 1) : Infinity;
   const walk2 = Math.max(walkModel, walkSeen > 2 * walkSeenU ? walkSeen : 0);
-  const white2 = Math.max(0, (v1 - walk2) / 2);
+  // Lag-1 differences hold 2σ_w² plus one step of the walk; not subtracting that step keeps σ_w on the safe side
+  // (a smooth misfit seen as a walk would otherwise wipe out the white part).
+  const white2 = v1 / 2;
   let cc = 0;
   let tails = 0;
   for (const k1 of kt) {
