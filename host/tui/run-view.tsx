@@ -93,6 +93,18 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
     },
   );
 
+  // A reader that goes away (`halfswing demo | head`) is the end of the run, not a crash.
+  let outputGone = false;
+  const onOutputError = (e: NodeJS.ErrnoException): void => {
+    outputGone = true;
+    if (e.code !== 'EPIPE') failure ??= e;
+    void shutdown(e.code === 'EPIPE' ? 0 : 1);
+  };
+  opts.stdout.on?.('error', onOutputError);
+  const writePlain = (): void => {
+    if (!outputGone) opts.stdout.write(`${plainStatusLine(vmNow())}\n`);
+  };
+
   const vmNow = () => {
     const snap = store.getSnapshot();
     const feed = status();
@@ -122,12 +134,13 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
       ink.unmount();
     };
   } else {
-    plainTimer = opts.timers.setInterval(() => opts.stdout.write(`${plainStatusLine(vmNow())}\n`), (opts.plainEvery_s ?? 5) * 1000);
+    plainTimer = opts.timers.setInterval(() => writePlain(), (opts.plainEvery_s ?? 5) * 1000);
   }
 
   const code = await done;
   offSignal();
-  if (!interactive) opts.stdout.write(`${plainStatusLine(vmNow())}\n`);
+  if (!interactive) writePlain();
+  opts.stdout.off?.('error', onOutputError);
   if (failure) throw failure;
   return code;
 }
