@@ -79,3 +79,20 @@ describe('watch through the CLI, piped', () => {
     expect(last).toContain(`passes=${r.passes} `);
   });
 });
+
+describe('demo piped into a reader that stops early', () => {
+  it('ends quietly with exit 0 when the pipe closes (`halfswing demo | head -1`)', async () => {
+    const { spawn } = await import('node:child_process');
+    const { resolve } = await import('node:path');
+    const bin = resolve(import.meta.dirname, '..', '..', 'bin', 'halfswing.js');
+    const child = spawn(process.execPath, [bin, 'demo', '--speed', '200'], { stdio: ['ignore', 'pipe', 'pipe'] });
+    let err = '';
+    child.stderr.on('data', (b: Buffer) => (err += b.toString()));
+    const first = await new Promise<string>((res) => child.stdout.once('data', (b: Buffer) => res(b.toString())));
+    child.stdout.destroy();
+    const code = await new Promise<number | null>((res) => child.on('exit', (c) => res(c)));
+    expect(first).toMatch(/^run=/);
+    expect(err).not.toContain('EPIPE');
+    expect(code).toBe(0);
+  });
+});
