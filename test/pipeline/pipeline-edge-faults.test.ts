@@ -94,4 +94,22 @@ describe('edges → passes: bounce, glitches, resync, bridging, objects', () => 
     // Pass times stay on one host timeline (within the 0.5 ms latency of the join).
     for (const s of r.swings) expect(Math.abs(((s.t_s - 2 + 1e-9) / H) % 1) < 1e-3 || Math.abs(((s.t_s - 2) / H) % 1) > 1 - 1e-3).toBe(true);
   });
+
+  it('without a usable rig: periods and T0 still, no amplitudes or g, and warnings say why', () => {
+    const b = buildJournal({ edges: passEdges(mids(60), TAU), durationS: 65, rigJson: '{"lenght_m":1,"flag_width_m":0.02}' });
+    const r = analyzeEntries(b.entries, { clock: 'nominal' });
+    expect(r.T0_s!).toBeCloseTo(2 * H, 6);
+    expect(r.g_m_s2).toBeNull();
+    expect(r.amplitude_start_deg).toBeNull();
+    expect(r.warnings.some((w) => /#rig line is not usable \(unknown rig key "lenght_m"/.test(w))).toBe(true);
+    expect(r.warnings.some((w) => /no rig description/.test(w))).toBe(true);
+  });
+
+  it('a journal with too few passes gives a total result: nulls and warnings, no exception', () => {
+    const r = analyzeEntries(buildJournal({ edges: passEdges(mids(2), TAU), durationS: 5 }).entries);
+    expect(r.T0_s).toBeNull();
+    expect(r.B).toBeNull();
+    expect(r.warnings.length).toBeGreaterThan(0);
+    expect(analyzeEntries([]).passes).toBe(0);
+  });
 });
