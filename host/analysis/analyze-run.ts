@@ -200,12 +200,15 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const ampT: number[] = [];
   const ampA: number[] = [];
   for (let c = 0; c < n; c++) if (Number.isFinite(amp[c]!)) ampT.push(p.t[c]!), ampA.push(amp[c]!);
-  if (rig && T0 !== null && validCount > 0 && ampA.length < validCount)
+  if (rig && T0 !== null && validCount > 0 && ampA.length < validCount) {
+    // With the right w and L every pass that is not slow (transit < H/3, θ0 ≳ 2φb) has an amplitude.
+    let fastMissing = 0;
+    for (let c = 0; c < n; c++) if (p.index[c]! >= 0 && !slow[c] && !Number.isFinite(amp[c]!)) fastMissing++;
     warnings.push(
       `${validCount - ampA.length} pass(es) had a transit longer than a swing that just clears the beam would give: no amplitude for them` +
-        (validCount - ampA.length > 0.05 * validCount ? ' (many: check flag_width_m and length_m)' : ' (the swing was dying out, or a gate offset)'),
+        (fastMissing > 0 ? ` (${fastMissing} of them well clear of the beam: check flag_width_m and length_m)` : ' (the swing was dying out)'),
     );
-
+  }
   const medA = ampA.length ? median(ampA) : NaN;
   const damping = T0 !== null && ampA.length ? fitDamping(ampT, ampA, T0, medA) : null;
   if (T0 !== null && rig && !damping) warnings.push('too few swings, or too little decay, to fit the damping (needs ≥ 40 passes)');
@@ -214,8 +217,9 @@ export function analyzeRun(d: RunData): AnalysisResult {
     Float64Array.from(pIdx, (c) => period[c]!),
     pAmp,
   );
-  if (T0 !== null && rig && !law) warnings.push('too few periods or too narrow an amplitude range to fit T = T0(1 + Bθ0² + Cθ0⁴)');
-  else if (law && law.C === null) warnings.push('amplitudes stay below 20°: C is not fitted (θ0⁴ cannot be told from θ0² there)');
+  if (T0 !== null && rig && !law) warnings.push('too few periods or too narrow an amplitude range to fit T = T0(1 + Bθ0² + Cθ0⁴) (B would be uncertain by > 30 %)');
+  else if (law && law.C === null)
+    warnings.push('C is held at 11/3072: the amplitudes do not reach 20°, or do not pin C down (θ0⁴ cannot be told from θ0² there)');
 
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
   const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp.map((v, c) => (slow[c] ? NaN : v)) }, omega0, rig.flag_width_m, rig.length_m) : null;

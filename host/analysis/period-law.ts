@@ -59,8 +59,9 @@ export function periodRatioBeyondTheta4(theta: number): number {
 /**
  * Fits P = T0(1 + Bθ² + Cθ⁴ + R(θ)) to periods P at amplitudes θ (rad), with R the exact law's terms beyond θ⁴
  * held at their simple-pendulum values, so that truncation does not bias C (fitting to 30° without R moves C by
- * about 2 %); a rig that obeys the simple law gives B = 1/16 and C = 11/3072 exactly. Null with < 8 periods or
- * no amplitude spread.
+ * about 2 %); a rig that obeys the simple law gives B = 1/16 and C = 11/3072 exactly. C is fitted only from 20°
+ * and kept only when determined to better than its own size; null with < 8 periods or when the amplitude range
+ * leaves B uncertain by more than 30 %.
  */
 export function fitPeriodLaw(periods: ArrayLike<number>, amplitudes: ArrayLike<number>): PeriodLawFit | null {
   const idx: number[] = [];
@@ -74,7 +75,14 @@ export function fitPeriodLaw(periods: ArrayLike<number>, amplitudes: ArrayLike<n
     }
   }
   if (idx.length < 8 || !(maxA * maxA - minA * minA > 1e-6)) return null;
-  const withC = maxA >= C_MIN_AMPLITUDE;
+  const withC = maxA >= C_MIN_AMPLITUDE ? fitWith(periods, amplitudes, idx, true) : null;
+  // C is kept only when the data pin it down (better than 100 % of 11/3072); otherwise it is held at the law's value.
+  const f = withC && withC.C_u! < 11 / 3072 ? withC : fitWith(periods, amplitudes, idx, false);
+  // B is kept only when the amplitude range pins it to better than 30 % of 1/16.
+  return f && f.B_u < 0.3 / 16 ? f : null;
+}
+
+function fitWith(periods: ArrayLike<number>, amplitudes: ArrayLike<number>, idx: readonly number[], withC: boolean): PeriodLawFit | null {
   // Columns precomputed once: the fit evaluates each basis function three times per row.
   const m = idx.length;
   const y = new Float64Array(m);

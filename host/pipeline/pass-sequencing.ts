@@ -12,7 +12,7 @@ export type PassRejection = 'transit' | 'timing';
 
 /** Result of sequencing, parallel to the input passes. */
 export interface PassSequence {
-  /** 0 valid, 1 rejected for transit, 2 rejected for timing, 3 unsequenced (too few passes in a boot to start a beat). */
+  /** 0 valid, 1 rejected for transit, 2 rejected for timing, 3 unsequenced (too few passes to start a beat, or a swing that no longer clears the beam). */
   readonly status: Uint8Array;
   /** Pass number within its segment (−1 when rejected). */
   readonly index: Int32Array;
@@ -40,6 +40,11 @@ export interface SequencingOptions {
 }
 
 const NEIGHBOURS = 6;
+/**
+ * A pass blocked for more than this fraction of a half-period belongs to a swing that no longer clears the beam
+ * well (at the end of a decay, or on one side of an offset beam): left out without blame.
+ */
+const NOT_CLEARING = 0.6;
 
 function sortedMedian(buf: Float64Array, n: number): number {
   for (let i = 1; i < n; i++) {
@@ -69,8 +74,15 @@ export function sequencePasses(
   const scratch = new Float64Array(2 * NEIGHBOURS);
   let rejectedTransit = 0;
 
-  // 1. Transit against the neighbours of the same boot.
+  // 0. The typical spacing of passes (a half-period), for telling slow passes of a dying swing from objects.
+  const gaps: number[] = [];
+  const step = Math.max(1, Math.floor(n / 4000));
+  for (let i = 0; i + 1 < n; i += step) if (boot[i + 1] === boot[i]) gaps.push(t[i + 1]! - t[i]!);
+  const spacing = gaps.length ? sortedMedian(Float64Array.from(gaps), gaps.length) : Infinity;
+
+  // 1. Transit against the neighbours of the same boot (not for slow passes, whose transit changes fast anyway).
   for (let i = 0; i < n; i++) {
+    if (transit[i]! > spacing / 3) continue;
     let m = 0;
     for (let j = i - 1; j >= 0 && j >= i - NEIGHBOURS && boot[j] === boot[i]; j--) scratch[m++] = transit[j]!;
     for (let j = i + 1; j < n && j <= i + NEIGHBOURS && boot[j] === boot[i]; j++) scratch[m++] = transit[j]!;
@@ -114,6 +126,11 @@ export function sequencePasses(
       }
       const h1 = t[b]! - t[a]!;
       const h2 = t[c]! - t[b]!;
+      if (transit[a]! > NOT_CLEARING * Math.min(h1, h2)) {
+        status[a] = 3;
+        a = candidates(a + 1);
+        continue;
+      }
       if (h1 > 0 && h2 > 0 && h1 / h2 < 1.25 && h2 / h1 < 1.25) {
         seg++;
         index[a] = 0;
@@ -137,6 +154,11 @@ export function sequencePasses(
     if (j >= n) break;
     if (boot[j] !== boot[last]) {
       j = startSegment(j);
+      continue;
+    }
+    if (transit[j]! > NOT_CLEARING * H) {
+      status[j] = 3;
+      j++;
       continue;
     }
     const nBeats = (t[j]! - t[last]!) / H;

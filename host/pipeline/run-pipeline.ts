@@ -364,6 +364,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       if (seq.longGaps > 0) w.push(`${seq.longGaps} gap(s) too long to bridge: the run is analysed in ${seq.segments} segments`);
       let unsequenced = 0;
       for (let i = 0; i < np; i++) if (seq.status[i] === 3) unsequenced++;
+      if (unsequenced > 0) w.push(`${unsequenced} pass(es) left out: the swing no longer cleared the beam, or too few passes in a row to follow the beat`);
       const lastUs = lastHostUs ?? 0;
       return analyzeRun({
         rig,

@@ -129,4 +129,16 @@ describe('against the simulator truth', () => {
     expect(Math.abs(r.B! * 16 - 1)).toBeLessThan(0.03);
     expect(r.C).not.toBeNull();
   });
+
+  it('a swing that dies out behind an offset beam is left out without blame, not taken for objects', () => {
+    // club-resonator: no faults; the amplitude decays until the bob no longer clears the beam on one side.
+    const { truth, result: r } = simAndAnalyze(loadScenario('club-resonator'), { seed: 1 });
+    expect(truth.faults.counts.objects).toBe(0);
+    expect(r.counts.rejected_passes).toBe(0);
+    expect(r.counts.long_gaps).toBe(0);
+    expect(r.counts.unsequenced_passes!).toBeGreaterThan(10);
+    expect(r.warnings.some((w) => /no longer cleared the beam/.test(w))).toBe(true);
+    expect(Math.abs(r.clock_ppm! - truth.clock.ppm)).toBeLessThan(2);
+    expect(Math.abs(r.gate_offset_m! - truth.gate.offset_m)).toBeLessThan(2e-4);
+  });
 });
