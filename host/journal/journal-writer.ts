@@ -177,18 +177,18 @@ class Writer implements JournalWriter {
   startBlock(h: BlockHeader): void {
     const lines = journalHeader({ ...h, withMagic: this.bytes === 0 && !this.appending });
     this.blocks++;
-    this.append(`${this.needsLf ? '\n' : ''}${lines.join('\n')}\n`);
+    this.append(`${this.needsLf ? '\n' : ''}${lines.join('\n')}\n`, 'utf8');
     this.needsLf = false;
     this.syncNow();
   }
 
   data(hostUs: number, deviceLine: string): void {
-    this.append(`${journalData(hostUs, deviceLine)}\n`);
+    this.append(`${journalData(hostUs, deviceLine)}\n`, 'latin1');
     this.syncIfDue();
   }
 
   annotate(hostUs: number, word: AnnotationWord, text = ''): void {
-    this.append(`${journalAnnotation(hostUs, word, text)}\n`);
+    this.append(`${journalAnnotation(hostUs, word, text)}\n`, 'utf8');
     this.syncNow();
   }
 
@@ -219,11 +219,15 @@ class Writer implements JournalWriter {
     }
   }
 
-  private append(text: string): void {
+  /**
+   * Device lines go out byte for byte (latin1: one char, one byte, as the link read them); header and
+   * annotation text is the host's own, written as UTF-8 (JOURNAL.md, "Bytes").
+   */
+  private append(text: string, encoding: 'latin1' | 'utf8'): void {
     if (this.failure) throw this.failure;
     if (!this.open) throw new Error(`journal ${this.path} is closed`);
     if (this.blocks === 0) throw new Error('startBlock() must come before data');
-    const buf = Buffer.from(text, 'latin1');
+    const buf = Buffer.from(text, encoding);
     let off = 0;
     try {
       while (off < buf.length) off += this.io.write(this.fd, buf, off, buf.length - off);

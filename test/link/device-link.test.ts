@@ -1,7 +1,7 @@
 import { MockBinding } from '@serialport/binding-mock';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { BindingInterface, BindingOpenOptions } from '../../host/link/binding-types.ts';
-import { openDeviceLink, type DeviceLink, type LinkEvent } from '../../host/link/device-link.ts';
+import { openDeviceLink, type DeviceLink, type DeviceLinkOptions, type LinkEvent } from '../../host/link/device-link.ts';
 import { DeviceLines } from './helpers/device-lines.ts';
 import { FakeBinding } from './helpers/fake-binding.ts';
 
@@ -143,6 +143,18 @@ describe('device link: open failures become one clear line', () => {
 describe('device link: unplug, replug and reboot (fake binding)', () => {
   const fast = { helloTimeoutMs: 500, helloNudgeMs: 20, heartbeatMs: 40, backoffMs: { first: 10, max: 40 }, sysRoot: '/nonexistent' };
 
+  /** A fake board at /dev/ttyX that answers '?', a link to it recording every event, connected. */
+  async function connected(extra: Partial<DeviceLinkOptions> = {}) {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, ...extra });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await link.ready;
+    return { b, d, link, all };
+  }
+
   it('journals one disconnect and one connect, and finds the board under its new path by serial number', async () => {
     const b = new FakeBinding();
     const d = new DeviceLines();
@@ -175,13 +187,7 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
   });
 
   it('declares the link lost when heartbeats stop for 3 periods, and recovers', async () => {
-    const b = new FakeBinding();
-    const d = new DeviceLines();
-    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast });
-    const all: LinkEvent[] = [];
-    link.onEvent((e) => all.push(e));
-    await link.ready;
+    const { link, all } = await connected();
     // No heartbeat at all after the hello: silent for > 3 × 40 ms.
     await until(() => notes(all).includes('disconnect'), 'silence detected');
     expect(notes(all)).toEqual(['connect', 'disconnect']);
@@ -193,13 +199,7 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
   });
 
   it('a reboot (new hello, new boot id) is just lines: the link stays connected', async () => {
-    const b = new FakeBinding();
-    const d = new DeviceLines();
-    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, heartbeatMs: 1000 });
-    const all: LinkEvent[] = [];
-    link.onEvent((e) => all.push(e));
-    await link.ready;
+    const { b, d, link, all } = await connected({ heartbeatMs: 1000 });
     d.reboot(0x9999);
     b.port('/dev/ttyX').emit(`${d.hello()}\n${d.beat(16e6)}\n`);
     await until(() => lines(all).length === 3, 'lines after reboot');
@@ -209,13 +209,7 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
   });
 
   it('close() passes on a last line whose LF never came, if it decodes', async () => {
-    const b = new FakeBinding();
-    const d = new DeviceLines();
-    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, heartbeatMs: 1000 });
-    const all: LinkEvent[] = [];
-    link.onEvent((e) => all.push(e));
-    await link.ready;
+    const { b, d, link, all } = await connected({ heartbeatMs: 1000 });
     await tick(50);
     const before = link.stats().bytes;
     const last = d.beat(16e6);
@@ -226,11 +220,7 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
   });
 
   it('a slow consumer holds the port back instead of losing lines or queueing without bound', async () => {
-    const b = new FakeBinding();
-    const d = new DeviceLines();
-    b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, heartbeatMs: 60_000, highWater: 50 });
-    await link.ready;
+    const { b, d, link } = await connected({ heartbeatMs: 60_000, highWater: 50 });
     const sent = Array.from({ length: 2000 }, (_, i) => d.edge(1000 + i, i % 2 ? 'r' : 'f'));
     b.port('/dev/ttyX').emit(sent.map((l) => `${l}\n`).join(''));
     const got: string[] = [];

@@ -151,4 +151,17 @@ describe('journal writer', () => {
     expect(data).toHaveLength(written);
     expect(data.every((e) => e.kind === 'data' && /^E [0-9a-f]+ 0 f [0-9a-f]+ \*00$/.test(e.line))).toBe(true);
   });
+
+  it('writes device bytes unchanged (latin1) and the host text as UTF-8', () => {
+    const p = join(dir, 'bytes.journal');
+    const w = openJournalWriter(p);
+    w.startBlock({ ...header, rigJson: '{"name":"Büro"}' });
+    w.data(1, 'E 1 0 f \xff\x80 *00');
+    w.annotate(2, 'note', 'gate moved 1 mm → window, 20 °C');
+    w.close();
+    const bytes = readFileSync(p);
+    expect(bytes.includes(Buffer.from('{"name":"Büro"}', 'utf8'))).toBe(true);
+    expect(bytes.includes(Buffer.from([0x45, 0x20, 0x31, 0x20, 0x30, 0x20, 0x66, 0x20, 0xff, 0x80]))).toBe(true);
+    expect(bytes.includes(Buffer.from('→ window, 20 °C', 'utf8'))).toBe(true);
+  });
 });

@@ -1,44 +1,26 @@
 // Bad input to `halfswing record`: each gets one clear line, a non-zero exit, and loses nothing.
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { SerialPort } from 'serialport';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { beforeEach, describe, expect, it } from 'vitest';
 import { encodeRecord } from '../../protocol/encode.ts';
 import { DeviceLines } from '../link/helpers/device-lines.ts';
 import { PtyCable, ptyTestsEnabled } from './helpers/pty-device.ts';
-import { journalDataLines, journalText, startRecorder, waitFor, type RecorderChild } from './helpers/recorder-process.ts';
+import { usePtyFixture } from './helpers/pty-fixture.ts';
+import { journalDataLines, journalText, waitFor, type RecorderChild } from './helpers/recorder-process.ts';
 
 const enabled = ptyTestsEnabled();
 
+const fx = usePtyFixture('halfswing-bad-', ['--hello-timeout', '1.5', '--interval', '0.25']);
+const record = fx.record;
+const plug = (): Promise<PtyCable> => fx.plug('ttyX');
 let dir: string;
 let rigPath: string;
-let cables: PtyCable[] = [];
-let children: RecorderChild[] = [];
 beforeEach(() => {
-  dir = mkdtempSync(join(tmpdir(), 'halfswing-bad-'));
+  dir = fx.dir();
   rigPath = join(dir, 'rig.json');
   writeFileSync(rigPath, JSON.stringify({ length_m: 1, flag_width_m: 0.02 }));
 });
-afterEach(async () => {
-  for (const c of children) if (c.proc.exitCode === null) c.proc.kill('SIGKILL');
-  for (const c of cables) await c.kill();
-  cables = [];
-  children = [];
-  rmSync(dir, { recursive: true, force: true });
-});
-
-function record(args: string[], opts: { closedStdin?: boolean } = {}): RecorderChild {
-  const c = startRecorder(['--hello-timeout', '1.5', '--interval', '0.25', ...args], opts);
-  children.push(c);
-  return c;
-}
-
-async function plug(): Promise<PtyCable> {
-  const c = await PtyCable.plug(join(dir, 'ttyX'));
-  cables.push(c);
-  return c;
-}
 
 /** The recorder's last stderr line (its error). */
 const lastLine = (c: RecorderChild): string => c.stderr().trim().split('\n').at(-1)!;
