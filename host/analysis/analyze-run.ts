@@ -19,6 +19,11 @@ const NO_FLAGS: string[] = [];
 export interface SequencedPasses {
   /** Pass time, s since the journal start (device clock corrected, boots joined on the host clock). */
   readonly t: ArrayLike<number>;
+  /**
+   * Pass time, s since its boot's tick 0 (device clock corrected): every interval is taken from these, so the
+   * numbers do not depend on the host times at all within a boot.
+   */
+  readonly td: ArrayLike<number>;
   /** Transit time, s (device clock corrected). */
   readonly transit: ArrayLike<number>;
   readonly index: ArrayLike<number>;
@@ -96,10 +101,10 @@ export function analyzeRun(d: RunData): AnalysisResult {
     const idx = p.index[c]!;
     if (prev1 >= 0 && p.segment[prev1] !== p.segment[c]) prev1 = prev2 = -1;
     if (prev2 >= 0 && p.segment[prev2] !== p.segment[c]) prev2 = -1;
-    if (prev1 >= 0 && p.index[prev1] === idx - 1) half[c] = p.t[c]! - p.t[prev1]!;
+    if (prev1 >= 0 && p.index[prev1] === idx - 1) half[c] = p.td[c]! - p.td[prev1]!;
     const a = prev1 >= 0 && p.index[prev1] === idx - 2 ? prev1 : prev2 >= 0 && p.index[prev2] === idx - 2 ? prev2 : -1;
     if (a >= 0) {
-      period[c] = p.t[c]! - p.t[a]!;
+      period[c] = p.td[c]! - p.td[a]!;
       periodStart[c] = a;
       periodMid[c] = prev1 >= 0 && p.index[prev1] === idx - 1 ? prev1 : -1;
     }
@@ -189,7 +194,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     for (let c = 0; c < n; c++) use[c] = p.index[c]! >= 0 && !slow[c] ? 1 : 0;
     const omega0m = (2 * Math.PI) / T0;
     line = fitT0Line(
-      { index: p.index, segment: p.segment, t: p.t, amplitude: rig ? amp : new Float64Array(n), use },
+      { index: p.index, segment: p.segment, t: p.td, amplitude: rig ? amp : new Float64Array(n), use },
       rig ? (th: number) => midShiftPerMetre(th, omega0m, rig.flag_width_m, rig.length_m) : null,
     );
     if (line && Number.isFinite(line.T0)) T0 = line.T0;
@@ -222,7 +227,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     warnings.push('C is held at 11/3072: the amplitudes do not reach 20°, or do not pin C down (θ0⁴ cannot be told from θ0² there)');
 
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
-  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.t, amplitude: amp.map((v, c) => (slow[c] ? NaN : v)) }, omega0, rig.flag_width_m, rig.length_m) : null;
+  const gate = rig && T0 !== null ? gateOffset({ index: p.index, segment: p.segment, t: p.td, tPlot: p.t, amplitude: amp.map((v, c) => (slow[c] ? NaN : v)) }, omega0, rig.flag_width_m, rig.length_m) : null;
   if (gate && gate.alignedSegments > 0)
     warnings.push(`gate offset: the side of ${gate.alignedSegments} later segment(s) was matched to the first (passes between segments are not known)`);
 

@@ -19,6 +19,8 @@ export interface GatePasses {
   readonly segment: ArrayLike<number>;
   readonly t: ArrayLike<number>;
   readonly amplitude: ArrayLike<number>;
+  /** Times for the plot series (default `t`), e.g. journal time when `t` is device time. */
+  readonly tPlot?: ArrayLike<number>;
 }
 
 /** Exact time (s) from the bottom to angle θ (|θ| < θ0) for amplitude θ0, ω0 = 2π/T0. */
@@ -90,7 +92,7 @@ export function gateOffset(p: GatePasses, omega0: number, widthM: number, length
         let s = perSeg.get(p.segment[c]!);
         if (!s) perSeg.set(p.segment[c]!, (s = { d: [], t: [], diff: [] }));
         s.d.push(offsetFromAlternation(diff, th, omega0, widthM, lengthM));
-        s.t.push(p.t[b]!);
+        s.t.push((p.tPlot ?? p.t)[b]!);
         s.diff.push(diff);
       }
     }

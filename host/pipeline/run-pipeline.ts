@@ -343,6 +343,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       const pend = pb?.pendingPass() ?? null;
       const np = (pb?.passes.length ?? 0) + (pend ? 1 : 0);
       const t = new Float64Array(np);
+      const td = new Float64Array(np);
       const transit = new Float64Array(np);
       const pBoot = new Int32Array(np);
       for (let i = 0; i < np; i++) {
@@ -353,7 +354,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         const tps = (bootHz[b] ?? hzNow) * k;
         const first = bootFirst[b]!;
         const off = offsets.get(b) ?? first.hostUs / 1e6 - first.ticks / tps;
-        t[i] = off + (0.5 * (s + e)) / tps;
+        td[i] = (0.5 * (s + e)) / tps;
+        t[i] = off + td[i]!;
         transit[i] = (e - s) / tps;
         pBoot[i] = b;
       }
@@ -368,7 +370,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       const lastUs = lastHostUs ?? 0;
       return analyzeRun({
         rig,
-        passes: { t, transit, index: seq.index, segment: seq.segment, status: seq.status, bridgedBefore: seq.bridgedBefore },
+        passes: { t, td, transit, index: seq.index, segment: seq.segment, status: seq.status, bridgedBefore: seq.bridgedBefore },
         clock,
         counts: counts({
           rejected_passes: seq.rejectedTransit + seq.rejectedTiming,
