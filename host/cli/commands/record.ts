@@ -50,9 +50,9 @@ export const command: Command = {
   details: `
 Stops cleanly on SIGINT, SIGTERM or SIGHUP: intake stops, the last line is finished, the journal is
 fsynced and the port closed (exit 0). Needs no terminal: it never reads stdin, so it runs under a service
-manager. A lost board (unplugged, rebooted, silent for 3 heartbeats) is reconnected with backoff and found
-again by its USB serial number; the journal records each disconnect and connect. Running again with the
-same --journal appends a new section. See hardware-notes/unattended-runs.md for a systemd unit.`,
+manager. A lost board (unplugged, a read error, silent for 3 heartbeats) is reconnected with backoff and
+found again by its USB serial number; the journal records each disconnect and connect. A board reboot is
+a new device segment in the same section. Running again with the same --journal appends a new section. See hardware-notes/unattended-runs.md for a systemd unit.`,
   async run(args, io) {
     const rigPath = optString(args, 'rig');
     const journalPath = optString(args, 'journal');
