@@ -74,8 +74,8 @@ export interface Scenario {
     /** Edge buffer depth while the main loop is stalled. */
     readonly buffer_edges: number;
     /**
-     * The capture ISR's blind time, measured on the emulated firmware (ch0): an edge sooner than
-     * `min_edge_gap_ticks` (48) after a capture is missed; once one is missed, the input is re-armed only when
+     * The capture ISR's blind time, measured on the emulated firmware (ch0; test/sim/sim-emulator.test.ts
+     * re-measures it): an edge sooner than `min_edge_gap_ticks` (25) after a capture is missed; once one is missed, the input is re-armed only when
      * the ISR checks the pin, `pin_check_ticks` (145) after the capture, and edges before that are missed too.
      * At the check, a pin that differs from the captured level counts one edge in `lost`; a pin back at it
      * (an even number missed) counts none: those edges vanish silently, as in the firmware. The firmware's check
@@ -117,7 +117,7 @@ const DEFAULTS = {
     first_boot_s: 0.05,
     boot_time_s: 1.6,
     buffer_edges: 64,
-    min_edge_gap_ticks: 48,
+    min_edge_gap_ticks: 25,
     pin_check_ticks: 145,
   },
   host: { start: '2026-01-05T09:00:00.000Z', usb_frame_us: 1000, usb_tail: { kind: 'exponential', mean_us: 150 } },

@@ -1,7 +1,7 @@
 // One scenario through the real firmware (simavr harness) and through the in-process device model: same edges.
 import { expect, it } from 'vitest';
 import { decodeLine, type EdgeRecord } from '../../protocol/index.ts';
-import { firmwareSchedule, loadScenario, simulateDevice } from '../../sim/index.ts';
+import { firmwareSchedule, loadScenario, parseScenario, simulateDevice } from '../../sim/index.ts';
 import { runFirmware } from '../../sim/emulator/run-firmware.ts';
 import { describeFirmware } from '../firmware/toolchain-gate.ts';
 
@@ -50,10 +50,10 @@ describeFirmware('scenario through the emulated firmware vs the device model', (
 
 describeFirmware('short bounce pulses: the model loses the same edges as the firmware', () => {
   it('edges in the capture ISR’s blind time are lost by both, `lost` counts the same, the rest match in order', async () => {
-    // Widths 0.5–2.5 µs (< the 48-tick blind time), gaps 20–60 µs (far past the ISR's pin check, whose exact
-    // time varies by tens of cycles with what the main loop is doing): no case sits near either threshold.
+    // Widths 0.5–1.2 µs (8–19 ticks, under the blind time), gaps 20–60 µs (far past the ISR's pin check, whose
+    // exact time varies by tens of cycles with what the main loop is doing): no case sits near either threshold.
     const base = loadScenario('club-resonator');
-    const scenario = { ...base, faults: { bounce: { probability: 1, pulses: [1, 2] as const, width_us: [0.5, 2.5] as const, gap_us: [20, 60] as const } } };
+    const scenario = { ...base, faults: { bounce: { probability: 1, pulses: [1, 2] as const, width_us: [0.5, 1.2] as const, gap_us: [20, 60] as const } } };
     const opts = { seed: 21, durationS: 6 };
     const sch = firmwareSchedule(scenario, opts);
     const fw = await runFirmware({ edges: sch.edges, durationS: sch.durationS });
@@ -79,5 +79,28 @@ describeFirmware('short bounce pulses: the model loses the same edges as the fir
     expect(c.edges_lost_by_device).toBeGreaterThan(0);
     expect(c.edges_lost_by_device + c.edges_lost_silently).toBe(c.edges_lost_too_close);
     console.log(`sim vs emulator, bounce: ${c.bounce_pulses} pulses, ${c.edges_lost_too_close} edges missed, ${c.edges_lost_silently} of them never counted by either`);
+  });
+});
+
+describeFirmware('the model\'s capture blind time is the current firmware\'s', () => {
+  it('pulses 2 ticks under min_edge_gap_ticks lose their end, 2 over are whole; a pulse missed and over before pin_check_ticks is silent', async () => {
+    const d = parseScenario({ rig: { length_m: 1, flag_width_m: 0.02 }, duration_s: 1, physics: { g_m_s2: 9.8, release_deg: 10 } }).device;
+    const g = d.min_edge_gap_ticks;
+    // Each probe: rise at a 10 ms slot, then the listed offsets (ticks) alternate fall, rise, ...; the last fall ends it.
+    const probes = [[g - 2], [g + 2], [20, d.pin_check_ticks - 45, 2000], [20, d.pin_check_ticks + 55, 2000]];
+    const edges = probes.flatMap((offs, i) => {
+      const c = Math.round((0.2 + i * 0.01) * 16e6);
+      return [0, ...offs].map((o, k) => ({ t_s: (c + o) / 16e6, ch: 0 as const, level: (k % 2 === 0 ? 1 : 0) as 0 | 1 }));
+    });
+    const fw = await runFirmware({ edges, durationS: 1.3 });
+    const recs = fw.lines.map(decodeLine).flatMap((x) => (x.ok ? [x.record] : []));
+    const per = probes.map((_, i) => {
+      const t0 = Math.round((0.2 + i * 0.01) * 16e6) - fw.timer1StartCycle;
+      return recs.flatMap((r) => (r.kind === 'E' && r.ticks >= t0 - 8 && r.ticks < t0 + 5000 ? [r.edge] : [])).join('');
+    });
+    const lost = recs.flatMap((r) => (r.kind === 'T' ? [r.lost] : [])).at(-1);
+    console.log(`firmware blind time: probes at ${g - 2}/${g + 2} ticks and pin check ${d.pin_check_ticks}: ${per.join(' ')}, lost ${lost}`);
+    expect(per).toEqual(['r', 'rf', 'rf', 'rrf']);
+    expect(lost).toBe(2);
   });
 });
