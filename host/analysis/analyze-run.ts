@@ -300,8 +300,8 @@ export function analyzeRun(d: RunData): AnalysisResult {
       budget.unshift({ name: 'length L (pivot to bob centre)', u_rel_g: rig.length_u_m / model.L_eff_m, note: `L = ${rig.length_m} ± ${rig.length_u_m} m` });
       for (const line of model.lines) {
         if (line.period_rel === 0) continue;
-        // Applied corrections: 10 % of their size (assumed, no source); unapplied: a rectangular half-width.
-        const u = line.applied ? 0.1 * Math.abs(line.period_rel) : Math.abs(line.period_rel) / Math.sqrt(3);
+        // Applied corrections: their own u, else 10 % of their size (assumed, no source); unapplied: a rectangular half-width.
+        const u = line.u_rel ?? (line.applied ? 0.1 * Math.abs(line.period_rel) : Math.abs(line.period_rel) / Math.sqrt(3));
         budget.push({ name: `${line.applied ? 'correction' : 'uncorrected'}: ${line.name}`, u_rel_g: 2 * u, note: line.why });
       }
       g = (4 * Math.PI * Math.PI * model.L_eff_m * (1 + model.air_rel) ** 2) / (T0u * T0u);

@@ -36,14 +36,17 @@ export function effectiveLength(L: number, r: number, bobMass: number, stringMas
  * (k = 1/2 for potential flow about a sphere, plus the Stokes boundary-layer term 9δ/(4r), δ = √(2ν/ω0); Stokes
  * 1851, from memory) raises the inertia.
  */
-export function airPeriodRel(rhoAir: number, rhoBob: number, radius: number | undefined, omega0: number): number {
+export function airPeriodRel(rhoAir: number, rhoBob: number, radius: number | undefined, omega0: number, addedMassK?: number): number {
   const ratio = rhoAir / rhoBob;
-  let k = 0.5;
-  if (radius !== undefined && rhoAir > 0) {
-    const delta = Math.sqrt((2 * (AIR_VISCOSITY_PA_S / rhoAir)) / omega0);
-    k += (9 * delta) / (4 * radius);
-  }
+  const k = addedMassK ?? stokesAddedMassK(rhoAir, radius, omega0);
   return Math.sqrt((1 + k * ratio) / (1 - ratio)) - 1;
+}
+
+/** Added-mass coefficient of a sphere oscillating in air: 1/2 + 9δ/(4r), δ = √(2ν/ω0) (1/2 without a radius). */
+export function stokesAddedMassK(rhoAir: number, radius: number | undefined, omega0: number): number {
+  if (radius === undefined || !(rhoAir > 0)) return 0.5;
+  const delta = Math.sqrt((2 * (AIR_VISCOSITY_PA_S / rhoAir)) / omega0);
+  return 0.5 + (9 * delta) / (4 * radius);
 }
 
 /** Linear damping lengthens the period by 1/√(1 − 1/(4Q²)) − 1 ≈ 1/(8Q²). */
@@ -72,10 +75,17 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
     why: haveMasses ? `m_s/M = ${(rig.string_mass_kg! / rig.bob_mass_kg!).toExponential(2)}` : 'not applied: needs bob_mass_kg and string_mass_kg',
   });
   const haveDensity = rig.bob_density_kg_m3 !== undefined;
-  const air = airPeriodRel(rig.air_density_kg_m3, rig.bob_density_kg_m3 ?? TYPICAL_BOB_DENSITY, r, omega0);
+  // The added-mass coefficient of a real swing lies between potential flow (k = 1/2) and Stokes' oscillating
+  // sphere (k ≈ 1.05 for a 25 mm ball at 0.5 Hz; its amplitude ≫ r and the wake are neither): we apply the middle
+  // and count the half-range as a rectangular uncertainty.
+  const rhoB = rig.bob_density_kg_m3 ?? TYPICAL_BOB_DENSITY;
+  const airLo = airPeriodRel(rig.air_density_kg_m3, rhoB, r, omega0, 0.5);
+  const airHi = airPeriodRel(rig.air_density_kg_m3, rhoB, r, omega0);
+  const air = 0.5 * (airLo + airHi);
   lines.push({
     name: 'air buoyancy and added mass',
     period_rel: air,
+    u_rel: haveDensity ? Math.hypot(0.1 * airLo, (airHi - airLo) / 2 / Math.sqrt(3)) : Math.abs(air) / Math.sqrt(3),
     applied: haveDensity,
     why: haveDensity
       ? `ρ_air/ρ_bob = ${(rig.air_density_kg_m3 / rig.bob_density_kg_m3!).toExponential(2)}`

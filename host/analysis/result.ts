@@ -47,6 +47,8 @@ export interface CorrectionLine {
   readonly period_rel: number;
   readonly applied: boolean;
   readonly why: string;
+  /** Its standard uncertainty as a relative period change, where it is not the default 10 % of its size. */
+  readonly u_rel?: number;
 }
 
 /** One swing: a full period from every second pass, with the amplitude measured on it. */

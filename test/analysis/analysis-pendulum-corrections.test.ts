@@ -26,6 +26,10 @@ describe('corrections from the simple pendulum (relative period changes ε = ΔT
     expect(airPeriodRel(1.204, 8500, r, 3.1316)).toBeCloseTo(1.4512e-4, 8);
   });
 
+  it('air with ideal-flow added mass (k = 1/2): buoyancy 7.669e-5 + added mass 3.834e-5 for steel, to first order', () => {
+    expect(airPeriodRel(1.204, 7850, r, 3.1316, 0.5)).toBeCloseTo(7.669e-5 + 3.834e-5, 7);
+  });
+
   it('damping: ODE zero-crossing spacing ratio 1.0000500038 at Q = 50 (reference-values §3)', () => {
     expect(dampingPeriodRel(50)).toBeCloseTo(5.00038e-5, 10);
   });
@@ -35,7 +39,10 @@ describe('corrections from the simple pendulum (relative period changes ε = ΔT
     if (!rig.ok) throw new Error(rig.error);
     const m = pendulumModel(rig.rig, 3.1316, 2000);
     expect(m.lines.every((l) => l.applied)).toBe(true);
-    expect(m.air_rel).toBeCloseTo(1.5714e-4, 8);
+    // Applied: the middle of potential flow (k = 1/2) and Stokes (k = 1.049); the half-range is its uncertainty.
+    const lo = airPeriodRel(1.204, 7850, r, 3.1316, 0.5);
+    expect(m.air_rel).toBeCloseTo((lo + 1.5714e-4) / 2, 8);
+    expect(m.lines.find((l) => l.name.startsWith('air'))!.u_rel!).toBeGreaterThan((1.5714e-4 - lo) / 2 / Math.sqrt(3));
     expect(m.L_eff_m).toBeCloseTo(effectiveLength(1, r, 0.06735, 0.0005), 15);
     const bare = parseRig({ length_m: 1, flag_width_m: 0.0254 });
     if (!bare.ok) throw new Error(bare.error);
