@@ -2,7 +2,7 @@
 import type { BindingInterface } from './binding-types.ts';
 import { decodeLine } from '../../protocol/decode.ts';
 import type { AnnotationWord } from '../../protocol/journal.ts';
-import type { HelloRecord } from '../../protocol/records.ts';
+import { PROTOCOL_VERSION, type HelloRecord } from '../../protocol/records.ts';
 import { UserError } from '../cli/errors.ts';
 import { DEFAULT_BAUD, HEARTBEAT_DEFAULT_MS } from '../../protocol/link-defaults.ts';
 import { LineFramer } from './line-framer.ts';
@@ -318,6 +318,15 @@ class Link implements DeviceLink {
     });
   }
 
+  private async wrongProtocol(proto: number): Promise<void> {
+    if (!this.session) return;
+    const why = `the board's firmware speaks protocol ${proto}; this halfswing reads protocol ${PROTOCOL_VERSION}: update halfswing (or flash the firmware that ships with it)`;
+    await this.dropSession();
+    if (!this.everConnected) return this.fail(new UserError(why));
+    this.annotate('error', why);
+    this.retry(why);
+  }
+
   private helloTimedOut(path: string): void {
     if (this.connected || this.closed) return;
     const why = this.silenceReason(path);
@@ -356,8 +365,17 @@ class Link implements DeviceLink {
       if (!this.waitStats.first) this.waitStats.first = line;
     }
     const d = decodeLine(line);
-    // The hello that completes a connection is preceded by its `connect` annotation (JOURNAL.md order).
-    if (d.ok && d.record.kind === 'H' && !this.connected) this.onHello(d.record, hostUs);
+    if (d.ok && d.record.kind === 'H' && !this.connected) {
+      // SPEC section 6: a hello of another protocol version must not be read as version 1.
+      if (d.record.proto !== PROTOCOL_VERSION) {
+        this.emit({ type: 'line', hostUs, line });
+        this.counts.validLines++;
+        void this.wrongProtocol(d.record.proto);
+        return;
+      }
+      // The hello that completes a connection is preceded by its `connect` annotation (JOURNAL.md order).
+      this.onHello(d.record, hostUs);
+    }
     this.emit({ type: 'line', hostUs, line });
     if (!d.ok) {
       this.counts.badLines++;

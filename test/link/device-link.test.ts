@@ -2,6 +2,7 @@ import { MockBinding } from '@serialport/binding-mock';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { BindingInterface, BindingOpenOptions } from '../../host/link/binding-types.ts';
 import { openDeviceLink, type DeviceLink, type DeviceLinkOptions, type LinkEvent } from '../../host/link/device-link.ts';
+import { encodeRecord } from '../../protocol/encode.ts';
 import { DeviceLines } from './helpers/device-lines.ts';
 import { FakeBinding } from './helpers/fake-binding.ts';
 
@@ -109,6 +110,18 @@ describe('device link: hello timeout tells what the far end did', () => {
     const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 2000, helloNudgeMs: 30 });
     expect((await link.ready).boot).toBe(d.boot);
     await link.close();
+  });
+});
+
+describe('device link: a hello of another protocol version', () => {
+  it('is not read as version 1: the first connection fails saying so (SPEC section 6)', async () => {
+    const b = new FakeBinding();
+    b.add('/dev/ttyX', {}, (cmd) =>
+      cmd === '?' ? [encodeRecord({ kind: 'H', seq: 0, proto: 2, fw: '9.0.0', mcu: 'm328p', hz: 16e6, ch: 2, boot: 1, extra: {} })] : [],
+    );
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloNudgeMs: 5 });
+    await expect(link.ready).rejects.toThrow(/speaks protocol 2; this halfswing reads protocol 1: update halfswing/);
+    expect(b.isOpen('/dev/ttyX')).toBe(false);
   });
 });
 
