@@ -66,6 +66,23 @@ describe('device link on @serialport/binding-mock', () => {
     await link.close();
   });
 
+  it('opens with hupcl on by default, and off when asked (DTR stays up at close, so a re-open does not reset)', async () => {
+    const seen: (boolean | undefined)[] = [];
+    const binding = {
+      list: () => MockBinding.list(),
+      open: async (o: BindingOpenOptions) => {
+        seen.push(o.hupcl);
+        return MockBinding.open(o);
+      },
+    } as unknown as BindingInterface;
+    for (const hupcl of [undefined, false]) {
+      const link = openDeviceLink({ port: '/dev/ttyMOCK0', binding, ...(hupcl === undefined ? {} : { hupcl }) });
+      await link.ready;
+      await link.close();
+    }
+    expect(seen).toEqual([true, false]);
+  });
+
   it('sends commands as LF-terminated lines', async () => {
     const { binding, port } = capturingMock();
     const link = openDeviceLink({ port: '/dev/ttyMOCK0', binding });

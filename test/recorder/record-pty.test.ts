@@ -4,6 +4,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { followJournal } from '../../host/journal/follow-journal.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { decodeLine } from '../../protocol/decode.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
@@ -47,12 +48,22 @@ describe.skipIf(!enabled)('record over a pty', () => {
   it('a full run: every line the board sent is journaled in order, and g agrees with the simulator truth', async () => {
     const status = join(fx.dir(), 'status.json');
     const { journal, rec, board } = await rig(CLEAN, 150, ['--status', status]);
+    // A viewer follows the journal while it is written (what `halfswing watch` does).
+    const ac = new AbortController();
+    const followed: JournalEntry[] = [];
+    const following = (async () => {
+      for await (const e of followJournal(journal, { waitForFile: true, pollMs: 10, signal: ac.signal })) followed.push(e);
+    })();
     await board.run();
     await waitFor(() => journalDataLines(journal).length === board.sent.length, 'all lines journaled');
     rec.proc.kill('SIGTERM');
     expect(await rec.exited).toBe(0);
     const es = await journalEntries(journal);
     expect(data(es)).toEqual(board.sent);
+    await waitFor(() => followed.length === es.length, 'the follower to catch up');
+    ac.abort();
+    await following;
+    expect(followed).toEqual(es);
     expect(words(es)).toEqual(['connect', 'disconnect']);
     expect(es.find((e) => e.kind === 'annotation' && e.word === 'disconnect')).toMatchObject({ text: 'shutdown (SIGTERM)' });
     // host_us never decreases within the section (JOURNAL.md, data lines).
