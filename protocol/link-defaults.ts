@@ -33,21 +33,21 @@ export const EMULATOR_CHANNEL_LATENCY_TICKS: readonly [number, number] = [0, 5];
 /**
  * Worst extra ch1 latency, measured in the emulator: an INT0 edge that arrives just after a ch0 capture
  * waits for the capture ISR to finish (the longest ISR). Typical extra latency is 0; this bound is the
- * jitter to allow when comparing ch1 with ch0 edge by edge (150 ticks = 9.4 µs at 16 MHz).
+ * jitter to allow when comparing ch1 with ch0 edge by edge (measured 167; 170 ticks = 10.6 µs at 16 MHz).
  */
-export const CH1_MAX_EXTRA_LATENCY_TICKS = 150;
+export const CH1_MAX_EXTRA_LATENCY_TICKS = 170;
 
 /**
- * Shortest ch0 pulse whose two edges both come back, measured in the emulator (48 cycles = 3 µs): the
+ * Shortest ch0 pulse whose two edges both come back, measured in the emulator (26 cycles = 1.6 µs): the
  * capture ISR must flip the edge select before the second edge. Shorter pulses lose their second edge,
  * and the firmware counts it in the `T` record's `lost` field.
  */
-export const CH0_MIN_PULSE_TICKS = 48;
+export const CH0_MIN_PULSE_TICKS = 26;
 
 /** Edges the firmware can buffer while the UART is busy (ring of 64 entries, one kept free). */
 export const EDGE_RING_CAPACITY = 63;
 
-/** Longest command line the firmware accepts, LF and one trailing CR excluded; longer gets `err <c> too-long`. */
+/** Longest command line the firmware accepts, before its LF and a CR included; longer gets `err <c> too-long`. */
 export const COMMAND_MAX_BYTES = 16;
 
 /** Default heartbeat period (`P` changes it within 100..60000 ms). */

@@ -9,6 +9,10 @@
 
 #define RING_MASK (EDGE_RING_SIZE - 1)
 
+// TCCR1B with the capture edge select cleared / set; the rest never changes after capture_init.
+#define TCCR1B_FALLING (_BV(ICNC1) | _BV(CS10))
+#define TCCR1B_RISING (_BV(ICNC1) | _BV(ICES1) | _BV(CS10))
+
 static edge_t ring[EDGE_RING_SIZE];
 // Single producer (the capture ISRs, which never nest) and single consumer (main): head by ISR, tail by main.
 static volatile uint8_t ring_head;
@@ -46,7 +50,7 @@ void capture_init(void) {
   TCCR1A = 0;                  // normal mode, compare outputs disconnected
   TIMSK1 = _BV(TOIE1);         // overflow counting; capture and compare-A are enabled later
   TIFR1 = _BV(TOV1) | _BV(ICF1) | _BV(OCF1A) | _BV(OCF1B);
-  TCCR1B = _BV(ICNC1) | _BV(CS10);  // noise canceler on, prescaler 1: 62.5 ns ticks at 16 MHz
+  TCCR1B = TCCR1B_FALLING;  // noise canceler on, prescaler 1: 62.5 ns ticks at 16 MHz
 }
 
 void capture_set_mask(uint8_t mask) {
@@ -115,13 +119,41 @@ void capture_set_alarm(uint16_t lo) {
   SREG = s;
 }
 
-ISR(TIMER1_CAPT_vect) {
-  uint16_t lo = ICR1;
-  uint8_t sense = TCCR1B;
-  // Flip the edge select first, as early as possible after reading ICR1, then drop the flag the flip may raise.
-  TCCR1B = sense ^ _BV(ICES1);
-  TIFR1 = _BV(ICF1);
-  ring_push((sense & _BV(ICES1)) ? EDGE_RISING : 0, lo, upper_bits(lo));
+// ICR1 and TCCR1B as the first instructions of the capture vector found them.
+static volatile uint16_t ch0_icr;
+static volatile uint8_t ch0_sense;
+
+// The edge-select flip must beat the pulse's second edge, so the vector does it in its first
+// instructions, before the C prologue (none of them touches SREG): read ICR1, save the edge select,
+// write the opposite one, clear the flag the write may raise. Then the ordinary handler below runs.
+void __vector_capt_body(void) __attribute__((signal, used));
+ISR(TIMER1_CAPT_vect, ISR_NAKED) {
+  __asm__ __volatile__(
+      "push r24\n\t"
+      "lds r24, %[icr_lo]\n\t"  // reading the low byte latches the high byte
+      "sts %[icr], r24\n\t"
+      "lds r24, %[icr_hi]\n\t"
+      "sts %[icr]+1, r24\n\t"
+      "lds r24, %[tccr]\n\t"
+      "sts %[sense], r24\n\t"
+      "sbrc r24, %[ices]\n\t"
+      "rjmp 1f\n\t"
+      "ldi r24, %[rising]\n\t"
+      "rjmp 2f\n"
+      "1:\tldi r24, %[falling]\n"
+      "2:\tsts %[tccr], r24\n\t"
+      "ldi r24, %[icf]\n\t"
+      "out %[tifr], r24\n\t"
+      "pop r24\n\t"
+      "jmp __vector_capt_body\n\t" ::[icr_lo] "i"(_SFR_MEM_ADDR(ICR1L)),
+      [icr_hi] "i"(_SFR_MEM_ADDR(ICR1H)), [icr] "i"(&ch0_icr), [tccr] "i"(_SFR_MEM_ADDR(TCCR1B)),
+      [sense] "i"(&ch0_sense), [ices] "I"(ICES1), [rising] "M"(TCCR1B_RISING), [falling] "M"(TCCR1B_FALLING),
+      [icf] "M"(_BV(ICF1)), [tifr] "I"(_SFR_IO_ADDR(TIFR1)));
+}
+
+void __vector_capt_body(void) {
+  uint16_t lo = ch0_icr;
+  ring_push((ch0_sense & _BV(ICES1)) ? EDGE_RISING : 0, lo, upper_bits(lo));
   // Short-pulse check: the pin must still sit at the level this edge left. If it does not, the next edge
   // came before the flip (or before the flag clear) and was never captured: count it and re-arm.
   for (uint8_t tries = 0; tries < 3; tries++) {
@@ -169,6 +201,37 @@ void __vector_int0_body(void) {
   }
 }
 
-ISR(TIMER1_OVF_vect) { overflows++; }
+// The overflow count, by hand: 34 cycles with entry and RETI, against 57 for the compiler's version. Every
+// cycle here can delay a capture ISR, and so the edge-select flip of a short pulse.
+ISR(TIMER1_OVF_vect, ISR_NAKED) {
+  __asm__ __volatile__(
+      "push r24\n\t"
+      "in r24, __SREG__\n\t"
+      "push r24\n\t"
+      "lds r24, %[n]\n\t"
+      "subi r24, 0xff\n\t"  // +1; the carry chain below adds the carry
+      "sts %[n], r24\n\t"
+      "lds r24, %[n]+1\n\t"
+      "sbci r24, 0xff\n\t"
+      "sts %[n]+1, r24\n\t"
+      "lds r24, %[n]+2\n\t"
+      "sbci r24, 0xff\n\t"
+      "sts %[n]+2, r24\n\t"
+      "lds r24, %[n]+3\n\t"
+      "sbci r24, 0xff\n\t"
+      "sts %[n]+3, r24\n\t"
+      "pop r24\n\t"
+      "out __SREG__, r24\n\t"
+      "pop r24\n\t"
+      "reti\n\t" ::[n] "i"(&overflows));
+}
 
-ISR(TIMER1_COMPA_vect) { capture_alarm_flag = 1; }
+// Only wakes the main loop: ldi and sts leave SREG alone, so nothing else needs saving.
+ISR(TIMER1_COMPA_vect, ISR_NAKED) {
+  __asm__ __volatile__(
+      "push r24\n\t"
+      "ldi r24, 1\n\t"
+      "sts %[flag], r24\n\t"
+      "pop r24\n\t"
+      "reti\n\t" ::[flag] "i"(&capture_alarm_flag));
+}

@@ -59,7 +59,7 @@ static void parse(const char *s, uint8_t n, uint8_t mask_limit, command_t *out) 
 
 uint8_t command_feed(command_line_t *acc, uint8_t byte, uint8_t mask_limit, command_t *out) {
   if (byte != '\n') {
-    if (acc->len < COMMAND_MAX_LINE + 1)
+    if (acc->len < COMMAND_MAX_LINE)
       acc->buf[acc->len++] = (char)byte;
     else
       acc->overflow = 1;
@@ -69,13 +69,13 @@ uint8_t command_feed(command_line_t *acc, uint8_t byte, uint8_t mask_limit, comm
   uint8_t overflow = acc->overflow;
   acc->len = 0;
   acc->overflow = 0;
-  if (!overflow && n && acc->buf[n - 1] == '\r') n--;  // hosts that send CR LF
-  if (!overflow && n == 0) return 0;                   // blank lines are ignored
-  if (overflow || n > COMMAND_MAX_LINE) {
+  if (overflow) {
     out->letter = printable((uint8_t)acc->buf[0]) ? acc->buf[0] : '-';
     fail(out, R_TOO_LONG);
     return 1;
   }
+  if (n && acc->buf[n - 1] == '\r') n--;  // hosts that send CR LF
+  if (n == 0) return 0;                   // empty lines are ignored
   parse(acc->buf, n, mask_limit, out);
   return 1;
 }

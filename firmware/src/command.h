@@ -4,7 +4,8 @@
 
 #include <stdint.h>
 
-// Longest accepted command line, LF (and one trailing CR) excluded; longer lines get `err <c> too-long`.
+// Longest accepted command line before its LF, a CR included (protocol/SPEC.md, Commands); longer lines
+// get `err <c> too-long`.
 #define COMMAND_MAX_LINE 16
 #define PERIOD_MIN_MS 100
 #define PERIOD_MAX_MS 60000
@@ -22,7 +23,7 @@ typedef struct {
 } command_t;
 
 typedef struct {
-  char buf[COMMAND_MAX_LINE + 1];
+  char buf[COMMAND_MAX_LINE];
   uint8_t len;
   uint8_t overflow;
 } command_line_t;

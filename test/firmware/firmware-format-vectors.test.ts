@@ -99,14 +99,15 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
 
   it('classifies random command lines as the contract says (property test against a reference reading)', () => {
     // The command grammar of protocol/SPEC.md read independently: `?`, `P <decimal 100..60000>`,
-    // `C <hex mask 0..3>`; at most 16 bytes before LF, one trailing CR dropped, blank lines ignored.
+    // `C <hex mask 0..3>`; at most 16 bytes before the LF, a CR included; one trailing CR dropped; empty
+    // lines ignored.
     const reference = (bytes: number[]): string => {
-      let n = bytes.length;
-      if (n <= 17 && n > 0 && bytes[n - 1] === 0x0d) n--;
-      if (n === 0) return 'none';
-      const first = bytes[0]!;
+      const first = bytes[0] ?? 0;
       const letter = first > 0x20 && first < 0x7f ? String.fromCharCode(first) : '-';
-      if (n > 16) return `error ${letter} too-long`;
+      if (bytes.length > 16) return `error ${letter} too-long`;
+      let n = bytes.length;
+      if (n > 0 && bytes[n - 1] === 0x0d) n--;
+      if (n === 0) return 'none';
       const text = String.fromCharCode(...bytes.slice(0, n));
       const arg = text.slice(2);
       const number = (re: RegExp, base: number, lo: number, hi: number, kind: string): string => {
@@ -162,6 +163,9 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
       ['P 1000000000000000', 'error P 0 too-long'],
       ['x'.repeat(16), 'error x 0 unknown'],
       ['x'.repeat(17), 'error x 0 too-long'],
+      ['x'.repeat(16) + '\r', 'error x 0 too-long'],
+      ['P 60000\r', 'period P 60000 -'],
+      ['\r', 'none'],
     ];
     const got = ask(cases.map(([c]) => `cmd ${hex(c)}`));
     // The range cases keep the value they saw only when it fits 16 bits; compare the fields that matter.
