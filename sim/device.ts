@@ -1,6 +1,7 @@
 // The device model: captures pin edges in ticks, sends H/E/T/R lines like the firmware, reboots, stalls and drops.
 import { encodeRecord } from '../protocol/encode.ts';
 import { SEQ_MODULO, type DeviceRecord } from '../protocol/records.ts';
+import { COMMAND_MAX_BYTES, HEARTBEAT_MAX_MS, HEARTBEAT_MIN_MS } from '../protocol/link-defaults.ts';
 import { DeviceClock } from './device-clock.ts';
 import type { FaultSchedule, Window } from './fault-schedule.ts';
 import type { PinEdge } from './optics.ts';
@@ -17,7 +18,7 @@ export interface DeviceLine {
 /** Reset-cause bits of the AVR MCUSR register (PORF, EXTRF, BORF, WDRF; ATmega328P datasheet, MCUSR). */
 const RESET_CAUSE: Readonly<Record<string, number>> = { power: 1, external: 2, brownout: 4, watchdog: 8 };
 /** Longest host command, in characters without the LF (COMMAND_MAX_LINE in firmware/src/command.h). */
-export const MAX_COMMAND_CHARS = 16;
+const MAX_COMMAND_CHARS = COMMAND_MAX_BYTES;
 const TICKS_MAX = 2 ** 48;
 /** Time from receiving a command to its reply entering the UART. */
 const REPLY_LATENCY_S = 60e-6;
@@ -123,7 +124,7 @@ export class DeviceModel {
     if (!m) return err('syntax');
     const v = parseInt(m[1]!, c === 'P' ? 10 : 16);
     if (c === 'P') {
-      if (v < 100 || v > 60000) return err('range');
+      if (v < HEARTBEAT_MIN_MS || v > HEARTBEAT_MAX_MS) return err('range');
       this.setHeartbeat(v, this.clock!.ticksAt(t));
       return { kind: 'R', ok: true, cmd, fields: [`ms=${v}`] };
     }
@@ -252,7 +253,9 @@ export class DeviceModel {
     if (!(this.mask & (1 << ch))) return;
     const at = this.clock!.ticksAt(e.t);
     const w = this.window;
-    if (w && at < w.at + this.cfg.pin_check_ticks && (w.missed > 0 || at - w.at < this.cfg.min_edge_gap_ticks)) {
+    // A micro-tick of slack: times that went seconds → ticks must not miss an exact threshold by rounding.
+    const since = w ? at - w.at + 1e-6 : Infinity;
+    if (w && since < this.cfg.pin_check_ticks && (w.missed > 0 || since < this.cfg.min_edge_gap_ticks)) {
       w.missed++;
       this.o.counts.edges_lost_too_close++;
       return;

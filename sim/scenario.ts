@@ -1,5 +1,13 @@
 // Scenario files: a rig, its true physics, gate, device, host link and faults, validated strictly.
 import { parseRig, type Rig } from '../protocol/rig.ts';
+import {
+  CH0_MIN_PULSE_TICKS,
+  CHANNEL_LATENCY_TICKS,
+  DEFAULT_BAUD,
+  DEFAULT_TICK_HZ,
+  EDGE_RING_CAPACITY,
+  HEARTBEAT_DEFAULT_MS,
+} from '../protocol/link-defaults.ts';
 
 /** A range [min, max] from which each event draws uniformly. */
 export type Range = readonly [number, number];
@@ -75,7 +83,7 @@ export interface Scenario {
     readonly buffer_edges: number;
     /**
      * The capture ISR's blind time, measured on the emulated firmware (ch0; test/sim/sim-emulator.test.ts
-     * re-measures it): an edge sooner than `min_edge_gap_ticks` (25) after a capture is missed; once one is missed, the input is re-armed only when
+     * re-measures it): an edge sooner than `min_edge_gap_ticks` (CH0_MIN_PULSE_TICKS, 26) after a capture is missed; once one is missed, the input is re-armed only when
      * the ISR checks the pin, `pin_check_ticks` (145) after the capture, and edges before that are missed too.
      * At the check, a pin that differs from the captured level counts one edge in `lost`; a pin back at it
      * (an even number missed) counts none: those edges vanish silently, as in the firmware. The firmware's check
@@ -104,20 +112,21 @@ const DEFAULTS = {
   physics: { added_mass_k: 0.5, release_at_s: 0.5 },
   gate: { offset_m: 0, blocking_delay_us: 2, unblocking_delay_us: 8, jitter_us: 1 },
   device: {
-    hz: 16_000_000,
+    hz: DEFAULT_TICK_HZ,
     ppm: 0,
     drift_ppm_per_h: 0,
-    heartbeat_ms: 1000,
+    heartbeat_ms: HEARTBEAT_DEFAULT_MS,
     fw: '0.1.0',
     mcu: 'sim',
     channels: 2,
-    baud: 250_000,
-    capture_latency_ticks: 0,
+    baud: DEFAULT_BAUD,
+    // Silicon's ch0 latency, the one the host assumes; emulator comparisons set the emulator's (0).
+    capture_latency_ticks: CHANNEL_LATENCY_TICKS[0],
     emit_latency_us: [20, 120],
     first_boot_s: 0.05,
     boot_time_s: 1.6,
-    buffer_edges: 64,
-    min_edge_gap_ticks: 25,
+    buffer_edges: EDGE_RING_CAPACITY,
+    min_edge_gap_ticks: CH0_MIN_PULSE_TICKS,
     pin_check_ticks: 145,
   },
   host: { start: '2026-01-05T09:00:00.000Z', usb_frame_us: 1000, usb_tail: { kind: 'exponential', mean_us: 150 } },

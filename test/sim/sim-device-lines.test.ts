@@ -57,7 +57,7 @@ describe('device lines of fault-free runs', () => {
       const blocked = x.record.edge === 'f'; // brass rig: blocked level low
       expect(blocked).toBe(i % 2 === 0);
       const delay = (blocked ? tr.gate.blocking_delay_us : tr.gate.unblocking_delay_us) * 1e-6;
-      const dt = clock.timeAt(x.record.ticks + 0.5) - (truthTimes[i]! + delay);
+      const dt = clock.timeAt(x.record.ticks - tr.clock.capture_latency_ticks + 0.5) - (truthTimes[i]! + delay);
       worst = Math.max(worst, Math.abs(dt));
       // The host stamps a line after it was sent: never before the edge, and within a few ms.
       expect(x.hostUs / 1e6).toBeGreaterThan(truthTimes[i]!);

@@ -4,10 +4,15 @@ import { decodeLine, type EdgeRecord } from '../../protocol/index.ts';
 import { firmwareSchedule, loadScenario, parseScenario, simulateDevice } from '../../sim/index.ts';
 import { runFirmware } from '../../sim/emulator/run-firmware.ts';
 import { describeFirmware } from '../firmware/toolchain-gate.ts';
+import { EMULATOR_CHANNEL_LATENCY_TICKS } from '../../protocol/link-defaults.ts';
+import type { Scenario } from '../../sim/index.ts';
+
+/** simavr models no input synchroniser or noise canceller: the emulated part's ch0 latency is 0, not silicon's 4. */
+const emulated = (s: Scenario): Scenario => ({ ...s, device: { ...s.device, capture_latency_ticks: EMULATOR_CHANNEL_LATENCY_TICKS[0] } });
 
 describeFirmware('scenario through the emulated firmware vs the device model', () => {
   it('club rig, +3000 ppm clock: the same edges in the same order, ticks within ±1 (plus simavr’s instruction-boundary delay)', async () => {
-    const scenario = loadScenario('club-resonator');
+    const scenario = emulated(loadScenario('club-resonator'));
     const opts = { seed: 9, durationS: 8, no_faults: true };
     const sch = firmwareSchedule(scenario, opts);
     const fw = await runFirmware({ edges: sch.edges, durationS: sch.durationS });
@@ -52,7 +57,7 @@ describeFirmware('short bounce pulses: the model loses the same edges as the fir
   it('edges in the capture ISR’s blind time are lost by both, `lost` counts the same, the rest match in order', async () => {
     // Widths 0.5–1.2 µs (8–19 ticks, under the blind time), gaps 20–60 µs (far past the ISR's pin check, whose
     // exact time varies by tens of cycles with what the main loop is doing): no case sits near either threshold.
-    const base = loadScenario('club-resonator');
+    const base = emulated(loadScenario('club-resonator'));
     const scenario = { ...base, faults: { bounce: { probability: 1, pulses: [1, 2] as const, width_us: [0.5, 1.2] as const, gap_us: [20, 60] as const } } };
     const opts = { seed: 21, durationS: 6 };
     const sch = firmwareSchedule(scenario, opts);
