@@ -150,11 +150,14 @@ export function analyzeRun(d: RunData): AnalysisResult {
     // −θ0²/24 per round (−0.15 at 60°). Iterate it to convergence on a subsample of ≤ ~2000 periods first,
     // then compute every amplitude, and repeat on all periods only while T0 still moves by more than 1e-9.
     const stride = Math.max(1, Math.floor(pIdx.length / 2000));
+    let subKeep: Uint8Array | null = null;
     for (let iter = 0; iter < 60; iter++) {
       fillAmplitudes(T0, stride);
       const sub: number[] = [];
       for (let k = 0; k < pIdx.length; k += stride) sub.push(P[k]! / periodRatio(pAmp[k]!));
-      const t1 = maskedMean(sub, clipMask(sub).keep);
+      // The outlier mask from the second round on (the first T0 guess is the raw median period).
+      if (iter <= 1) subKeep = clipMask(sub).keep;
+      const t1 = maskedMean(sub, subKeep!);
       if (!Number.isFinite(t1)) break;
       const moved = Math.abs(t1 - T0) / T0;
       T0 = t1;

@@ -78,7 +78,8 @@ export function sequencePasses(
   const gaps: number[] = [];
   const step = Math.max(1, Math.floor(n / 4000));
   for (let i = 0; i + 1 < n; i += step) if (boot[i + 1] === boot[i]) gaps.push(t[i + 1]! - t[i]!);
-  const spacing = gaps.length ? sortedMedian(Float64Array.from(gaps), gaps.length) : Infinity;
+  const sortedGaps = Float64Array.from(gaps).sort();
+  const spacing = gaps.length ? sortedGaps[gaps.length >> 1]! : Infinity;
 
   // 1. Transit against the neighbours of the same boot (not for slow passes, whose transit changes fast anyway).
   for (let i = 0; i < n; i++) {
