@@ -28,6 +28,20 @@ describeFirmware('short pulses', () => {
     expect(got.slice(-2).map((e) => e.edge)).toEqual(['r', 'f']);
   });
 
+  it('ch0: a 5 µs pulse comes back whole even when it starts while the overflow ISR runs', async () => {
+    const start = (await runFirmware({ edges: [], durationS: 0.05 })).timer1StartCycle;
+    const edges: FirmwareEdge[] = [];
+    const offsets = Array.from({ length: 91 }, (_, i) => i - 10); // −10 … +80 cycles from the overflow
+    offsets.forEach((k, i) => {
+      const rise = start + (20 + 2 * i) * 65536 + k;
+      edges.push({ t_s: rise / EMULATOR_HZ, ch: 0, level: 1 }, { t_s: (rise + 80) / EMULATOR_HZ, ch: 0, level: 0 });
+    });
+    const run = await runFirmware({ edges, durationS: (start + 220 * 65536) / EMULATOR_HZ + 1.1 });
+    const records = decodeRun(run);
+    expect(heartbeatsOf(records).at(-1)!.lost).toBe(0);
+    expect(edgesOf(records, 0)).toHaveLength(2 * offsets.length);
+  });
+
   it('ch1: two changes closer than the interrupt can look count as two lost edges', async () => {
     const edges: FirmwareEdge[] = [];
     for (let i = 0; i < 5; i++) {
