@@ -263,6 +263,8 @@ class Link implements DeviceLink {
     if (this.identity) {
       const found = findByIdentity((await list()).ports, this.identity);
       if (found) return found.path;
+      // With 'auto', never fall back to whatever other board is attached now: wait for this one.
+      if (this.opts.port === 'auto') throw new UserError(`the board (${describeIdentity(this.identity)}) is not attached`);
     }
     if (this.opts.port !== 'auto') return this.currentPath ?? this.opts.port;
     if (this.currentPath && !this.identity) return this.currentPath;
@@ -472,4 +474,10 @@ class Link implements DeviceLink {
     this.rejectReady(e);
     void this.close();
   }
+}
+
+function describeIdentity(id: PortIdentity): string {
+  if (id.serialNumber) return `serial number ${id.serialNumber}`;
+  if (id.byId) return id.byId;
+  return `${id.vendorId ?? '?'}:${id.productId ?? '?'}`;
 }

@@ -1,15 +1,14 @@
 // Turns the serial binding's open failures into one actionable line each (missing, busy, no permission).
-import { UserError } from '../cli/errors.ts';
 
 /** Why a port could not be opened, as far as the binding's message tells. */
-export type OpenFailure = 'missing' | 'busy' | 'permission' | 'not-a-tty' | 'other';
+type OpenFailure = 'missing' | 'busy' | 'permission' | 'not-a-tty' | 'other';
 
 /**
  * Classifies an open error. bindings-cpp reports errno only as text, e.g.
  * "Error: No such file or directory, cannot open /dev/ttyACM0" and
  * "Error Resource temporarily unavailable Cannot lock port" (src/serialport_unix.cpp, 13.0.0).
  */
-export function classifyOpenError(e: unknown): OpenFailure {
+function classifyOpenError(e: unknown): OpenFailure {
   const err = e as { code?: string; message?: string } | undefined;
   const msg = `${err?.code ?? ''} ${err?.message ?? String(e)}`;
   if (/ENOENT|No such file or directory/i.test(msg)) return 'missing';
@@ -36,9 +35,4 @@ export function openErrorMessage(path: string, e: unknown, platform: NodeJS.Plat
     case 'other':
       return `cannot open ${path}: ${raw}`;
   }
-}
-
-/** The UserError for a failed open. */
-export function openError(path: string, e: unknown): UserError {
-  return new UserError(openErrorMessage(path, e));
 }

@@ -262,4 +262,22 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
     expect(got).toEqual(sent);
     await link.close();
   });
+
+  it("with --port auto, a lost board is waited for: another board attached meanwhile is not taken", async () => {
+    const b = new FakeBinding();
+    const d = new DeviceLines();
+    b.add('/dev/ttyACM0', { serialNumber: 'MINE', vendorId: '2341', productId: '0043' }, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    const link = openDeviceLink({ port: 'auto', binding: b, ...fast });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await link.ready;
+    await tick(20);
+    b.unplug('/dev/ttyACM0');
+    b.add('/dev/ttyACM1', { serialNumber: 'OTHER', vendorId: '2341', productId: '0043' }, (cmd) => (cmd === '?' ? [d.hello()] : []));
+    await until(() => states(all).filter((s) => s === 'reconnecting').length >= 3, 'retries');
+    expect(b.isOpen('/dev/ttyACM1')).toBe(false);
+    const why = all.flatMap((e) => (e.type === 'state' && e.state === 'reconnecting' ? [e.reason] : [])).at(-1);
+    expect(why).toMatch(/the board \(serial number MINE\) is not attached/);
+    await link.close();
+  });
 });
