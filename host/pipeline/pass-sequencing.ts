@@ -2,9 +2,10 @@
 //
 // A pass is rejected when its transit time is unlike its neighbours' (something else crossed the beam, or it
 // merged with the bob's own transit), or when it falls off the swing's beat of half-periods. The beat is followed
-// with a running median H of recent half-periods: a pass about r·H after the last accepted one (r = 1, 2, 3, within
-// ±GRID_TOL·H) is accepted as r passes later, so one or two missing passes are bridged and the pass numbering keeps
-// the direction of travel (even numbers one way, odd the other). When several candidates fall in the same beat
+// with running medians of recent half-periods of each parity (a gate offset makes them alternate): a pass about
+// r half-periods after the last accepted one (r = 1, 2, 3, within ±5 % of a half-period) is accepted as r passes
+// later, so one or two missing passes are bridged and the pass numbering keeps the direction of travel (even
+// numbers one way, odd the other). When several candidates fall in the same beat
 // window the one nearest the predicted time (and transit) wins. A longer gap, or a new boot, starts a new segment.
 
 /** Why a pass was not used. */
@@ -33,13 +34,16 @@ export interface PassSequence {
 export interface SequencingOptions {
   /** A transit more than this factor off the neighbours' median is rejected (default 1.6). */
   readonly transitRatio?: number;
-  /** Beat tolerance as a fraction of the half-period (default 0.2). */
+  /** Beat tolerance as a fraction of the half-period (default 0.05: the prediction follows each parity, so a real
+   * pass lands within a few µs to ms of it; 5 % still allows for fast decay at large amplitude). */
   readonly gridTol?: number;
   /** Longest gap bridged, in half-periods (default 3, i.e. two missing passes). */
   readonly maxBridge?: number;
 }
 
 const NEIGHBOURS = 6;
+/** Half-periods remembered per parity for the beat prediction. */
+const RING = 5;
 /**
  * A pass blocked for more than this fraction of a half-period belongs to a swing that no longer clears the beam
  * well (at the end of a decay, or on one side of an offset beam): left out without blame.
@@ -65,7 +69,7 @@ export function sequencePasses(
 ): PassSequence {
   const n = t.length;
   const ratio = opts.transitRatio ?? 1.6;
-  const tol = opts.gridTol ?? 0.2;
+  const tol = opts.gridTol ?? 0.05;
   const maxBridge = opts.maxBridge ?? 3;
   const status = new Uint8Array(n);
   const index = new Int32Array(n).fill(-1);
@@ -98,11 +102,21 @@ export function sequencePasses(
   let bridgedGaps = 0;
   let longGaps = 0;
   let seg = -1;
-  const hist = new Float64Array(8);
-  const histBuf = new Float64Array(8);
-  let histN = 0;
-  let histAt = 0;
+  // Recent half-periods by the parity of the pass that starts them (a gate offset makes them alternate).
+  const hist = [new Float64Array(RING), new Float64Array(RING)] as const;
+  const histN = [0, 0];
+  const histAt = [0, 0];
+  const hPar = [NaN, NaN];
+  const histBuf = new Float64Array(RING);
   let H = NaN;
+  const remember = (parity: number, h: number): void => {
+    hist[parity]![histAt[parity]!] = h;
+    histAt[parity] = (histAt[parity]! + 1) % RING;
+    histN[parity] = Math.min(histN[parity]! + 1, RING);
+    for (let q = 0; q < histN[parity]!; q++) histBuf[q] = hist[parity]![q]!;
+    hPar[parity] = sortedMedian(histBuf, histN[parity]!);
+    H = 0.5 * (hPar[0]! + hPar[1]!);
+  };
   let last = -1;
   const candidates = (from: number): number => {
     let j = from;
@@ -136,9 +150,9 @@ export function sequencePasses(
         seg++;
         index[a] = 0;
         segment[a] = seg;
-        H = 0.5 * (h1 + h2);
-        histN = 0;
-        histAt = 0;
+        histN[0] = histN[1] = histAt[0] = histAt[1] = 0;
+        remember(0, h1);
+        remember(1, h2);
         last = a;
         return a + 1;
       }
@@ -175,7 +189,8 @@ export function sequencePasses(
       continue;
     }
     // All candidates in this beat window compete; the best fit to the predicted time and transit wins.
-    const predicted = t[last]! + r * H;
+    let predicted = t[last]!;
+    for (let q = 0; q < r; q++) predicted += hPar[(index[last]! + q) % 2]!;
     let best = -1;
     let bestScore = Infinity;
     let k = j;
@@ -193,15 +208,10 @@ export function sequencePasses(
       j = k;
       continue;
     }
-    const h = (t[best]! - t[last]!) / r;
+    if (r === 1) remember(index[last]! % 2, t[best]! - t[last]!);
     index[best] = index[last]! + r;
     segment[best] = seg;
     if (r > 1) (bridgedBefore[best] = r - 1), bridgedGaps++;
-    hist[histAt] = h;
-    histAt = (histAt + 1) % hist.length;
-    histN = Math.min(histN + 1, hist.length);
-    for (let q = 0; q < histN; q++) histBuf[q] = hist[q]!;
-    H = histN >= 3 ? sortedMedian(histBuf, histN) : H;
     last = best;
     j = k;
   }
