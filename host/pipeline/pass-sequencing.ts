@@ -129,7 +129,7 @@ export function sequencePasses(
   };
   const startSegment = (from: number): number => {
     // Find three consecutive candidates of the same boot, evenly spaced: a trustworthy start of the beat.
-    // Candidates skipped on the way are off the beat (rejected), or too few to start a beat (left unsequenced).
+    // Candidates skipped on the way are left unsequenced (status 3), not rejected.
     let a = candidates(from);
     while (a < n) {
       const b = candidates(a + 1);
@@ -156,7 +156,8 @@ export function sequencePasses(
         last = a;
         return a + 1;
       }
-      reject(a);
+      // Uneven spacing before a beat is known: a missing pass as likely as an intruder, so no blame.
+      status[a] = 3;
       a = candidates(a + 1);
     }
     last = -1;
