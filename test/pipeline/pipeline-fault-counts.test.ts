@@ -38,7 +38,7 @@ function periodsSound(r: ReturnType<typeof simAndAnalyze>): void {
 }
 
 describe('each injected fault is counted exactly (simulator truth)', () => {
-  it.each([1, 2, 3])('wire and device faults, seed %i', (seed) => {
+  it.each([1, 2, 3, 14])('wire and device faults, seed %i', (seed) => {
     const run = simAndAnalyze(lineFaults, { seed });
     const f = run.truth.faults.counts;
     const c = run.result.counts;
