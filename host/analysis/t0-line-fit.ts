@@ -68,9 +68,12 @@ export function smoothAmplitudes(p: LinePasses): Float64Array {
 export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null): T0Line | null {
   const th = smoothAmplitudes(p);
   const n = p.t.length;
-  // Per segment: reduced times τ, pass numbers k, alternation regressor z.
-  const segs: { k: number[]; tau: number[]; z: number[] }[] = [];
-  let cur: { k: number[]; tau: number[]; z: number[] } | null = null;
+  // All usable passes in order, as flat columns; segments are runs [segStart[j], segStart[j + 1]).
+  const K = new Float64Array(n);
+  const TAU = new Float64Array(n);
+  const Z = new Float64Array(n);
+  const segStart: number[] = [];
+  let m = 0;
   // For the modelled walk: Σ (∂Δτ/∂θ̄)² over the steps, and the raw amplitudes' scatter about the smoothed ones.
   let grad2 = 0;
   let steps = 0;
@@ -80,61 +83,78 @@ export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null)
   let last = -1;
   for (let c = 0; c < n; c++) {
     if (!p.use[c] || !Number.isFinite(th[c]!)) continue;
-    if (p.segment[c] !== seg || !cur) {
+    if (p.segment[c] !== seg || segStart.length === 0) {
       seg = p.segment[c]!;
-      cur = { k: [], tau: [], z: [] };
-      segs.push(cur);
-      cur.tau.push(p.t[c]!);
+      segStart.push(m);
+      // τ starts at 0 in each segment (only differences matter), which keeps the sums well conditioned.
+      TAU[m] = 0;
     } else {
       const tb = 0.5 * (th[last]! + th[c]!);
       const r = periodRatio(tb);
       const dt = p.t[c]! - p.t[last]!;
-      cur.tau.push(cur.tau[cur.tau.length - 1]! + dt / r);
+      TAU[m] = TAU[m - 1]! + dt / r;
       const h = 1e-5;
-      const dr = (periodRatio(tb + h) - periodRatio(Math.max(0, tb - h))) / (tb + h - Math.max(0, tb - h));
+      const lo = Math.max(0, tb - h);
+      const dr = (periodRatio(tb + h) - periodRatio(lo)) / (tb + h - lo);
       grad2 += ((dt * dr) / (r * r)) ** 2;
       steps++;
     }
     if (Number.isFinite(p.amplitude[c]!)) (dev2 += (p.amplitude[c]! - th[c]!) ** 2), devN++;
-    const s = p.index[c]! % 2 === 0 ? -1 : 1;
-    cur.k.push(p.index[c]!);
-    cur.z.push((s * (mu ? mu(th[c]!) : 1)) / periodRatio(th[c]!));
+    const sgn = p.index[c]! % 2 === 0 ? -1 : 1;
+    K[m] = p.index[c]!;
+    Z[m] = (sgn * (mu ? mu(th[c]!) : 1)) / periodRatio(th[c]!);
     last = c;
+    m++;
   }
-  // Partial out [1, z] per segment from k and τ (Frisch–Waugh–Lovell).
-  const kt: number[][] = [];
-  const tt: number[][] = [];
+  segStart.push(m);
+  // Partial out [1, z] per segment from k and τ (Frisch–Waugh–Lovell), in place.
   let skk = 0;
   let skt = 0;
   let used = 0;
-  for (const s of segs) {
-    const m = s.k.length;
-    if (m < 4) {
-      kt.push([]);
-      tt.push([]);
-      continue;
+  const good: boolean[] = [];
+  for (let j = 0; j + 1 < segStart.length; j++) {
+    const a = segStart[j]!;
+    const b = segStart[j + 1]!;
+    const len = b - a;
+    good.push(len >= 4);
+    if (len < 4) continue;
+    let zb = 0;
+    let kb = 0;
+    let tb = 0;
+    for (let i = a; i < b; i++) (zb += Z[i]!), (kb += K[i]!), (tb += TAU[i]!);
+    zb /= len;
+    kb /= len;
+    tb /= len;
+    let szz = 0;
+    let szk = 0;
+    let szt = 0;
+    for (let i = a; i < b; i++) {
+      Z[i] = Z[i]! - zb;
+      K[i] = K[i]! - kb;
+      TAU[i] = TAU[i]! - tb;
+      szz += Z[i]! * Z[i]!;
+      szk += Z[i]! * K[i]!;
+      szt += Z[i]! * TAU[i]!;
     }
-    const mean = (v: number[]): number => v.reduce((a, b) => a + b, 0) / v.length;
-    const zb = mean(s.z);
-    const zc = s.z.map((v) => v - zb);
-    const szz = zc.reduce((a, v) => a + v * v, 0);
-    const resid = (v: number[]): number[] => {
-      const vb = mean(v);
-      const vc = v.map((x) => x - vb);
-      const b = szz > 0 ? vc.reduce((a, x, i) => a + x * zc[i]!, 0) / szz : 0;
-      return vc.map((x, i) => x - b * zc[i]!);
-    };
-    // τ is shifted by its first value before centring, to keep the sums well conditioned.
-    const t0 = s.tau[0]!;
-    const k1 = resid(s.k);
-    const t1 = resid(s.tau.map((x) => x - t0));
-    kt.push(k1);
-    tt.push(t1);
-    for (let i = 0; i < m; i++) (skk += k1[i]! * k1[i]!), (skt += k1[i]! * t1[i]!);
-    used += m;
+    const bk = szz > 0 ? szk / szz : 0;
+    const bt = szz > 0 ? szt / szz : 0;
+    for (let i = a; i < b; i++) {
+      K[i] = K[i]! - bk * Z[i]!;
+      TAU[i] = TAU[i]! - bt * Z[i]!;
+      skk += K[i]! * K[i]!;
+      skt += K[i]! * TAU[i]!;
+    }
+    used += len;
   }
   if (used < 8 || !(skk > 0)) return null;
   const beta = skt / skk;
+  const kt: Float64Array[] = [];
+  const tt: Float64Array[] = [];
+  for (let j = 0; j + 1 < segStart.length; j++) {
+    if (!good[j]) continue;
+    kt.push(K.subarray(segStart[j]!, segStart[j + 1]!));
+    tt.push(TAU.subarray(segStart[j]!, segStart[j + 1]!));
+  }
   // Residual structure: white noise and a random walk.
   let d1 = 0;
   let n1 = 0;
