@@ -5,7 +5,8 @@ import type { Rig } from '../../protocol/rig.ts';
 import type { BenchContext, Benchmark } from './benchmark.ts';
 import type { FigureResult, Row } from './report.ts';
 import { benchScenario, simulateAndAnalyze, withTrueRig } from './sim-analysis.ts';
-import { fitHalfPeriod, lsSlopeSigma, mean, quantile, rms, seededNormal, seededUniform, stdev } from './stats.ts';
+import { Rng } from '../../sim/index.ts';
+import { fitHalfPeriod, lsSlopeSigma, mean, quantile, rms, stdev } from './stats.ts';
 
 const TICK_S = 1 / 16e6;
 
@@ -73,13 +74,12 @@ function efficiency(ctx: BenchContext, seeds: number): { rows: Row[]; details: R
 function coverage(ctx: BenchContext, seeds: number, lengthU: number, label: string): { row: Row; details: Record<string, unknown> } {
   const base = benchScenario('bench-coverage');
   const stated: Rig = { ...base.rig, length_u_m: lengthU };
-  const z = seededNormal(1000 + Math.round(lengthU * 1e6));
-  const u = seededUniform(2000 + Math.round(lengthU * 1e6));
+  const rng = new Rng(1000 + Math.round(lengthU * 1e6));
   const scores: number[] = [];
   let failed = 0;
   for (let seed = 1; seed <= seeds; seed++) {
-    const s = withTrueRig(base, { length_m: stated.length_m + lengthU * z(), flag_width_m: stated.flag_width_m + stated.flag_width_u_m * z() });
-    const ppm = -300 + 600 * u();
+    const s = withTrueRig(base, { length_m: stated.length_m + lengthU * rng.normal(), flag_width_m: stated.flag_width_m + stated.flag_width_u_m * rng.normal() });
+    const ppm = rng.between(-300, 300);
     const { result, truth } = simulateAndAnalyze(s, { seed, ppm }, { rig: stated });
     if (result.g_m_s2 === null || result.g_u_m_s2 === null) failed++;
     else scores.push((result.g_m_s2 - truth.physics.g_m_s2) / result.g_u_m_s2);

@@ -8,7 +8,8 @@ import { missingToolchain } from '../../sim/emulator/toolchain.ts';
 import { NotMeasured, type BenchContext, type Benchmark } from './benchmark.ts';
 import { buildPollBaseline } from './poll-baseline.ts';
 import type { FigureResult, Row } from './report.ts';
-import { max, min, quantile, seededUniform, stdev } from './stats.ts';
+import { Rng } from '../../sim/index.ts';
+import { max, min, quantile, stdev } from './stats.ts';
 
 const EMU_HZ = 16e6;
 /** The product firmware samples its entropy for ~33 ms at boot; edges start after it is ready. */
@@ -55,7 +56,7 @@ function gcd(a: number, b: number): number {
  * jitter alone. (Blocking while printing shows in the edge-rate rows.)
  */
 function timingSchedule(n: number, seed: number): FirmwareEdge[] {
-  const u = seededUniform(seed);
+  const rng = new Rng(seed);
   const out: FirmwareEdge[] = [];
   const level: [0 | 1, 0 | 1] = [0, 0];
   let t = START_S;
@@ -63,7 +64,7 @@ function timingSchedule(n: number, seed: number): FirmwareEdge[] {
     const ch = (i % 2) as 0 | 1;
     level[ch] = level[ch] === 0 ? 1 : 0;
     out.push({ t_s: t, ch, level: level[ch] });
-    t += 0.002 + 0.0005 * u();
+    t += 0.002 + 0.0005 * rng.uniform();
   }
   return out;
 }

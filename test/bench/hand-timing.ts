@@ -1,11 +1,11 @@
 // Figure 6, hand timing baseline: a stopwatch over 10 swings with human reaction error per press, against the
 // project's own T0 from the same 21 passes.
 import { periodRatio } from '../../host/analysis/elliptic.ts';
-import { simulateJournal } from '../../sim/index.ts';
+import { Rng, simulateJournal } from '../../sim/index.ts';
 import type { BenchContext, Benchmark } from './benchmark.ts';
 import type { FigureResult, Row } from './report.ts';
 import { benchScenario, simulateAndAnalyze } from './sim-analysis.ts';
-import { mean, quantile, rms, seededNormal } from './stats.ts';
+import { mean, quantile, rms } from './stats.ts';
 
 const SWINGS = 10;
 
@@ -61,10 +61,10 @@ async function run(ctx: BenchContext): Promise<FigureResult> {
   const T0 = runs[0]!.trueT0;
   const rows: Row[] = [];
   for (const [i, m] of PRESS_MODELS.entries()) {
-    const z = seededNormal(500 + i);
+    const rng = new Rng(500 + i);
     // The stopwatch starts and stops on a pass; the true interval is exact, so only the presses err.
     // The same amplitude reduction is granted to the stopwatch (with the true amplitude): its error is the presses alone.
-    const hand = runs.map((r) => r.reducedTrueErr + (m.bias + m.sd * z() - (m.bias + m.sd * z())) / SWINGS);
+    const hand = runs.map((r) => r.reducedTrueErr + (m.bias + m.sd * rng.normal() - (m.bias + m.sd * rng.normal())) / SWINGS);
     const handRms = rms(hand);
     rows.push({
       figure: `T0 error over ${SWINGS} swings, rms: project vs ${m.name}`,

@@ -62,24 +62,6 @@ export function fitLine(xs: readonly number[], ys: readonly number[]): { a: numb
   return { a: my - b * mx, b };
 }
 
-/** Seeded uniform RNG on [0, 1) (mulberry32), so every benchmark input is reproducible. */
-export function seededUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Standard normal deviates from a uniform source (Box–Muller). */
-export function seededNormal(seed: number): () => number {
-  const u = seededUniform(seed);
-  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
-}
-
 /**
  * Least-squares fit of pass times t_k = a + b·k + c·(−1)^k (a gate off the lowest point makes consecutive
  * half-periods alternate long and short); returns the half-period b.
