@@ -61,6 +61,27 @@ describe('against the simulator truth', () => {
     expect(inside).toBeGreaterThanOrEqual(34);
   });
 
+  it('g coverage holds when L is known to 1 µm, so timing, clock, amplitude reduction and corrections dominate', () => {
+    const brass = loadScenario('brass-1m-two-hours');
+    const seeds = 40;
+    let inside = 0;
+    let z2 = 0;
+    for (let seed = 1; seed <= seeds; seed++) {
+      const rng = new TestRng(5000 + seed);
+      const sc = scenario({ ...brass, rig: { ...brass.rig, length_u_m: 1e-6 }, duration_s: 900, device: { ...brass.device, ppm: (rng.uniform() - 0.5) * 400 } });
+      const measured = rigOf({ ...sc.rig, length_m: sc.rig.length_m + 1e-6 * rng.normal(), flag_width_m: sc.rig.flag_width_m + sc.rig.flag_width_u_m * rng.normal() });
+      const { truth, result: r } = simAndAnalyze(sc, { seed }, { rig: measured });
+      const z = (r.g_m_s2! - truth.physics.g_m_s2) / r.g_u_m_s2!;
+      z2 += z * z;
+      if (Math.abs(z) < 2) inside++;
+    }
+    const rms = Math.sqrt(z2 / seeds);
+    console.log(`L known to 1 µm: coverage of g ± 2u ${((100 * inside) / seeds).toFixed(1)} %, rms of (g − g_true)/u ${rms.toFixed(2)} (1 when the budget is right)`);
+    expect(inside).toBeGreaterThanOrEqual(34);
+    // Not grossly conservative either: the budget is meant to be right, not safe.
+    expect(rms).toBeGreaterThan(0.5);
+  });
+
   it.each([3, 10, 30, 60])('amplitude per swing within 0.05° at %f° when w is exact', (deg) => {
     const sc = scenario({
       name: `amp-${deg}`,
