@@ -216,7 +216,7 @@ async function run(ctx: BenchContext): Promise<FigureResult> {
   const rows: Row[] = [...timingRows(0, 'input capture', fwCh0, baseCh0), ...timingRows(1, 'INT0', fwCh1, baseCh1)];
 
   const spanS = ctx.quick ? 0.1 : 2;
-  const steps = ctx.quick ? 1 : 6;
+  const steps = ctx.quick ? 1 : 8;
   ctx.progress(`max sustained edge rate with zero loss, ${spanS} s square wave on ch 0, ${steps} bisection steps each`);
   const fwMax = await maxZeroLossRate(ctx, 'firmware', spanS, undefined, steps);
   const baseMax = await maxZeroLossRate(ctx, 'baseline', spanS, elf, steps);
