@@ -6,13 +6,21 @@ export const SWINGS_CSV_HEADER = 'index,t_s,transit_s,half_period_s,period_s,amp
 
 const num = (v: number | null, digits: number): string => (v === null ? '' : v.toFixed(digits));
 
-/** Formats the swing rows as CSV text with a header and a final newline. */
-export function swingsCsv(rows: readonly SwingRow[]): string {
-  const out: string[] = [SWINGS_CSV_HEADER];
-  for (const r of rows) {
-    out.push(
-      `${r.index},${r.t_s.toFixed(7)},${r.transit_s.toFixed(9)},${num(r.half_period_s, 9)},${num(r.period_s, 9)},${num(r.amplitude_deg, 5)},${num(r.period0_s, 9)},${r.flags.join(' ')}`,
-    );
-  }
-  return `${out.join('\n')}\n`;
+/** One CSV line of a swing row (no newline). */
+function csvLine(r: SwingRow): string {
+  return `${r.index},${r.t_s.toFixed(7)},${r.transit_s.toFixed(9)},${num(r.half_period_s, 9)},${num(r.period_s, 9)},${num(r.amplitude_deg, 5)},${num(r.period0_s, 9)},${r.flags.join(' ')}`;
 }
+
+/** The CSV in chunks of about `linesPerChunk` lines (header first, every line ending in a newline), for streaming. */
+export function* swingsCsvChunks(rows: readonly SwingRow[], linesPerChunk = 2000): Generator<string> {
+  let chunk = `${SWINGS_CSV_HEADER}\n`;
+  for (let i = 0; i < rows.length; i++) {
+    chunk += `${csvLine(rows[i]!)}\n`;
+    if ((i + 1) % linesPerChunk === 0) {
+      yield chunk;
+      chunk = '';
+    }
+  }
+  if (chunk) yield chunk;
+}
+

@@ -1,11 +1,11 @@
 // `halfswing analyze`: a journal → summary, JSON, per-swing CSV and HTML report; all outputs or none are written.
 import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { readFile, rename, rm, writeFile } from 'node:fs/promises';
+import { open, readFile, rename, rm } from 'node:fs/promises';
 import { basename, resolve } from 'node:path';
 import { parseRig, type Rig } from '../../../protocol/rig.ts';
 import { formatSummary } from '../../analysis/format-summary.ts';
-import { swingsCsv } from '../../analysis/swings-csv.ts';
+import { swingsCsvChunks } from '../../analysis/swings-csv.ts';
 import { analyzeJournalFile } from '../../pipeline/analyze-entries.ts';
 import type { ClockOption } from '../../pipeline/clock-choice.ts';
 import { renderReport } from '../../report/index.ts';
@@ -39,12 +39,19 @@ async function sha256(path: string): Promise<string> {
   return h.digest('hex');
 }
 
-/** Writes all files through temporary names, then renames them; on any failure none is left behind. */
-async function writeAll(files: readonly { path: string; text: string }[]): Promise<void> {
+/** Writes all files (each as text chunks) through temporary names, then renames them; on any failure none is left. */
+async function writeAll(files: readonly { path: string; chunks: Iterable<string> }[]): Promise<void> {
   const tag = `${process.pid}-${randomBytes(4).toString('hex')}`;
   const temps = files.map((f) => ({ ...f, tmp: `${f.path}.tmp-${tag}` }));
   try {
-    for (const f of temps) await writeFile(f.tmp, f.text, { flag: 'wx' });
+    for (const f of temps) {
+      const fh = await open(f.tmp, 'wx');
+      try {
+        for (const c of f.chunks) await fh.write(c);
+      } finally {
+        await fh.close();
+      }
+    }
     for (const f of temps) await rename(f.tmp, f.path);
   } catch (e) {
     await Promise.all(temps.map((f) => rm(f.tmp, { force: true })));
@@ -75,15 +82,15 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const rig = rigPath !== undefined ? await loadRig(rigPath, io.cwd) : undefined;
     const csvPath = optString(args, 'csv');
     const reportPath = optString(args, 'report');
-    const rows = csvPath !== undefined || reportPath !== undefined;
+    const rows = csvPath !== undefined;
     const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows });
     if (result.passes + result.counts.rejected_passes + (result.counts.unsequenced_passes ?? 0) === 0)
       throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.channel ?? 0}, and did the bob swing?)`);
-    const files: { path: string; text: string }[] = [];
-    if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), text: swingsCsv(result.swings) });
+    const files: { path: string; chunks: Iterable<string> }[] = [];
+    if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), chunks: swingsCsvChunks(result.swings) });
     if (reportPath !== undefined) {
       const meta = { journalName: basename(journal), journalSha256: await sha256(journal), rig: pipeline.rig(), csvName: csvPath !== undefined ? basename(csvPath) : null };
-      files.push({ path: resolve(io.cwd, reportPath), text: renderReport(result, meta) });
+      files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, meta)] });
     }
     await writeAll(files);
     if (args.values.json === true) {
