@@ -70,6 +70,15 @@ describe('halfswing analyze', () => {
     expect(bad.err.trim().split('\n')).toHaveLength(1);
   });
 
+  it('an output that cannot be written fails in one line and leaves neither output nor temporary files', async () => {
+    const before = readdirSync(dir).sort();
+    const r = await cli(['analyze', 'run.journal', '--csv', 'good.csv', '--report', 'no-such-dir/x.html']);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/cannot write/);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(readdirSync(dir).sort()).toEqual(before);
+  });
+
   it.each([
     ['a missing file', ['analyze', 'nope.journal'], /no such journal/],
     ['a file of another format', ['analyze', 'other.txt'], /not a halfswing journal/],
