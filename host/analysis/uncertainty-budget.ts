@@ -7,6 +7,3 @@ export function combineBudget(lines: readonly BudgetLine[]): number {
   for (const l of lines) if (Number.isFinite(l.u_rel_g)) s += l.u_rel_g * l.u_rel_g;
   return Math.sqrt(s);
 }
-
-/** Coverage factor for an expanded uncertainty of about 95 % (normal distribution). */
-export const COVERAGE_K = 2;

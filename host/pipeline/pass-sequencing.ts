@@ -8,9 +8,6 @@
 // numbers one way, odd the other). When several candidates fall in the same beat
 // window the one nearest the predicted time (and transit) wins. A longer gap, or a new boot, starts a new segment.
 
-/** Why a pass was not used. */
-export type PassRejection = 'transit' | 'timing';
-
 /** Result of sequencing, parallel to the input passes. */
 export interface PassSequence {
   /** 0 valid, 1 rejected for transit, 2 rejected for timing, 3 unsequenced (too few passes to start a beat, or a swing that no longer clears the beam). */
