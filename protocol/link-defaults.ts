@@ -33,16 +33,36 @@ export const EMULATOR_CHANNEL_LATENCY_TICKS: readonly [number, number] = [0, 5];
 /**
  * Worst extra ch1 latency, measured in the emulator: an INT0 edge that arrives just after a ch0 capture
  * waits for the capture ISR to finish (the longest ISR). Typical extra latency is 0; this bound is the
- * jitter to allow when comparing ch1 with ch0 edge by edge (measured 167; 170 ticks = 10.6 µs at 16 MHz).
+ * jitter to allow when comparing ch1 with ch0 edge by edge (measured 196 since the capture vector also
+ * samples the pin and the counter after its flip; 200 ticks = 12.5 µs at 16 MHz).
  */
-export const CH1_MAX_EXTRA_LATENCY_TICKS = 170;
+export const CH1_MAX_EXTRA_LATENCY_TICKS = 200;
 
 /**
- * Shortest ch0 pulse whose two edges both come back, measured in the emulator (26 cycles = 1.6 µs): the
+ * Shortest ch0 pulse whose two edges both come back, measured in the emulator (28 cycles = 1.75 µs): the
  * capture ISR must flip the edge select before the second edge. Shorter pulses lose their second edge,
- * and the firmware counts it in the `T` record's `lost` field.
+ * and the firmware counts it in the `T` record's `lost` field (the vector samples the pin one cycle after
+ * the flip, so the check no longer depends on when the rest of the handler runs).
  */
-export const CH0_MIN_PULSE_TICKS = 26;
+export const CH0_MIN_PULSE_TICKS = 28;
+
+/**
+ * Edges the ch0 firmware cannot account for, by physics: the capture register holds one time, so when two
+ * more edges follow a capture before the vector has read ICR1 and flipped the edge select, the pin is back
+ * at the level the flip expects and nothing shows they happened. Measured in the emulator with the CPU idle:
+ * a rise, fall, rise whose two gaps sum to 30 ticks or more always adds up (returned + lost = applied), and
+ * so do gaps both of 10 or less (the vector sees the re-capture before its flip); 5 + 20 and 20 + 5 do not.
+ * The same hole opens for longer while a capture waits for the vector: a capture that arrives while the
+ * handler of the previous edge runs (up to about 195 ticks after that edge: the ch1 figure above) waits
+ * for it to finish, and two more edges within that wait vanish the same way (uniform trains of 6 edges
+ * need gaps of 180 ticks or more to add up exactly); likewise 34 ticks while the overflow ISR runs.
+ * test/firmware/firmware-edge-accounting.test.ts sweeps the trains outside these holes and requires the
+ * exact sum. On silicon the noise canceler drops pulses under 4 cycles before they reach the capture.
+ * ch1 (INT0) has the same hole: three changes before its vector runs (5 ticks idle, longer behind another
+ * ISR) look like one; changes after the vector's entry are seen from INTF0 and counted.
+ */
+export const CH0_UNCOUNTED_PAIR_TICKS = 30;
+
 
 /** Edges the firmware can buffer while the UART is busy (ring of 64 entries, one kept free). */
 export const EDGE_RING_CAPACITY = 63;

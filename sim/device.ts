@@ -215,7 +215,7 @@ export class DeviceModel {
         this.onHeartbeat(t);
         return;
       case 'check':
-        this.resolveWindow(this.levels[this.o.channel] as 0 | 1);
+        this.resolveWindow();
         return;
       case 'reboot':
         this.onReboot(t, this.o.schedule.reboots[this.ri]!.cause);
@@ -255,12 +255,14 @@ export class DeviceModel {
     const w = this.window;
     // A micro-tick of slack: times that went seconds → ticks must not miss an exact threshold by rounding.
     const since = w ? at - w.at + 1e-6 : Infinity;
-    if (w && since < this.cfg.pin_check_ticks && (w.missed > 0 || since < this.cfg.min_edge_gap_ticks)) {
+    // Missed: an edge before the flip, then the one after it (the flipped select awaits the other direction).
+    // The edge after those two is captured, whether or not the handler has re-armed by then.
+    if (w && since < this.cfg.pin_check_ticks && (w.missed === 1 || (w.missed === 0 && since < this.cfg.min_edge_gap_ticks))) {
       w.missed++;
       this.o.counts.edges_lost_too_close++;
       return;
     }
-    this.resolveWindow(before);
+    this.resolveWindow();
     this.window = { at, checkAt: this.clock!.timeAt(at + this.cfg.pin_check_ticks), level: e.level, missed: 0 };
     if (this.inDrop(e.t)) {
       this.lost++;
@@ -287,16 +289,17 @@ export class DeviceModel {
     this.queue(Math.max(e.t + this.emitLatency(), lastE), body);
   }
 
-  /** The ISR's pin check after a capture with missed edges: one lost if the pin is not at the captured level. */
-  private resolveWindow(levelAtCheck: 0 | 1): void {
+  /**
+   * The firmware's checks after a capture with missed edges count every one: the pin sample right after
+   * the edge-select flip shows the first, and the handler's check (a late capture, or the pin at re-arm)
+   * the second.
+   */
+  private resolveWindow(): void {
     const w = this.window;
     this.window = undefined;
     if (!w || w.missed === 0) return;
-    if (levelAtCheck !== w.level) {
-      this.lost++;
-      this.o.counts.edges_lost_by_device++;
-      this.o.counts.edges_lost_silently += w.missed - 1;
-    } else this.o.counts.edges_lost_silently += w.missed;
+    this.lost += w.missed;
+    this.o.counts.edges_lost_by_device += w.missed;
   }
 
   private setHeartbeat(ms: number, fromTicks: number): void {

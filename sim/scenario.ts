@@ -83,11 +83,12 @@ export interface Scenario {
     readonly buffer_edges: number;
     /**
      * The capture ISR's blind time, measured on the emulated firmware (ch0; test/sim/sim-emulator.test.ts
-     * re-measures it): an edge sooner than `min_edge_gap_ticks` (CH0_MIN_PULSE_TICKS, 26) after a capture is missed; once one is missed, the input is re-armed only when
-     * the ISR checks the pin, `pin_check_ticks` (145) after the capture, and edges before that are missed too.
-     * At the check, a pin that differs from the captured level counts one edge in `lost`; a pin back at it
-     * (an even number missed) counts none: those edges vanish silently, as in the firmware. The firmware's check
-     * comes later when its main loop is busy (seen up to ≥ 159 ticks), so near these times the model is approximate.
+     * re-measures it): an edge sooner than `min_edge_gap_ticks` (CH0_MIN_PULSE_TICKS, 28) after a capture
+     * comes before the edge-select flip and is missed, and so is the edge after it if it comes before the
+     * handler re-arms, `pin_check_ticks` (122) after the capture; the one after those is captured. The
+     * firmware counts both missed edges in `lost` (the vector samples the pin right after its flip; the
+     * handler sees a late capture or the pin at re-arm). Not modelled: a capture that arrives
+     * while the handler runs and is followed by two more edges before its own vector (firmware/README.md).
      */
     readonly min_edge_gap_ticks: number;
     readonly pin_check_ticks: number;
@@ -127,7 +128,7 @@ const DEFAULTS = {
     boot_time_s: 1.6,
     buffer_edges: EDGE_RING_CAPACITY,
     min_edge_gap_ticks: CH0_MIN_PULSE_TICKS,
-    pin_check_ticks: 145,
+    pin_check_ticks: 122,
   },
   host: { start: '2026-01-05T09:00:00.000Z', usb_frame_us: 1000, usb_tail: { kind: 'exponential', mean_us: 150 } },
 } as const;

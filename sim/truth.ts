@@ -26,7 +26,7 @@ export interface FaultCounts {
   edges_lost_in_stall: number;
   /** Edges missed in the capture ISR's blind time (device.min_edge_gap_ticks, pin_check_ticks), counted or not. */
   edges_lost_too_close: number;
-  /** Of those, the edges the device never counted in `lost` (a missed pulse that ended before the pin check). */
+  /** Of those, the edges the device never counted in `lost` (missed just before a reset). */
   edges_lost_silently: number;
   /** Edges while the device was resetting (not counted by any device). */
   edges_missed_while_down: number;

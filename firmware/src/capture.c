@@ -119,13 +119,23 @@ void capture_set_alarm(uint16_t lo) {
   SREG = s;
 }
 
-// ICR1 and TCCR1B as the first instructions of the capture vector found them.
+// ICR1, TCCR1B and TCNT1 as the first instructions of the capture vector found them (the TCNT1 value is
+// read just after the edge-select flip). GPIOR0 carries two more samples from those instructions.
 static volatile uint16_t ch0_icr;
 static volatile uint8_t ch0_sense;
+static volatile uint16_t ch0_flip;
+// GPIOR0 bits set by the vector: another capture (old edge select) came between the ICR1 read and the flip;
+// the pin read high one cycle after the flip.
+#define SEEN_RECAPTURE 0
+#define SEEN_HIGH 1
+// A capture this many ticks or fewer after the TCNT1 read that follows the flip is the edge the pin sample
+// already showed: the capture path lags the pin by the noise canceler's 4 cycles (datasheet), simavr by 0.
+#define FLIP_CAPTURE_WINDOW 4
 
-// The edge-select flip must beat the pulse's second edge, so the vector does it in its first
-// instructions, before the C prologue (none of them touches SREG): read ICR1, save the edge select,
-// write the opposite one, clear the flag the write may raise. Then the ordinary handler below runs.
+// The edge-select flip must beat the pulse's next edge, so the vector does it in its first instructions,
+// before the C prologue (none of them touches SREG): read ICR1, save the edge select, note a capture that
+// came since the vector cleared ICF1, write the opposite select, clear the flag the write may raise, then
+// sample the pin and TCNT1 at once. The ordinary handler below then judges from those samples.
 void __vector_capt_body(void) __attribute__((signal, used));
 ISR(TIMER1_CAPT_vect, ISR_NAKED) {
   __asm__ __volatile__(
@@ -141,21 +151,49 @@ ISR(TIMER1_CAPT_vect, ISR_NAKED) {
       "ldi r24, %[rising]\n\t"
       "rjmp 2f\n"
       "1:\tldi r24, %[falling]\n"
-      "2:\tsts %[tccr], r24\n\t"
+      "2:\tsbic %[tifr], %[icf_bit]\n\t"
+      "sbi %[seen], %[recap]\n\t"
+      "sts %[tccr], r24\n\t"
       "ldi r24, %[icf]\n\t"
       "out %[tifr], r24\n\t"
+      "sbic %[pin], %[pin_bit]\n\t"
+      "sbi %[seen], %[high]\n\t"
+      "lds r24, %[tcnt_lo]\n\t"
+      "sts %[flip], r24\n\t"
+      "lds r24, %[tcnt_hi]\n\t"
+      "sts %[flip]+1, r24\n\t"
       "pop r24\n\t"
       "jmp __vector_capt_body\n\t" ::[icr_lo] "i"(_SFR_MEM_ADDR(ICR1L)),
       [icr_hi] "i"(_SFR_MEM_ADDR(ICR1H)), [icr] "i"(&ch0_icr), [tccr] "i"(_SFR_MEM_ADDR(TCCR1B)),
       [sense] "i"(&ch0_sense), [ices] "I"(ICES1), [rising] "M"(TCCR1B_RISING), [falling] "M"(TCCR1B_FALLING),
-      [icf] "M"(_BV(ICF1)), [tifr] "I"(_SFR_IO_ADDR(TIFR1)));
+      [icf] "M"(_BV(ICF1)), [icf_bit] "I"(ICF1), [tifr] "I"(_SFR_IO_ADDR(TIFR1)), [seen] "I"(_SFR_IO_ADDR(GPIOR0)),
+      [recap] "I"(SEEN_RECAPTURE), [high] "I"(SEEN_HIGH), [pin] "I"(_SFR_IO_ADDR(CH0_PIN)), [pin_bit] "I"(CH0_BIT),
+      [tcnt_lo] "i"(_SFR_MEM_ADDR(TCNT1L)), [tcnt_hi] "i"(_SFR_MEM_ADDR(TCNT1H)), [flip] "i"(&ch0_flip));
 }
 
 void __vector_capt_body(void) {
+  uint8_t seen = GPIOR0;
+  GPIOR0 = 0;
+  uint8_t rose = ch0_sense & _BV(ICES1);
+  // A capture at the old select after ICR1 was read: that edge and the one between (which let the pin
+  // come back) were never timestamped. The pin then sits at this edge's level again.
+  if (seen & _BV(SEEN_RECAPTURE)) lost += 2;
+  // One cycle after the flip the pin must still show the level this edge left. If not, the next edge came
+  // first. Captured after the flip (ICF1, ICR1 at the flip): nothing lost, this ISR runs again for it.
+  // Not captured: lost, and re-arm for the edge after it. Captured much later: that capture is a third
+  // edge, and the one before it was not seen either.
+  if (((seen & _BV(SEEN_HIGH)) != 0) != (rose != 0)) {
+    if (!(TIFR1 & _BV(ICF1))) {
+      lost++;
+      TCCR1B ^= _BV(ICES1);
+      TIFR1 = _BV(ICF1);
+    } else if ((int16_t)(ICR1 - ch0_flip) > FLIP_CAPTURE_WINDOW) {
+      lost += 2;
+    }
+  }
   uint16_t lo = ch0_icr;
-  ring_push((ch0_sense & _BV(ICES1)) ? EDGE_RISING : 0, lo, upper_bits(lo));
-  // Short-pulse check: the pin must still sit at the level this edge left. If it does not, the next edge
-  // came before the flip (or before the flag clear) and was never captured: count it and re-arm.
+  ring_push(rose ? EDGE_RISING : 0, lo, upper_bits(lo));
+  // Live re-check for edges while this handler ran: the pin must match what the edge select awaits.
   for (uint8_t tries = 0; tries < 3; tries++) {
     uint8_t high = CH0_PIN & _BV(CH0_BIT);
     uint8_t awaiting_rise = TCCR1B & _BV(ICES1);
@@ -187,14 +225,20 @@ ISR(INT0_vect, ISR_NAKED) {
 
 void __vector_int0_body(void) {
   uint16_t lo = ch1_stamp;
-  // A change after the vector was entered set INTF0 again, but the level read below already includes it:
-  // clear the flag first, so that change is not handled twice. A change after the clear re-raises it.
-  EIFR = _BV(INTF0);
+  // A change after the vector was entered set INTF0 again, and the level read next includes it: note the
+  // flag, read the level, then clear the flag, so that change is not handled twice. A change in the two
+  // cycles between the level read and the clear is in neither: the level then disagrees at the next change,
+  // which counts both as lost. (Clearing first would let a change there be counted twice.)
+  uint8_t again = EIFR & _BV(INTF0);
   uint8_t level = CH1_PIN & _BV(CH1_BIT);
+  EIFR = _BV(INTF0);
   uint32_t hi = upper_bits(lo);
   if (level != ch1_level) {
     ch1_level = level;
     ring_push(1 | (level ? EDGE_RISING : 0), lo, hi);
+    // The level moved an odd number of times, and more than once if a change came after the entry: the
+    // first is the one stamped, and two more went by unseen.
+    if (again) lost += 2;
   } else {
     // Two changes before this ISR could look: the level is back where it was. Both edges are lost.
     lost += 2;

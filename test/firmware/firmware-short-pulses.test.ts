@@ -8,7 +8,7 @@ import { describeFirmware } from './toolchain-gate.ts';
 
 describeFirmware('short pulses', () => {
   it('ch0: pulses from CH0_MIN_PULSE_TICKS up come back whole; each shorter one counts one lost edge', async () => {
-    const widths = [10, 20, 30, 40, 46, CH0_MIN_PULSE_TICKS, 60, 80, 200];
+    const widths = [10, 20, CH0_MIN_PULSE_TICKS - 1, CH0_MIN_PULSE_TICKS, 30, 40, 46, 60, 80, 200];
     const edges: FirmwareEdge[] = [];
     widths.forEach((w, i) => {
       const rise = Math.round((0.2 + i * 0.01) * EMULATOR_HZ);

@@ -26,20 +26,28 @@ function capture(pulses: readonly (readonly number[])[]) {
   return { edges: e.map((x) => x.edge).join(''), lost, counts };
 }
 
-// Emulated firmware (sim/emulator harness, ch0), this session: r then f after 24 ticks → only r, lost 1; after
-// 26 ticks → both (sim-emulator.test.ts re-measures this on the current firmware); r, f after 20, r after 100 → only r, lost 0; the same with r after 200 → r r, lost 1.
+// Emulated firmware (sim/emulator harness, ch0), this session: r then f after 26 ticks → only r, lost 1; after
+// 28 ticks → both (sim-emulator.test.ts re-measures this on the current firmware); r, f after 20, r after 100 →
+// only r, lost 2 (the re-arm is at 122 ticks); the same with r after 200 → r r, lost 1.
 describe('capture blind time (values measured on the emulated firmware)', () => {
-  it('a pulse of 24 ticks loses its end and counts it; 26 ticks is captured whole', () => {
-    expect(capture([[0, 24]])).toMatchObject({ edges: 'r', lost: 1 });
-    expect(capture([[0, 26]])).toMatchObject({ edges: 'rf', lost: 0 });
+  it('a pulse of 26 ticks loses its end and counts it; 28 ticks is captured whole', () => {
+    expect(capture([[0, 26]])).toMatchObject({ edges: 'r', lost: 1 });
+    expect(capture([[0, 28]])).toMatchObject({ edges: 'rf', lost: 0 });
   });
 
-  it('a missed pulse that is over before the pin check vanishes without a count; one that is not is counted', () => {
-    const silent = capture([[0, 20, 100, 2000]]);
-    expect(silent).toMatchObject({ edges: 'rf', lost: 0 });
-    expect(silent.counts.edges_lost_silently).toBe(2);
+  it('edges missed before the re-arm are counted: one, or two when a missed pulse is over by then', () => {
+    const both = capture([[0, 20, 100, 2000]]);
+    expect(both).toMatchObject({ edges: 'rf', lost: 2 });
+    expect(both.counts.edges_lost_silently).toBe(0);
     const counted = capture([[0, 20, 200, 2000]]);
     expect(counted).toMatchObject({ edges: 'rrf', lost: 1 });
     expect(counted.counts.edges_lost_too_close).toBe(1);
+  });
+
+  it('after two missed edges the next one is captured, even before the re-arm', () => {
+    // r, f at 20 (before the flip), r at 60 (the flipped select awaits a fall), f at 90: captured.
+    const third = capture([[0, 20, 60, 90, 2000, 4000]]);
+    expect(third).toMatchObject({ edges: 'rfrf', lost: 2 });
+    expect(third.counts.edges_lost_silently).toBe(0);
   });
 });
