@@ -51,7 +51,9 @@ export const CH0_MIN_PULSE_TICKS = 28;
  * more edges follow a capture before the vector has read ICR1 and flipped the edge select, the pin is back
  * at the level the flip expects and nothing shows they happened. Measured in the emulator with the CPU idle:
  * a rise, fall, rise whose two gaps sum to 30 ticks or more always adds up (returned + lost = applied), and
- * so do gaps both of 10 or less (the vector sees the re-capture before its flip); 5 + 20 and 20 + 5 do not.
+ * so do gaps both of 10 or less (the vector sees the re-capture before its flip); 5 + 20 and 20 + 5 do not
+ * (a second edge within ~10 ticks, before ICR1 is read, or a third in the 3 ticks between the vector's ICF1
+ * test and its flip, 25–27 ticks after the capture).
  * The same hole opens for longer while a capture waits for the vector: a capture that arrives while the
  * handler of the previous edge runs (up to about 195 ticks after that edge: the ch1 figure above) waits
  * for it to finish, and two more edges within that wait vanish the same way (uniform trains of 6 edges
