@@ -3,6 +3,7 @@ import { journalHeader, parseJournalLine, type JournalEntry } from '../../protoc
 import type { DeviceLink, LinkEvent } from '../link/device-link.ts';
 import type { MicrosClock } from '../link/monotonic-clock.ts';
 import type { RunPipeline } from '../pipeline/run-pipeline.ts';
+import { createResultSource, type ResultSource } from '../pipeline/result-client.ts';
 import type { BlockHeader, JournalWriter } from './journal-writer.ts';
 import { buildStatus, type RecorderStatus } from './recorder-status.ts';
 
@@ -12,6 +13,14 @@ export interface RecorderOptions {
   readonly header: BlockHeader;
   /** Fed every entry written, for the status numbers (passes, period, amplitude, g). */
   readonly pipeline?: RunPipeline;
+  /**
+   * Where g is computed: by default a worker thread fed the same entries (the full analysis takes up to about
+   * a second on a long run, which would delay the link's receive timestamps); its pipeline takes the rig from
+   * the block's `#rig` line. Falls back to `pipeline.result()` in-thread when the worker fails.
+   */
+  readonly createResults?: () => ResultSource;
+  /** One line for the user (the worker fell back to in-thread); default stderr. */
+  readonly warn?: (line: string) => void;
   /** The link's clock (µs since the block's `#start`). */
   readonly now: MicrosClock;
   readonly wallNow?: () => Date;
@@ -47,11 +56,42 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
   let error: Error | undefined;
   let g: { value: number | null; u: number | null } = { value: null, u: null };
   let gDueUs = 0;
-  let gCostUs = 0;
   let rate = { atUs: o.now(), lines: 0, perS: 0 };
   let flooding = false;
+  const warn = o.warn ?? ((line: string) => void process.stderr.write(`halfswing: ${line}\n`));
+  let results: ResultSource | null = o.pipeline ? (o.createResults?.() ?? createResultSource({}, warn)) : null;
+  let inFlight: Promise<void> | null = null;
+  const dropWorker = (e: unknown): void => {
+    if (!results) return;
+    void results.close().catch(() => {});
+    results = null;
+    warn(`g is now computed on the main thread (result worker failed: ${(e as Error).message})`);
+  };
+  /** A fresh g of every entry fed so far: from the worker when there is one, else in-thread. */
+  const refreshG = async (t: number): Promise<void> => {
+    if (!o.pipeline) return;
+    const t0 = performance.now();
+    let r;
+    if (results) {
+      try {
+        r = await results.result({ rows: false });
+      } catch (e) {
+        dropWorker(e);
+      }
+    }
+    const inThread = r === undefined;
+    r ??= o.pipeline.result({ rows: false });
+    g = { value: r.g_m_s2, u: r.g_u_m_s2 };
+    // The full analysis grows with the run: in-thread, redo g at most as often as it stays under a tenth of
+    // the time; in the worker, under about half a core.
+    const gCostUs = (performance.now() - t0) * 1000;
+    gDueUs = t + Math.max(o.statusEveryMs * 1000, (inThread ? 10 : 2) * gCostUs);
+  };
 
-  const feed = (e: JournalEntry): void => o.pipeline?.push(e);
+  const feed = (e: JournalEntry): void => {
+    o.pipeline?.push(e);
+    results?.push(e);
+  };
   const write = (e: LinkEvent): void => {
     if (e.type === 'line') {
       o.writer.data(e.hostUs, e.line);
@@ -86,13 +126,9 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
       }
       flooding = true;
     } else flooding = false;
-    // The full analysis grows with the run: redo g at most as often as it stays under a tenth of the time.
-    if (o.pipeline && started && t >= gDueUs) {
-      const t0 = performance.now();
-      const r = o.pipeline.result();
-      gCostUs = (performance.now() - t0) * 1000;
-      g = { value: r.g_m_s2, u: r.g_u_m_s2 };
-      gDueUs = t + Math.max(o.statusEveryMs * 1000, 10 * gCostUs);
+    // g comes from the last finished analysis; a new one starts when due (it lands in a later status).
+    if (o.pipeline && started && t >= gDueUs && !inFlight && state !== 'stopped') {
+      inFlight = refreshG(t).finally(() => (inFlight = null));
     }
     return buildStatus({
       wall: wallNow(),
@@ -137,6 +173,7 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
     o.signal.removeEventListener('abort', stop);
   }
   if (!started && !error) {
+    await results?.close().catch(() => {});
     // Throws the reason the board never answered; nothing was written.
     await o.link.ready;
   }
@@ -146,6 +183,10 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
     error ??= e as Error;
   }
   state = 'stopped';
+  // The last status carries g of every line written.
+  await inFlight;
+  if (started) await refreshG(o.now());
+  await results?.close().catch(() => {});
   const status = snapshot();
   o.onStatus?.(status);
   return error ? { status, error } : { status };

@@ -4,6 +4,7 @@ import { decodeLine } from '../../protocol/decode.ts';
 import { parseRig, type Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
+import type { ResultSource } from '../pipeline/result-client.ts';
 
 /** The part of the run pipeline (`createRunPipeline`) the store drives. */
 export interface PipelineLike {
@@ -45,6 +46,13 @@ export interface LiveStoreOptions {
   readonly timers: Timers;
   readonly liveHz?: number;
   readonly resultHz?: number;
+  /**
+   * Where the full result is computed off the main thread (a worker fed the same entries). Without it, or
+   * once it fails, the store's own pipeline computes it in-thread.
+   */
+  readonly createResults?: () => ResultSource;
+  /** One line for the user when the worker fails and the store falls back to in-thread results. */
+  readonly warn?: (line: string) => void;
 }
 
 export interface LiveStore {
@@ -56,8 +64,9 @@ export interface LiveStore {
    * hello, sees only what comes next. Health counts keep coming from the whole run.
    */
   restart(): void;
-  /** Publishes at once with a fresh full result (at the end of a replay, so the screen equals `analyze`). */
-  flush(): void;
+  /** Publishes a fresh full result of everything pushed so far (at the end of a replay, so the screen equals `analyze`). */
+  flush(): Promise<void>;
+  /** Stops publishing and ends the result worker. */
   stop(): void;
 }
 
@@ -70,6 +79,8 @@ export const LIVE_HZ = 5;
 const IDLE_PUBLISH_MS = 1000;
 /** The full result is recomputed no sooner than this many times its last cost. */
 const RESULT_COST_FACTOR = 10;
+/** In a worker the cost does not block the screen: only keep the worker under about half a core. */
+const WORKER_COST_FACTOR = 2;
 /** Heartbeat arrivals kept for the spacing estimate. */
 const BEATS_KEPT = 9;
 
@@ -143,10 +154,50 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
     version: 0,
   };
   const listeners = new Set<() => void>();
+  let results: ResultSource | null = opts.createResults?.() ?? null;
+  // Bumped on restart, so an answer about the entries before it is dropped.
+  let generation = 0;
+  let inFlight = false;
+  let stopped = false;
+
+  const dropWorker = (e: unknown): void => {
+    if (!results) return;
+    const r = results;
+    results = null;
+    void r.close().catch(() => {});
+    opts.warn?.(`full analysis now runs on the main thread (result worker failed: ${(e as Error).message})`);
+  };
+  /** Asks the worker for the full result of everything pushed so far; resolves once it is shown. */
+  const request = async (r: ResultSource): Promise<void> => {
+    const gen = generation;
+    const t0 = opts.nowMs();
+    resultStale = false;
+    lastResultMs = t0;
+    const fresh = await r.result();
+    if (gen !== generation || stopped) return;
+    result = fresh;
+    resultGapMs = Math.max(resultMs, WORKER_COST_FACTOR * (opts.nowMs() - t0));
+    publish(false);
+  };
 
   const publish = (forceResult: boolean): void => {
     const now = opts.nowMs();
-    if (forceResult || (resultStale && now - lastResultMs >= resultGapMs)) {
+    if (results) {
+      if (!inFlight && (forceResult || (resultStale && now - lastResultMs >= resultGapMs))) {
+        inFlight = true;
+        const r = results;
+        request(r).then(
+          () => (inFlight = false),
+          (e: unknown) => {
+            inFlight = false;
+            if (!stopped) {
+              dropWorker(e);
+              publish(true);
+            }
+          },
+        );
+      }
+    } else if (forceResult || (resultStale && now - lastResultMs >= resultGapMs)) {
       result = (since ?? whole).result();
       resultStale = false;
       lastResultMs = now;
@@ -195,6 +246,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       }
       whole.push(entry);
       since?.push(entry);
+      results?.push(entry);
       entries++;
       if (entry.kind === 'data' || entry.kind === 'annotation') {
         lastHost = entry.hostUs / 1e6;
@@ -211,16 +263,34 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
     getSnapshot: () => snap,
     restart() {
       since = opts.createPipeline();
-      for (const e of header) since.push(e);
-      if (lastHello) since.push(lastHello);
+      const again = lastHello ? [...header, lastHello] : [...header];
+      for (const e of again) since.push(e);
+      if (results) {
+        generation++;
+        inFlight = false;
+        results.reset();
+        for (const e of again) results.push(e);
+      }
       restartedAt = lastHost;
       firstHost = lastHost;
       publish(true);
     },
-    flush: () => publish(true),
+    async flush() {
+      const r = results;
+      if (!r) return publish(true);
+      try {
+        await request(r);
+      } catch (e) {
+        if (stopped) return;
+        dropWorker(e);
+        publish(true);
+      }
+    },
     stop() {
+      stopped = true;
       opts.timers.clearInterval(timer);
       listeners.clear();
+      void results?.close().catch(() => {});
     },
   };
 }

@@ -3,6 +3,7 @@ import React from 'react';
 import { render } from 'ink';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { createLiveStore, type PipelineLike, type Timers } from './live-store.ts';
+import type { ResultSource } from '../pipeline/result-client.ts';
 import type { Feed, FeedStatus } from './feed.ts';
 import type { KeyEffect } from './keys.ts';
 import { App, estimateNow } from './components/app.tsx';
@@ -14,6 +15,8 @@ type Stream = NodeJS.WritableStream & { isTTY?: boolean; columns?: number; rows?
 export interface RunViewOptions {
   readonly feed: Feed;
   readonly createPipeline: () => PipelineLike;
+  /** The full result off the main thread (see LiveStoreOptions.createResults); in-thread without it. */
+  readonly createResults?: (warn: (line: string) => void) => ResultSource;
   readonly stdout: Stream;
   readonly stderr: Stream;
   readonly stdin: NodeJS.ReadableStream & { isTTY?: boolean };
@@ -40,7 +43,14 @@ async function pump(entries: AsyncIterable<JournalEntry>, push: (e: JournalEntry
 
 /** Runs the view until the user quits, a signal arrives, or (without a terminal) the feed ends; resolves to the exit code. */
 export async function runLiveView(opts: RunViewOptions): Promise<number> {
-  const store = createLiveStore({ createPipeline: opts.createPipeline, nowMs: opts.nowMs, timers: opts.timers });
+  const warn = (line: string): void => void opts.stderr.write(`halfswing: ${line}\n`);
+  const store = createLiveStore({
+    createPipeline: opts.createPipeline,
+    nowMs: opts.nowMs,
+    timers: opts.timers,
+    warn,
+    ...(opts.createResults ? { createResults: () => opts.createResults!(warn) } : {}),
+  });
   const interactive = Boolean(opts.stdout.isTTY && opts.stdin.isTTY);
   let ended: FeedStatus['connection'] | null = null;
   let failure: unknown = null;
@@ -79,15 +89,15 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
   };
 
   void pump(opts.feed.entries, (e) => store.push(e)).then(
-    () => {
+    async () => {
       ended = { kind: 'ended', why: 'end of input' };
-      store.flush();
+      await store.flush();
       if (!interactive) void shutdown(0);
     },
-    (e: unknown) => {
+    async (e: unknown) => {
       failure = e;
       ended = { kind: 'ended', why: (e as Error).message ?? 'failed' };
-      store.flush();
+      await store.flush();
       // A failed source (no hello, a full disk) ends the view with its message rather than a frozen screen.
       void shutdown(1);
     },

@@ -29,7 +29,7 @@ export function fixedStore(snapshot: StoreSnapshot): LiveStore & { restarts: num
     restart() {
       s.restarts++;
     },
-    flush() {},
+    flush: async () => {},
     stop() {},
   };
   return s;

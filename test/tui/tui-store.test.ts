@@ -1,10 +1,11 @@
 // The view's store: the same numbers as `analyze` for the same lines, throttled publishing, and restarting the estimates.
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import { loadScenario, simulateJournal } from '../../sim/index.ts';
 import { parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
-import { createLiveStore, medianSpacing, type PipelineLike } from '../../host/tui/live-store.ts';
+import { createLiveStore, medianSpacing, type LiveStoreOptions, type PipelineLike } from '../../host/tui/live-store.ts';
+import { workerResultSource } from '../../host/pipeline/result-client.ts';
 
 function journal(seconds: number, scenario = 'demo-low-q', seed = 7): { entries: JournalEntry[]; T0: number } {
   const { lines, truth } = simulateJournal(loadScenario(scenario), { seed, durationS: seconds });
@@ -26,21 +27,59 @@ function manualTime() {
   };
 }
 
-describe('live store', () => {
-  it('ends with exactly the analysis `analyze` gives for the same entries', () => {
+/** The full result computed in-thread, and in a worker thread (as the commands run it). */
+const warnings: string[] = [];
+const resultModes: [string, Pick<LiveStoreOptions, 'createResults' | 'warn'>][] = [
+  ['in-thread', {}],
+  // A warning would mean the store fell back to in-thread results: the worker path was not tested.
+  ['worker', { createResults: () => workerResultSource(), warn: (l) => warnings.push(l) }],
+];
+
+describe.each(resultModes)('live store, full result %s', (_mode, results) => {
+  afterEach(() => expect(warnings).toEqual([]));
+  it('ends with exactly the analysis `analyze` gives for the same entries', async () => {
     const { entries, T0 } = journal(600);
     const m = manualTime();
-    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers, ...results });
     entries.forEach((e, i) => {
       store.push(e);
       if (i % 50 === 0) m.advance(100);
     });
-    store.flush();
+    await store.flush();
     const shown = store.getSnapshot().result;
     expect(shown).toEqual(analyzeEntries(entries));
     // And it is the right pendulum: T0 within 1e-4 of the simulator's truth.
     expect(Math.abs(shown.T0_s! / T0 - 1)).toBeLessThan(1e-4);
+    store.stop();
   });
+
+  it('restarts the estimates from now, keeping the run-wide health counts', async () => {
+    const { entries } = journal(600, 'night-run-faults', 3);
+    const m = manualTime();
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers, ...results });
+    const half = Math.floor(entries.length / 2);
+    entries.slice(0, half).forEach((e) => store.push(e));
+    await store.flush();
+    const before = store.getSnapshot();
+    store.restart();
+    entries.slice(half).forEach((e) => store.push(e));
+    await store.flush();
+    const after = store.getSnapshot();
+    const whole = analyzeEntries(entries);
+    expect(after.restartedAt_s).toBeCloseTo(before.lastHost_s!, 9);
+    // Only the second half's passes are in the estimates, and T0 is still the pendulum's.
+    expect(after.result.passes).toBeLessThan(whole.passes * 0.6);
+    expect(after.result.passes).toBeGreaterThan(whole.passes * 0.4);
+    expect(Math.abs(after.result.T0_s! / whole.T0_s! - 1)).toBeLessThan(1e-3);
+    // The device, link and line counts are those of the whole run.
+    expect(after.live.counts.crc_errors).toBe(whole.counts.crc_errors);
+    expect(after.live.counts.bad_lines).toBe(whole.counts.bad_lines);
+    expect(after.live.hello).toEqual(before.live.hello);
+    store.stop();
+  });
+});
+
+describe('live store', () => {
 
   it('publishes at most once per timer tick and recomputes the full result at most twice a second', () => {
     const { entries } = journal(300);
@@ -74,36 +113,12 @@ describe('live store', () => {
     expect(publishes).toBeLessThanOrEqual(6);
   });
 
-  it('restarts the estimates from now, keeping the run-wide health counts', () => {
-    const { entries } = journal(600, 'night-run-faults', 3);
-    const m = manualTime();
-    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
-    const half = Math.floor(entries.length / 2);
-    entries.slice(0, half).forEach((e) => store.push(e));
-    store.flush();
-    const before = store.getSnapshot();
-    store.restart();
-    entries.slice(half).forEach((e) => store.push(e));
-    store.flush();
-    const after = store.getSnapshot();
-    const whole = analyzeEntries(entries);
-    expect(after.restartedAt_s).toBeCloseTo(before.lastHost_s!, 9);
-    // Only the second half's passes are in the estimates, and T0 is still the pendulum's.
-    expect(after.result.passes).toBeLessThan(whole.passes * 0.6);
-    expect(after.result.passes).toBeGreaterThan(whole.passes * 0.4);
-    expect(Math.abs(after.result.T0_s! / whole.T0_s! - 1)).toBeLessThan(1e-3);
-    // The device, link and line counts are those of the whole run.
-    expect(after.live.counts.crc_errors).toBe(whole.counts.crc_errors);
-    expect(after.live.counts.bad_lines).toBe(whole.counts.bad_lines);
-    expect(after.live.hello).toEqual(before.live.hello);
-  });
-
-  it('knows the rig from the journal and the heartbeat spacing from the lines', () => {
+  it('knows the rig from the journal and the heartbeat spacing from the lines', async () => {
     const { entries } = journal(60);
     const m = manualTime();
     const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers });
     entries.forEach((e) => store.push(e));
-    store.flush();
+    await store.flush();
     const s = store.getSnapshot();
     expect(s.rig?.length_m).toBe(loadScenario('demo-low-q').rig.length_m);
     // The device sends one heartbeat per second of device time (protocol/SPEC.md §4.3), on a clock within ±1 %.
