@@ -83,9 +83,9 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
     r ??= o.pipeline.result({ rows: false });
     g = { value: r.g_m_s2, u: r.g_u_m_s2 };
     // The full analysis grows with the run: in-thread, redo g at most as often as it stays under a tenth of
-    // the time; in the worker, under about half a core.
+    // the time; in the worker, under about a quarter of a core.
     const gCostUs = (performance.now() - t0) * 1000;
-    gDueUs = t + Math.max(o.statusEveryMs * 1000, (inThread ? 10 : 2) * gCostUs);
+    gDueUs = t + Math.max(o.statusEveryMs * 1000, (inThread ? 10 : 4) * gCostUs);
   };
 
   const feed = (e: JournalEntry): void => {

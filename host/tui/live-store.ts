@@ -10,10 +10,14 @@ import type { ResultSource } from '../pipeline/result-client.ts';
 export interface PipelineLike {
   push(entry: JournalEntry): void;
   live(nowHostUs?: number): LiveState;
-  result(): AnalysisResult;
+  result(opts?: { rows?: boolean }): AnalysisResult;
 }
 
-/** A published state: cheap live facts at up to `liveHz` (default LIVE_HZ), the full result at up to `resultHz`. */
+/**
+ * A published state: cheap live facts at up to `liveHz` (default LIVE_HZ), the full result at up to `resultHz`.
+ * The result leaves out the swing rows (the view never reads them; copying them from the worker for a 10 h run
+ * stalled the main thread for about half a second); every other field equals `analyze`.
+ */
 export interface StoreSnapshot {
   readonly live: LiveState;
   readonly result: AnalysisResult;
@@ -79,8 +83,8 @@ export const LIVE_HZ = 5;
 const IDLE_PUBLISH_MS = 1000;
 /** The full result is recomputed no sooner than this many times its last cost. */
 const RESULT_COST_FACTOR = 10;
-/** In a worker the cost does not block the screen: only keep the worker under about half a core. */
-const WORKER_COST_FACTOR = 2;
+/** In a worker the cost does not block the screen: keep the worker under about a quarter of a core. */
+const WORKER_COST_FACTOR = 4;
 /** Heartbeat arrivals kept for the spacing estimate. */
 const BEATS_KEPT = 9;
 
@@ -173,7 +177,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
     const t0 = opts.nowMs();
     resultStale = false;
     lastResultMs = t0;
-    const fresh = await r.result();
+    const fresh = await r.result({ rows: false });
     if (gen !== generation || stopped) return;
     result = fresh;
     resultGapMs = Math.max(resultMs, WORKER_COST_FACTOR * (opts.nowMs() - t0));
@@ -198,7 +202,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
         );
       }
     } else if (forceResult || (resultStale && now - lastResultMs >= resultGapMs)) {
-      result = (since ?? whole).result();
+      result = (since ?? whole).result({ rows: false });
       resultStale = false;
       lastResultMs = now;
       // The full analysis grows with the run: keep it under about a tenth of the time.
