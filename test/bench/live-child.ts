@@ -9,6 +9,7 @@ import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';
 import { App } from '../../host/tui/components/app.tsx';
 import type { FeedStatus } from '../../host/tui/feed.ts';
 import { createLiveStore } from '../../host/tui/live-store.ts';
+import { createResultSource } from '../../host/pipeline/result-client.ts';
 import { parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import { loadScenario, simulateJournal } from '../../sim/index.ts';
 
@@ -36,7 +37,8 @@ let push: (e: JournalEntry) => void = () => undefined;
 let stop: () => void = () => undefined;
 
 if (mode === 'view') {
-  const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs, timers: { setInterval, clearInterval: (h) => clearInterval(h as NodeJS.Timeout) } });
+  // The same full-result worker the commands use (host/cli/commands/view-process.ts).
+  const store = createLiveStore({ createPipeline: () => createRunPipeline(), createResults: () => createResultSource(), nowMs, timers: { setInterval, clearInterval: (h) => clearInterval(h as NodeJS.Timeout) } });
   // Each arrival waits for the first snapshot that contains it, then for the first frame after that snapshot.
   let waiting: { i: number; t: number }[] = [];
   store.subscribe(() => {
@@ -72,7 +74,7 @@ if (mode === 'view') {
     maxFps: 10,
   });
   for (let i = 0; i < firstLive; i++) store.push(entries[i]!);
-  store.flush();
+  await store.flush();
   let pushed = firstLive;
   push = (e) => {
     waiting.push({ i: pushed++, t: nowMs() });
