@@ -13,7 +13,7 @@ export interface HelloRecord {
   readonly ch: number;
   /** Random 16-bit id drawn at boot (0..0xffff). */
   readonly boot: number;
-  /** Optional key=value fields beyond the fixed ones (e.g. `rst`), in wire order. */
+  /** Optional key=value fields beyond the fixed ones (e.g. `rc`, the reset cause), in wire order. */
   readonly extra: Readonly<Record<string, string>>;
 }
 
