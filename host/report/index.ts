@@ -37,7 +37,7 @@ function plotsSection(r: AnalysisResult): string {
 function footer(meta: ReportMeta): string {
   const csv = meta.csvName
     ? // A relative, percent-encoded link: a file name can never become a scheme ("javascript:") or a fragment.
-      `The per-swing table is in <a href="./${esc(encodeURIComponent(meta.csvName))}" data-key="csv">${esc(meta.csvName)}</a>.`
+      `The per-swing table is in <a href="./${esc(meta.csvName.split('/').map(encodeURIComponent).join('/'))}" data-key="csv">${esc(meta.csvName)}</a>.`
     : 'Run <code>halfswing analyze JOURNAL --csv FILE</code> for the per-swing table.';
   return `<footer id="footer"><p>${csv}</p><p>Made by halfswing from <code>${esc(meta.journalName)}</code> (SHA-256 ${esc(meta.journalSha256.slice(0, 16))}…). SI units; uncertainties are standard (k = 1) unless marked.</p></footer>`;
 }

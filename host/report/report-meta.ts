@@ -6,5 +6,6 @@ export interface ReportMeta {
   readonly journalName: string;
   readonly journalSha256: string;
   readonly rig: Rig | null;
+  /** The CSV path relative to the report's folder (/ separators), or null without --csv. */
   readonly csvName: string | null;
 }

@@ -1,6 +1,6 @@
 // `halfswing analyze JOURNAL --json --report FILE.html`: the page shows exactly the numbers `--json` prints.
 import { afterAll, describe, expect, it } from 'vitest';
-import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Writable, Readable } from 'node:stream';
@@ -45,6 +45,18 @@ describe('analyze --report', () => {
     expect(html).toContain('<a href="./run-a.csv"');
     expect(existsSync(join(dir, 'run-a.csv'))).toBe(true);
     expect(html).toContain('<code data-key="journal">run-a.journal</code>');
+  });
+
+  it('links the CSV by its path from the report\'s folder when the two are written to different folders', async () => {
+    const j = journal('run-b', 22, 120);
+    mkdirSync(join(dir, 'pages'));
+    mkdirSync(join(dir, 'tables'));
+    const r = await cli(['analyze', j, '--report', 'pages/run-b.html', '--csv', 'tables/run b.csv']);
+    expect(r.code).toBe(0);
+    const html = readFileSync(join(dir, 'pages', 'run-b.html'), 'utf8');
+    const href = /<a href="([^"]+)" data-key="csv"/.exec(html)?.[1];
+    expect(href).toBe('./../tables/run%20b.csv');
+    expect(existsSync(join(dir, 'pages', decodeURIComponent(href!)))).toBe(true);
   });
 
   it('a journal too short for the fits still gets a report, which names what is missing', async () => {

@@ -2,7 +2,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { open, readFile, rename, rm } from 'node:fs/promises';
-import { basename, resolve } from 'node:path';
+import { basename, dirname, relative, resolve, sep } from 'node:path';
 import { parseRig, type Rig } from '../../../protocol/rig.ts';
 import { formatSummary } from '../../analysis/format-summary.ts';
 import { swingsCsvChunks } from '../../analysis/swings-csv.ts';
@@ -89,7 +89,7 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const files: { path: string; chunks: Iterable<string> }[] = [];
     if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), chunks: swingsCsvChunks(result.swings) });
     if (reportPath !== undefined) {
-      const meta = { journalName: basename(journal), journalSha256: await sha256(journal), rig: pipeline.rig(), csvName: csvPath !== undefined ? basename(csvPath) : null };
+      const meta = { journalName: basename(journal), journalSha256: await sha256(journal), rig: pipeline.rig(), csvName: csvPath !== undefined ? csvLinkFrom(resolve(io.cwd, reportPath), resolve(io.cwd, csvPath)) : null };
       files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, meta)] });
     }
     await writeAll(files);
@@ -100,3 +100,8 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     return 0;
   },
 };
+
+/** The CSV's path as seen from the report's folder, with / separators, so the report's link works wherever both were written. */
+function csvLinkFrom(reportFile: string, csvFile: string): string {
+  return relative(dirname(reportFile), csvFile).split(sep).join('/');
+}
