@@ -61,7 +61,8 @@ export class PtyCable {
   async write(text: string | Buffer): Promise<void> {
     const stdin = this.proc.stdin!;
     if (!stdin.writable) return;
-    if (!stdin.write(text)) await Promise.race([once(stdin, 'drain'), once(this.proc, 'exit')]);
+    // once() rejects on 'error': an EPIPE while waiting means socat is gone, i.e. the cable is pulled.
+    if (!stdin.write(text)) await Promise.race([once(stdin, 'drain'), once(this.proc, 'exit')]).catch(() => undefined);
   }
 
   get alive(): boolean {
