@@ -2,7 +2,7 @@
 
 /**
  * Serial rate of the shipped firmware (firmware/src/config.h `BAUD`). Exact at 16 MHz: UBRR0 = 3, U2X0 = 0,
- * 0.0 % error (ATmega328P datasheet, USART "Examples of Baud Rate Setting" table); 115200 would be +2.1 %.
+ * 0.0 % error (ATmega328P datasheet, USART "Examples of Baud Rate Setting" table; docs/references.md#ref-atmega328p); 115200 would be +2.1 %.
  * The emulator test reads the divisor the firmware programs and checks it against this value.
  */
 export const DEFAULT_BAUD = 250_000;

@@ -1,6 +1,6 @@
 // Damping of the swing from amplitude vs time: constant, linear, quadratic and mixed loss laws, and Q(A).
 //
-// Model: dA/dt = −(a0 + a1·A + a2·A²) (P. T. Squire, "Pendulum damping", Am. J. Phys. 54, 984 (1986)): a0 is
+// Model: dA/dt = −(a0 + a1·A + a2·A²) (P. T. Squire, "Pendulum damping", Am. J. Phys. 54, 984 (1986); docs/references.md#ref-damping): a0 is
 // constant (Coulomb, pivot) friction with A falling linearly, a1 viscous loss with A decaying exponentially, a2
 // aerodynamic drag with 1/A rising linearly. The rate is measured in windows of the run (a straight line of A
 // against t per window), then regressed on {1, A, A²} subsets by weighted least squares. The model is chosen by

@@ -1,6 +1,6 @@
 // Complete and incomplete elliptic integrals of the first kind, and the exact large-amplitude period law.
 //
-// K(m) = π / (2·AGM(1, √(1−m))): Gauss's arithmetic-geometric mean, DLMF §19.8(i) and A&S §17.6.
+// K(m) = π / (2·AGM(1, √(1−m))): Gauss's arithmetic-geometric mean, DLMF §19.8(i) and A&S §17.6 (docs/references.md#ref-elliptic-k).
 // F(φ|m) = sin φ · R_F(cos²φ, 1 − m sin²φ, 1): Carlson's symmetric form, DLMF 19.25.5, evaluated by the
 // duplication algorithm of DLMF §19.36(i) (B. C. Carlson, Numer. Algorithms 10, 13 (1995)).
 

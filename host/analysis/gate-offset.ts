@@ -4,7 +4,7 @@
 // angles e± = asin((x0 ± w/2)/L). Passing the bottom at time 0, the bob's mid-transit time is
 // m = [t(e+) + t(e−)]/2 with t(θ) the exact time from the bottom to θ (energy law, t(θ) = F(asin(sin(θ/2)/k)|k²)/ω0,
 // k = sin(θ0/2)), so the half-period on the side the beam leans to is T/2 − 2m and the other T/2 + 2m: their
-// difference D = 4m (reference-values §2b gives T/2 ± 2 asin(δ/θ0)/ω in the harmonic limit). We solve m(x0) = D/4
+// difference D = 4m (docs/references.md#ref-gate-offset gives T/2 ± 2 asin(δ/θ0)/ω in the harmonic limit). We solve m(x0) = D/4
 // for x0 by Newton's method. The simple δ = Ω·D/4 (Ω the bottom angular speed) overestimates |x0| by about
 // φb²/(2θ0²), 3 % at 3° for a 25 mm ball on 1 m, because the midpoint of a transit is not the time at its centre.
 // Pass 0 is the first pass of a segment; the half-period starting at an even pass is spent on the side opposite

@@ -1,7 +1,7 @@
 // Expected local g: WGS-84 normal gravity (Somigliana closed form) with the second-order height formula.
 // Constants and formulas: NIMA TR8350.2, 3rd ed. (2000), ch. 4 (eq. 4-1 closed form, eq. 4-3 height).
 
-/** WGS-84 defining and derived constants (TR8350.2). */
+/** WGS-84 defining and derived constants (TR8350.2; docs/references.md#ref-normal-gravity). */
 export const WGS84 = {
   a: 6378137,
   f: 1 / 298.257223563,

@@ -1,7 +1,8 @@
 // Corrections from the ideal simple pendulum to a real one, as relative period changes ε = ΔT/T0 (δg/g = −2ε).
 // Forms after R. A. Nelson and M. G. Olsson, "The pendulum — Rich physics from a simple system", Am. J. Phys. 54,
 // 112 (1986): finite bob r²/(5L²) (we use the exact √(1 + 2r²/5L²) − 1 from I = M(L² + 2r²/5)), string mass
-// −(1/12)(m_s/M) (we use the exact rigid-rod form below), air buoyancy and added mass, and damping.
+// −(1/12)(m_s/M) (we use the exact rigid-rod form below), air buoyancy and added mass,
+// and damping (docs/references.md#ref-pendulum-corrections).
 import type { Rig } from '../../protocol/rig.ts';
 import type { CorrectionLine } from './result.ts';
 

@@ -1,11 +1,11 @@
 // T0 from a straight line through amplitude-reduced pass times: efficient where a mean of periods is not.
 //
 // A mean of the full periods t_k − t_(k−2) telescopes to its end points, so its error falls as 1/N, while a
-// least-squares line through N pass times reaches σ√(12/(N(N² − 1))) (reference-values §8). The swing is not
+// least-squares line through N pass times reaches σ√(12/(N(N² − 1))) (docs/references.md#ref-timing-statistics). The swing is not
 // isochronous, so each half-period is first divided by the exact law r(θ) = 2K(sin²(θ/2))/π at its amplitude:
 //   τ_k = τ_(k−1) + (t_k − t_(k−1)) / r(θ̄),
 // and τ_k = a_seg + k·T0/2 + x_seg·s_k·μ(θ_k)/r(θ_k) + noise, with s_k = ±1 by pass parity and μ the mid-transit
-// shift per metre of gate offset (the alternation of §2b grows as the amplitude falls). Amplitudes are smoothed
+// shift per metre of gate offset (the alternation of docs/references.md#ref-gate-offset grows as the amplitude falls). Amplitudes are smoothed
 // over ±8 passes first, so their noise barely reaches τ. The slope comes from the Frisch–Waugh–Lovell form
 // (intercept and alternation partialled out per segment). Its uncertainty does not trust the residuals to be
 // independent: τ carries white timing noise σ_w and a random walk σ_u. The walk has a known source, the amplitude

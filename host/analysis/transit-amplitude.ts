@@ -26,7 +26,7 @@ export function transitTime(theta0: number, phiB: number, omega0: number): numbe
   return (2 / omega0) * g(s, 1 - a * a);
 }
 
-/** The harmonic-bottom closed form sin(θ0/2) = φb/(2 sin(ω0τ/2)) (reference-values §2b); NaN when it has no solution. */
+/** The harmonic-bottom closed form sin(θ0/2) = φb/(2 sin(ω0τ/2)) (docs/references.md#ref-transit-amplitude); NaN when it has no solution. */
 export function harmonicAmplitude(transitS: number, phiB: number, omega0: number): number {
   const x = omega0 * transitS * 0.5;
   const k = x < Math.PI / 2 ? phiB / (2 * Math.sin(x)) : NaN;

@@ -9,7 +9,7 @@ export type ClockOption = 'host' | 'pps' | 'nominal' | number | undefined;
 export const MIN_HOST_SPAN_S = 300;
 /**
  * Standard uncertainty assumed for an uncalibrated board clock: a ceramic resonator's ±0.5 % initial tolerance
- * (Murata CERALOCK CSTLS catalogue, via reference-values §7) as a rectangular distribution, 0.5 %/√3.
+ * (Murata CERALOCK CSTLS catalogue, docs/references.md#ref-clock-sources) as a rectangular distribution, 0.5 %/√3.
  */
 export const NOMINAL_CLOCK_U_PPM = 5000 / Math.sqrt(3);
 

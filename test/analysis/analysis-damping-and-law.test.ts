@@ -16,7 +16,7 @@ function series(law: (t: number) => number, seconds: number, noiseRad: number, s
   return { t, a };
 }
 
-describe('damping laws (reference-values §5; Squire, Am. J. Phys. 54, 984 (1986))', () => {
+describe('damping laws (docs/references.md#ref-damping; Squire, Am. J. Phys. 54, 984 (1986))', () => {
   it('linear: per-cycle ratio e^(−π/1000) = 0.996863337 gives Q = 1000 and the linear model', () => {
     const a1 = -Math.log(0.996863337) / T;
     const { t, a } = series((s) => 0.2 * Math.exp(-a1 * s), 4000, 2e-6, 1);

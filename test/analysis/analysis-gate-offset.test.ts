@@ -7,7 +7,7 @@ const DEG = Math.PI / 180;
 const W0 = Math.sqrt(9.80665);
 
 describe('gate offset from the alternation of half-periods', () => {
-  it('reference-values §2b (ODE): L = 1 m, θ0 = 5°, δ = 0.5 mrad gives 1.00734278 s and 1.00002191 s', () => {
+  it('docs/references.md#ref-gate-offset (ODE): L = 1 m, θ0 = 5°, δ = 0.5 mrad gives 1.00734278 s and 1.00002191 s', () => {
     // A thin beam (w → 0): the two half-periods' difference alone gives the offset.
     expect(offsetFromAlternation(1.00734278 - 1.00002191, 5 * DEG, W0, 1e-9, 1)).toBeCloseTo(0.0005, 8);
   });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { airPeriodRel, dampingPeriodRel, effectiveLength, pendulumModel } from '../../host/analysis/pendulum-corrections.ts';
 import { parseRig } from '../../protocol/rig.ts';
 
-// reference-values §3: the example pendulum L = 1.000 m, r = 12.7 mm, 0.5 g string, steel 7850 kg/m³ (M = 67.35 g)
+// docs/references.md#ref-pendulum-corrections: the example pendulum L = 1.000 m, r = 12.7 mm, 0.5 g string, steel 7850 kg/m³ (M = 67.35 g)
 // or brass 8500 kg/m³ (M = 72.93 g), air 1.204 kg/m³, η = 1.81e-5 Pa·s, ω0 = 3.1316 rad/s. Forms after
 // Nelson & Olsson, Am. J. Phys. 54, 112 (1986) (finite bob r²/5L², string −(1/12)(m_s/M)); exact forms derived there.
 const L = 1;
@@ -30,7 +30,7 @@ describe('corrections from the simple pendulum (relative period changes ε = ΔT
     expect(airPeriodRel(1.204, 7850, r, 3.1316, 0.5)).toBeCloseTo(7.669e-5 + 3.834e-5, 7);
   });
 
-  it('damping: ODE zero-crossing spacing ratio 1.0000500038 at Q = 50 (reference-values §3)', () => {
+  it('damping: ODE zero-crossing spacing ratio 1.0000500038 at Q = 50 (docs/references.md#ref-pendulum-corrections)', () => {
     expect(dampingPeriodRel(50)).toBeCloseTo(5.00038e-5, 10);
   });
 

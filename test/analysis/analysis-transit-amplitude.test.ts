@@ -10,7 +10,7 @@ import {
 } from '../../host/analysis/transit-amplitude.ts';
 
 const DEG = Math.PI / 180;
-// reference-values §2b: L = 1 m, d = 2r = 25.4 mm, g = 9.80665 m/s²; Δt_exact by quadrature of
+// docs/references.md#ref-transit-amplitude: L = 1 m, d = 2r = 25.4 mm, g = 9.80665 m/s²; Δt_exact by quadrature of
 // 2∫₀^φb dφ/√(2ω0²(cos φ − cos θ0)) (derived there, checked numerically; no published source).
 const L = 1;
 const W = 0.0254;

@@ -17,8 +17,8 @@ const dir = mkdtempSync(join(tmpdir(), 'halfswing-bench-smoke-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('bench statistics', () => {
-  it('LS slope bound matches the Monte Carlo values of reference-values §8 (σ = 1)', () => {
-    // σ√(12/(N(N²−1))): Bevington & Robinson ch. 6 / Kay vol. I Ex. 3.4 (from memory); values recomputed in §8.
+  it('LS slope bound matches the Monte Carlo values of docs/references.md#ref-timing-statistics (σ = 1)', () => {
+    // σ√(12/(N(N²−1))): Bevington & Robinson ch. 6 / Kay vol. I Ex. 3.4 (from memory); values recomputed there.
     expect(lsSlopeSigma(1, 10)).toBeCloseTo(0.1101, 4);
     expect(lsSlopeSigma(1, 20)).toBeCloseTo(0.03878, 5);
     expect(lsSlopeSigma(1, 100)).toBeCloseTo(0.00346, 5);

@@ -13,7 +13,7 @@ const SWINGS = 10;
 const PRESS_MODELS = [
   { name: 'stopwatch, σ 0.1 s per press', bias: 0, sd: 0.1, source: 'common practice, no source' },
   { name: 'stopwatch, σ 0.2 s per press', bias: 0, sd: 0.2, source: 'common practice, no source' },
-  { name: 'stopwatch, 0.11 ± 0.07 s per press', bias: 0.11, sd: 0.07, source: 'Am. J. Phys. 87(2), 110 (2019): timekeepers, anticipated stimulus' },
+  { name: 'stopwatch, 0.11 ± 0.07 s per press', bias: 0.11, sd: 0.07, source: 'Am. J. Phys. 87(2), 110 (2019): timekeepers, anticipated stimulus' }, // docs/references.md#ref-stopwatch
 ] as const;
 
 interface Swing {

@@ -108,7 +108,7 @@ describe('figures quoted from simulated runs', () => {
   });
 
   it('README: the uncalibrated resonator is off by −2 δf/f, and the calibrated one is not', () => {
-    // δg/g = −2 δf/f (reference values §7): 3000 ppm fast reads g low by 6e-3.
+    // δg/g = −2 δf/f (docs/references.md#ref-clock-sources): 3000 ppm fast reads g low by 6e-3.
     quotes(row('clock, not calibrated'), clubNominal.g_m_s2, 2e-3);
     quotes(row('clock, not calibrated'), clubHost.g_m_s2, 2e-3);
     expect(clubNominal.g_m_s2 / clubHost.g_m_s2 - 1).toBeCloseTo(-2 * 3000e-6, 3);
@@ -122,7 +122,7 @@ describe('figures quoted from simulated runs', () => {
 
   it('gates.md: 50 µs more unblocking delay reads the 25° amplitude low by d/Δt, and the text quotes the runs', () => {
     const rel = slowGate.amplitude_start_deg / brass.amplitude_start_deg - 1;
-    // Derived (reference values §2b, exact transit relation): at 25° on 1 m with a 25.4 mm ball, Δt = 18.74 ms,
+    // Derived (docs/references.md#ref-transit-amplitude, exact transit relation): at 25° on 1 m with a 25.4 mm ball, Δt = 18.74 ms,
     // so 50 µs reads the amplitude low by 2.70e-3 (hardware-notes/gates.md table).
     expect(rel).toBeGreaterThan(-2.70e-3 * 1.1);
     expect(rel).toBeLessThan(-2.70e-3 * 0.9);

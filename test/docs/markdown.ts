@@ -57,11 +57,12 @@ export function relativeLinks(md: string): string[] {
   return out;
 }
 
-/** GitHub's anchor for each heading of a document (repeats get -1, -2, ...). */
+/** GitHub's anchor for each heading of a document (repeats get -1, -2, ...), and each explicit `<a id="…">`. */
 export function headingAnchors(md: string): Set<string> {
   const seen = new Map<string, number>();
   const out = new Set<string>();
   for (const line of prose(md, true).split('\n')) {
+    for (const a of line.matchAll(/<a id="([^"]+)"><\/a>/g)) out.add(a[1]!);
     const m = /^#{1,6}\s+(.*?)\s*#*\s*$/.exec(line);
     if (!m) continue;
     const base = m[1]!

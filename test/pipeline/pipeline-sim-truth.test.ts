@@ -32,7 +32,7 @@ describe('against the simulator truth', () => {
     expect(tInside).toBeGreaterThanOrEqual(34);
   });
 
-  it('T0 from timing alone is efficient and its stated uncertainty covers (least-squares bound, reference-values §8)', () => {
+  it('T0 from timing alone is efficient and its stated uncertainty covers (least-squares bound, docs/references.md#ref-timing-statistics)', () => {
     // Only pass-time jitter: 20 µs per edge, exact clock (given as 0 ppm), w known to 0.1 µm, no delays.
     const sc = scenario({
       name: 'timing-only',

@@ -5,7 +5,7 @@ import { crc8, crc8Bytes } from '../../protocol/crc8.ts';
 
 describe('CRC-8/SMBUS', () => {
   it('gives the catalogue check value 0xF4 for "123456789"', () => {
-    // Source: Catalogue of parametrised CRC algorithms, CRC-8/SMBUS entry (check=0xf4).
+    // Source: Catalogue of parametrised CRC algorithms, CRC-8/SMBUS entry (check=0xf4); docs/references.md#ref-crc.
     expect(crc8('123456789')).toBe(0xf4);
     expect(crc8Bytes(new TextEncoder().encode('123456789'))).toBe(0xf4);
   });

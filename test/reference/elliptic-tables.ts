@@ -4,7 +4,7 @@
 /**
  * K(m), parameter m = k²: Abramowitz & Stegun Table 17.1, as reproduced in the GNU Octave ellipke test block
  * "Test against A&S Table 17.1" for m ≤ 0.5; m = 0.7, 0.75, 0.9, 0.99 from A&S Tables 17.1/17.2 recalled from
- * memory and recomputed with mpmath (the project's reference sheet §1).
+ * memory and recomputed with mpmath (docs/references.md#ref-elliptic-k).
  */
 export const AS_TABLE_17_1_K: readonly (readonly [m: number, K: number])[] = [
   [0, 1.570796326794897],
@@ -22,7 +22,7 @@ export const AS_TABLE_17_1_K: readonly (readonly [m: number, K: number])[] = [
 ];
 
 /**
- * T/T0 = 2K(sin²(θ0/2))/π at release angle θ0 (degrees), 16 s.f.: reference sheet §2 (mpmath, five independent
+ * T/T0 = 2K(sin²(θ0/2))/π at release angle θ0 (degrees), 16 s.f.: docs/references.md#ref-period-ratio (mpmath, five independent
  * methods agreeing to ≥ 14 digits); the 90° value is the A&S / DLMF check value 2K(sin 45°)/π = 1.1803405990.
  */
 export const PERIOD_RATIO_TABLE: readonly (readonly [deg: number, ratio: number])[] = [

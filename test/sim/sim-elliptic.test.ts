@@ -12,7 +12,7 @@ describe('complete elliptic integral K(m)', () => {
     expect(Math.abs(ellipK(m) - k)).toBeLessThan(3e-15);
   });
 
-  it('K(1/2) = Γ(1/4)²/(4√π) (lemniscatic case, from memory; value recomputed in reference sheet §1)', () => {
+  it('K(1/2) = Γ(1/4)²/(4√π) (lemniscatic case, from memory; value recomputed: docs/references.md#ref-elliptic-k)', () => {
     expect(Math.abs(ellipK(0.5) - 1.8540746773013719)).toBeLessThan(3e-15);
   });
 

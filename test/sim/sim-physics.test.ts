@@ -4,7 +4,7 @@ import { bobEvents, type BobEvent } from '../../sim/swing.ts';
 import { truePhysics } from '../../sim/physics.ts';
 import { parseScenario } from '../../sim/scenario.ts';
 
-// L = 1 m, g = 9.80665 m/s², θ0 = 5°: the sheet's ODE check conditions (reference-values.md §5 and §2b).
+// L = 1 m, g = 9.80665 m/s², θ0 = 5°: the ODE check conditions of docs/references.md#ref-damping and docs/references.md#ref-gate-offset.
 const w = Math.sqrt(9.80665);
 const th0 = (5 * Math.PI) / 180;
 
@@ -13,7 +13,7 @@ function events(ode: Partial<{ b1: number; b2: number; b0: number }>, tEnd: numb
 }
 const turns = (ev: BobEvent[]) => ev.filter((e) => e.kind === 'turn').map((e) => Math.abs((e as { theta: number }).theta));
 
-describe('damping laws (reference sheet §5: derived; ODE check values computed there with DOP853)', () => {
+describe('damping laws (docs/references.md#ref-damping: derived; ODE check values)', () => {
   it('linear, Q = 2000: ln(A_n/A_n+1) per cycle = 1.5722e-3 (π/Q = 1.5708e-3)', () => {
     const a = turns(events({ b1: w / 2000 }, 30));
     expect(Math.log(a[0]! / a[2]!)).toBeCloseTo(1.5722e-3, 7);
@@ -35,25 +35,25 @@ describe('damping laws (reference sheet §5: derived; ODE check values computed 
   });
 });
 
-describe('gate offset (reference sheet §2b, derived; ODE check values)', () => {
+describe('gate offset (docs/references.md#ref-gate-offset, derived; ODE check values)', () => {
   it('δ = 0.5 mrad: consecutive crossings alternate 1.00734278 s and 1.00002191 s, and each pair sums to T', () => {
     const d = 0.0005;
     const ev = events({}, 12, [d - 1e-9, d + 1e-9]).filter((e) => e.kind === 'enter').map((e) => e.t);
     expect(ev[1]! - ev[0]!).toBeCloseTo(1.00734278, 7);
     expect(ev[2]! - ev[1]!).toBeCloseTo(1.00002191, 7);
-    // T = T0 · 2K/π at 5° (sheet §2: 1.000476172485987).
+    // T = T0 · 2K/π at 5° (docs/references.md#ref-period-ratio: 1.000476172485987).
     expect(Math.abs(ev[2]! - ev[0]! - ((2 * Math.PI) / w) * 1.000476172485987)).toBeLessThan(1e-12);
   });
 });
 
-describe('physical pendulum model (reference sheet §3: N&O 1986 forms, exact recomputed there)', () => {
+describe('physical pendulum model (docs/references.md#ref-pendulum-corrections: N&O 1986 forms, exact recomputed there)', () => {
   const r = 0.0127;
-  const steelM = 7850 * (4 / 3) * Math.PI * r ** 3; // steel 7850 kg/m³: common practice (sheet §3)
+  const steelM = 7850 * (4 / 3) * Math.PI * r ** 3; // steel 7850 kg/m³: common practice, no source (docs/references.md#ref-pendulum-corrections)
   const phys = (rig: Record<string, unknown>, k = 0.5) =>
     truePhysics(parseScenario({ rig: { length_m: 1, flag_width_m: 0.0254, ...rig }, duration_s: 10, physics: { g_m_s2: 9.80665, release_deg: 5, added_mass_k: k } }));
   const point = phys({});
 
-  it('point mass: T0 = 2π√(L/g) = 2.00640929259 s (sheet §2)', () => {
+  it('point mass: T0 = 2π√(L/g) = 2.00640929259 s (docs/references.md#ref-period-ratio)', () => {
     expect(point.T0_s).toBeCloseTo(2.00640929259, 10);
   });
   it('sphere r = 12.7 mm: ε = √(1 + 2r²/5L²) − 1 = 3.2257e-5', () => {
@@ -80,7 +80,7 @@ describe('physical pendulum model (reference sheet §3: N&O 1986 forms, exact re
   });
 });
 
-describe('beam transit time through the whole simulator (reference sheet §2b: quadrature of the exact motion)', () => {
+describe('beam transit time through the whole simulator (docs/references.md#ref-transit-amplitude: quadrature of the exact motion)', () => {
   // L = 1 m, d = 25.4 mm beam-blocking width centred on the lowest point, g = 9.80665, no damping.
   const table: [number, number][] = [
     [1, 0.520469497],

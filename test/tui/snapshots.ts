@@ -39,7 +39,7 @@ export function demoStatus(over: Partial<FeedStatus> = {}): FeedStatus {
   return { sourceKind: 'demo', sourceLabel: 'demo-low-q', speed: 5, connection: { kind: 'simulated' }, journal: null, writesJournal: false, ...over };
 }
 
-/** A macrotask: ink attaches its input listener in an effect, and renders after a timer (field notes 2.5). */
+/** A macrotask: ink attaches its input listener in an effect, and renders after a timer (observed while writing these tests). */
 export const tick = (ms = 20): Promise<void> => new Promise((r) => setTimeout(r, ms));
 
 /** Waits until the last frame satisfies `pred` (a few hundred ms at most), then returns it. */

@@ -4,7 +4,7 @@ import { decimalsForU, formatBytes, formatDuration, formatFixed, formatSpeed, fo
 
 describe('formatWithU', () => {
   // Two significant digits on the uncertainty and the value rounded to the same place: common practice
-  // (JCGM 100:2008, GUM §7.2.6, says "at most two significant digits").
+  // (JCGM 100:2008, GUM §7.2.6, says "at most two significant digits"; docs/references.md#ref-uncertainty-rounding).
   it('shows u with two significant digits and the value to match', () => {
     expect(formatWithU(9.812345, 0.00987)).toBe('9.8123 ± 0.0099');
     expect(formatWithU(2.0065231, 0.0000123)).toBe('2.006523 ± 0.000012');
