@@ -1,7 +1,7 @@
 // Decoding of protocol v1 device lines. Never throws: every bad input becomes a typed rejection.
 import { crc8 } from './crc8.ts';
 import type { DecodeResult, DeviceRecord, RejectReason } from './records.ts';
-import { MAX_LINE_BYTES } from './records.ts';
+import { MAX_HUMIDITY, MAX_LINE_BYTES } from './records.ts';
 
 const HEX = /^(0|[1-9a-fA-F][0-9a-fA-F]*)$/;
 const DEC = /^(0|[1-9][0-9]*)$/;
@@ -32,6 +32,17 @@ function need(tokens: readonly string[], i: number, what: string): string {
 function hexField(tokens: readonly string[], i: number, what: string, maxDigits: number): number {
   const v = parseHex(need(tokens, i, what), maxDigits);
   if (v === undefined) throw new FieldError('bad-field', `bad ${what} '${tokens[i]}'`);
+  return v;
+}
+
+const TEMP = /^(0|-?[1-9][0-9]{0,4})$/;
+const PRESS = /^(0|[1-9][0-9]{0,6})$/;
+const HUM = /^(0|[1-9][0-9]{0,5})$/;
+
+function decField(tokens: readonly string[], i: number, what: string, form: RegExp, max = Infinity): number {
+  const s = need(tokens, i, what);
+  const v = Number(s);
+  if (!form.test(s) || v > max) throw new FieldError('bad-field', `bad ${what} '${s}'`);
   return v;
 }
 
@@ -95,6 +106,19 @@ function decodeBody(kind: string, seq: number, t: readonly string[]): DeviceReco
       const levels = hexField(t, 2, 'levels', 2);
       arity(t, 3, 'T');
       return { kind: 'T', seq, ticks, lost, levels };
+    }
+    case 'A': {
+      const ticks = hexField(t, 0, 'ticks', 12);
+      const temp = decField(t, 1, 'temp', TEMP);
+      const press = decField(t, 2, 'press', PRESS);
+      const hum = decField(t, 3, 'hum', HUM, MAX_HUMIDITY);
+      arity(t, 4, 'A');
+      return { kind: 'A', seq, ticks, temp, press, hum };
+    }
+    case 'S': {
+      const state = hexField(t, 0, 'state', 2);
+      arity(t, 1, 'S');
+      return { kind: 'S', seq, state };
     }
     case 'R': {
       const status = need(t, 0, 'status');

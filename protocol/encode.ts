@@ -26,6 +26,10 @@ function body(r: DeviceRecord): string {
       return `E ${seq} ${r.ch} ${r.edge} ${hex(r.ticks)}`;
     case 'T':
       return `T ${seq} ${hex(r.ticks)} ${hex(r.lost)} ${hex(r.levels)}`;
+    case 'A':
+      return `A ${seq} ${hex(r.ticks)} ${r.temp} ${r.press} ${r.hum}`;
+    case 'S':
+      return `S ${seq} ${hex(r.state)}`;
     case 'R': {
       const tail = r.ok ? r.fields.map((f) => ` ${f}`).join('') : ` ${r.reason ?? 'error'}`;
       return `R ${seq} ${r.ok ? 'ok' : 'err'} ${r.cmd}${tail}`;

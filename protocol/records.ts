@@ -51,6 +51,39 @@ export interface ReplyRecord {
   readonly fields: readonly string[];
 }
 
+/**
+ * Room conditions read by the board's sensor (`A`), integers exactly as sent: `temp` hundredths of a degree
+ * Celsius, `press` pascals, `hum` thousandths of a percent relative humidity.
+ */
+export interface AirRecord {
+  readonly kind: 'A';
+  readonly seq: number;
+  /** Device ticks when the reading was taken. */
+  readonly ticks: number;
+  readonly temp: number;
+  readonly press: number;
+  readonly hum: number;
+}
+
+/** The room sensor's state (`S`): 0 = reading; otherwise the fault bits of `SENSOR_FAULTS`. */
+export interface SensorRecord {
+  readonly kind: 'S';
+  readonly seq: number;
+  readonly state: number;
+}
+
+/** Bits of the `S` record's state (protocol/SPEC.md, section 4.6). */
+export const SENSOR_FAULTS = {
+  /** No device acknowledged its address: no sensor fitted, or it stopped answering. */
+  absent: 0x1,
+  /** SDA or SCL held low, or the bus never finished a transfer (timed out). */
+  bus: 0x2,
+  /** A device answered but is not a BME280 (chip id not 0x60): it cannot give all three quantities. */
+  chip: 0x4,
+  /** Readings are switched off (`A 0`). */
+  off: 0x8,
+} as const;
+
 /** A well-formed line of a kind this host does not know: counted and skipped. */
 export interface UnknownRecord {
   readonly kind: 'unknown';
@@ -59,7 +92,7 @@ export interface UnknownRecord {
   readonly fields: readonly string[];
 }
 
-export type DeviceRecord = HelloRecord | EdgeRecord | HeartbeatRecord | ReplyRecord | UnknownRecord;
+export type DeviceRecord = HelloRecord | EdgeRecord | HeartbeatRecord | ReplyRecord | AirRecord | SensorRecord | UnknownRecord;
 
 /** Why a line was rejected. */
 export type RejectReason =
@@ -83,5 +116,7 @@ export const PROTOCOL_VERSION = 1;
 export const MAX_LINE_BYTES = 80;
 /** Sequence numbers are 16-bit and wrap ffff → 0. */
 export const SEQ_MODULO = 0x10000;
+/** Largest `hum` of an `A` record: 100 %RH in thousandths. */
+export const MAX_HUMIDITY = 100_000;
 /** Ticks are at most 48 bits (12 hex digits). */
 export const MAX_TICKS = 2 ** 48 - 1;

@@ -22,7 +22,7 @@ export interface SequenceCounts {
 }
 
 function ticksOf(r: DeviceRecord): number | undefined {
-  return r.kind === 'E' || r.kind === 'T' ? r.ticks : undefined;
+  return r.kind === 'E' || r.kind === 'T' || r.kind === 'A' ? r.ticks : undefined;
 }
 
 /**

@@ -35,7 +35,9 @@ const record: fc.Arbitrary<DeviceRecord> = fc.oneof(
     boot: hex(0xffff),
     extra: fc.constantFrom<Record<string, string>>({}, { rc: '8' }, { rc: '3' }),
   }),
-  fc.record({ kind: fc.constant('R' as const), seq: hex(0xffff), ok: fc.constant(true), cmd: fc.constantFrom('P', 'C'), fields: fc.constantFrom(['ms=500'], ['mask=3'], []) }),
+  fc.record({ kind: fc.constant('R' as const), seq: hex(0xffff), ok: fc.constant(true), cmd: fc.constantFrom('P', 'C', 'A'), fields: fc.constantFrom(['ms=500'], ['mask=3'], ['s=10'], []) }),
+  fc.record({ kind: fc.constant('A' as const), seq: hex(0xffff), ticks: fc.maxSafeNat().map((n) => n % 2 ** 48), temp: fc.integer({ min: -99999, max: 99999 }), press: fc.integer({ min: 0, max: 9_999_999 }), hum: fc.integer({ min: 0, max: 100_000 }) }),
+  fc.record({ kind: fc.constant('S' as const), seq: hex(0xffff), state: hex(0xff) }),
   fc.record({ kind: fc.constant('R' as const), seq: hex(0xffff), ok: fc.constant(false), cmd: fc.constantFrom('P', 'C', '?', '-', 'X'), reason: fc.constantFrom('unknown', 'syntax', 'range', 'too-long'), fields: fc.constant([]) }),
 );
 
@@ -73,15 +75,15 @@ describe('the ABNF of SPEC.md', () => {
     for (const v of formal) expect(`${v.line}\n`, `${v.reason}: ${v.line}`).not.toMatch(deviceLine);
   });
 
-  it('has no E, H, R or T line that is also an "other" kind', () => {
+  it('has no A, E, H, R, S or T line that is also an "other" kind', () => {
     const other = compileRule(rules, 'other');
-    for (const k of 'EHRT') expect(`${k} 1 x`).not.toMatch(other);
+    for (const k of 'AEHRST') expect(`${k} 1 x`).not.toMatch(other);
     expect('Q 1 x').toMatch(other);
   });
 
   it('commands: the host lines of section 5 match, malformed ones do not', () => {
-    for (const ok of ['?', 'P 500', 'P 60000', 'P 100', 'C 3', 'C ff', 'C 0']) expect(`${ok}\n`).toMatch(commandLine);
-    for (const bad of ['P 0500', 'P 50', 'P', 'C', 'C 03', 'X', '? 1', 'P  500']) expect(`${bad}\n`).not.toMatch(commandLine);
+    for (const ok of ['?', 'P 500', 'P 60000', 'P 100', 'C 3', 'C ff', 'C 0', 'A 0', 'A 10', 'A 3600']) expect(`${ok}\n`).toMatch(commandLine);
+    for (const bad of ['P 0500', 'P 50', 'P', 'C', 'C 03', 'X', '? 1', 'P  500', 'A', 'A 010', 'A -1', 'A 36000']) expect(`${bad}\n`).not.toMatch(commandLine);
   });
 });
 

@@ -21,6 +21,14 @@ const beat = fc.record({
   lost: fc.integer({ min: 0, max: 0xffffffff }),
   levels: fc.integer({ min: 0, max: 0xff }),
 });
+const air = fc.record({
+  kind: fc.constant('A' as const),
+  seq: fc.integer({ min: 0, max: 0xffff }),
+  ticks: fc.integer({ min: 0, max: 2 ** 48 - 1 }),
+  temp: fc.integer({ min: -99999, max: 99999 }),
+  press: fc.integer({ min: 0, max: 9_999_999 }),
+  hum: fc.integer({ min: 0, max: 100_000 }),
+});
 const printable = fc.integer({ min: 0x20, max: 0x7e }).map((c) => String.fromCharCode(c));
 
 describe('fast E/T decoding gives exactly what protocol/decode.ts gives', () => {
@@ -30,7 +38,7 @@ describe('fast E/T decoding gives exactly what protocol/decode.ts gives', () => 
 
   it('on valid lines and on every kind of single-character damage (property)', () => {
     fc.assert(
-      fc.property(fc.oneof(edge, beat), fc.nat(), printable, fc.nat(), (rec, at, ch, cut) => {
+      fc.property(fc.oneof(edge, beat, air), fc.nat(), printable, fc.nat(), (rec, at, ch, cut) => {
         const line = encodeRecord(rec);
         expect(decodeDeviceLine(line)).toEqual(decodeLine(line));
         const i = at % line.length;
