@@ -1,0 +1,91 @@
+// g from a reversible pendulum timed about both knife edges: Bessel's formula and its uncertainty budget.
+// 4π²/g = (T1² + T2²)/(2l) + (T1² − T2²)/(2(h1 − h2)) is exact for a rigid body at zero amplitude whatever its
+// radius of gyration (Bessel 1826; docs/references.md#ref-reversible-pendulum): l, the knife-edge distance, must be
+// known well; h1 − h2 only roughly, since its term is small when T1 ≈ T2.
+import type { BudgetLine } from './result.ts';
+import { combineBudget } from './uncertainty-budget.ts';
+
+/** One pivot's zero-amplitude period with its uncertainty split by what is shared between the two pivots. */
+export interface PivotPeriod {
+  readonly T_s: number;
+  /** Independent part (the T0 line's statistics), s. */
+  readonly u_stat_s: number;
+  /**
+   * Amplitude reduction (flag width, sensor delays), s: the same flag and gate on both pivots, so the two shifts
+   * are taken together (fully correlated).
+   */
+  readonly u_amp_s: number;
+}
+
+export interface BesselInput {
+  readonly pivot1: PivotPeriod;
+  readonly pivot2: PivotPeriod;
+  /** Knife-edge distance l and its standard uncertainty, m. */
+  readonly l_m: number;
+  readonly l_u_m: number;
+  /** Pivot 1 and pivot 2 to the centre of mass, m. */
+  readonly h1_m: number;
+  readonly h2_m: number;
+  /** Standard uncertainty of h1 − h2, m (2·cm_distance_u_m when both come from one balance point). */
+  readonly dh_u_m: number;
+  /** Relative standard uncertainty of the device clock, common to both pivots. */
+  readonly clock_u_rel: number;
+}
+
+export interface BesselResult {
+  readonly g_m_s2: number;
+  readonly g_u_m_s2: number;
+  /** Each term's relative standard uncertainty of g. */
+  readonly budget: BudgetLine[];
+  /** The two terms of 4π²/g, s²/m: the first needs only l, the second is the small one that needs h1 − h2. */
+  readonly sum_term: number;
+  readonly difference_term: number;
+}
+
+/** 4π²/g by Bessel's formula. */
+export function besselA(T1: number, T2: number, l: number, dh: number): number {
+  return (T1 * T1 + T2 * T2) / (2 * l) + (T1 * T1 - T2 * T2) / (2 * dh);
+}
+
+/** g from Bessel's formula, with a budget line per input (GUM first-order propagation, JCGM 100:2008 §5.1). */
+export function besselG(x: BesselInput): BesselResult | null {
+  const T1 = x.pivot1.T_s;
+  const T2 = x.pivot2.T_s;
+  const l = x.l_m;
+  const dh = x.h1_m - x.h2_m;
+  if (!(T1 > 0 && T2 > 0 && l > 0) || !(Math.abs(dh) > 0)) return null;
+  const A = besselA(T1, T2, l, dh);
+  if (!(A > 0)) return null;
+  const g = (4 * Math.PI * Math.PI) / A;
+  const dA_dl = -(T1 * T1 + T2 * T2) / (2 * l * l);
+  const dA_ddh = -(T1 * T1 - T2 * T2) / (2 * dh * dh);
+  const dA_dT1 = T1 / l + T1 / dh;
+  const dA_dT2 = T2 / l - T2 / dh;
+  const rel = (dA: number): number => Math.abs(dA) / A;
+  const ms = (s: number): string => `${(s * 1e6).toFixed(2)} µs`;
+  const budget: BudgetLine[] = [
+    { name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: `l = ${l} ± ${x.l_u_m} m` },
+    {
+      name: 'centre-of-mass distances h1 − h2',
+      u_rel_g: rel(dA_ddh * x.dh_u_m),
+      note: `h1 − h2 = ${dh.toFixed(4)} ± ${x.dh_u_m} m; T1 − T2 = ${ms(T1 - T2)}`,
+    },
+    { name: 'T1 (pivot 1, statistics)', u_rel_g: rel(dA_dT1 * x.pivot1.u_stat_s), note: `T1 = ${T1.toFixed(7)} s ± ${ms(x.pivot1.u_stat_s)}` },
+    { name: 'T2 (pivot 2, statistics)', u_rel_g: rel(dA_dT2 * x.pivot2.u_stat_s), note: `T2 = ${T2.toFixed(7)} s ± ${ms(x.pivot2.u_stat_s)}` },
+    {
+      name: 'amplitude reduction (both pivots, same flag and gate)',
+      u_rel_g: rel(dA_dT1 * x.pivot1.u_amp_s + dA_dT2 * x.pivot2.u_amp_s),
+      note: `${ms(x.pivot1.u_amp_s)} and ${ms(x.pivot2.u_amp_s)}, taken together`,
+    },
+    // Both periods scale by the same clock factor (1 + ε): A by (1 + 2ε) exactly.
+    { name: 'device clock (common to both pivots)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
+  ];
+  return {
+    g_m_s2: g,
+    g_u_m_s2: g * combineBudget(budget),
+    budget,
+    sum_term: (T1 * T1 + T2 * T2) / (2 * l),
+    difference_term: (T1 * T1 - T2 * T2) / (2 * dh),
+  };
+}
+
