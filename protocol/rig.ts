@@ -10,7 +10,10 @@ export interface Rig {
   readonly flag_width_u_m: number;
   readonly bob_diameter_m?: number;
   readonly blocked_level: 'low' | 'high';
+  /** The pendulum's channel: the only beam's, or the first of `beams`. */
   readonly channel: number;
+  /** One or two horizontal beams through the rest position (replaces `channel`; docs/two-beam-geometry.md). */
+  readonly beams?: readonly Beam[];
   readonly bob_mass_kg?: number;
   readonly string_mass_kg?: number;
   readonly bob_density_kg_m3?: number;
@@ -20,9 +23,15 @@ export interface Rig {
   readonly name?: string;
 }
 
+/** A beam: its device channel and the direction of its normal, ° counterclockwise from above from the reference direction. */
+export interface Beam {
+  readonly channel: 0 | 1;
+  readonly angle_deg: number;
+}
+
 export type RigResult = { readonly ok: true; readonly rig: Rig } | { readonly ok: false; readonly error: string };
 
-type Kind = 'pos' | 'nonneg' | 'lat' | 'elev' | 'level' | 'channel' | 'text';
+type Kind = 'pos' | 'nonneg' | 'lat' | 'elev' | 'level' | 'channel' | 'text' | 'beams';
 const FIELDS: Readonly<Record<keyof Rig, { kind: Kind; required?: true; def?: number | string }>> = {
   length_m: { kind: 'pos', required: true },
   length_u_m: { kind: 'nonneg', def: 0.001 },
@@ -31,6 +40,7 @@ const FIELDS: Readonly<Record<keyof Rig, { kind: Kind; required?: true; def?: nu
   bob_diameter_m: { kind: 'pos' },
   blocked_level: { kind: 'level', def: 'low' },
   channel: { kind: 'channel', def: 0 },
+  beams: { kind: 'beams' },
   bob_mass_kg: { kind: 'pos' },
   string_mass_kg: { kind: 'nonneg' },
   bob_density_kg_m3: { kind: 'pos' },
@@ -57,7 +67,23 @@ function check(key: string, kind: Kind, v: unknown): string | undefined {
       return Number.isInteger(v) && (v as number) >= 0 && (v as number) <= 7 ? undefined : `${key} must be an integer 0 to 7`;
     case 'text':
       return typeof v === 'string' ? undefined : `${key} must be a string`;
+    case 'beams':
+      return checkBeams(key, v);
   }
+}
+
+function checkBeams(key: string, v: unknown): string | undefined {
+  const shape = `${key} must be a list of 1 or 2 objects {"channel": 0 or 1, "angle_deg": number}`;
+  if (!Array.isArray(v) || v.length < 1 || v.length > 2) return shape;
+  for (const b of v as unknown[]) {
+    if (typeof b !== 'object' || b === null || Array.isArray(b)) return shape;
+    const o = b as Record<string, unknown>;
+    if (Object.keys(o).some((k) => k !== 'channel' && k !== 'angle_deg')) return shape;
+    if (o.channel !== 0 && o.channel !== 1) return `${key}: each channel must be 0 or 1`;
+    if (typeof o.angle_deg !== 'number' || !Number.isFinite(o.angle_deg)) return `${key}: each angle_deg must be a number`;
+  }
+  if (v.length === 2 && (v[0] as Beam).channel === (v[1] as Beam).channel) return `${key}: the two beams must be on different channels`;
+  return undefined;
 }
 
 /** Validates a rig description (a parsed JSON value, or JSON text). Unknown keys are errors that name the key. */
@@ -79,6 +105,7 @@ export function parseRig(input: unknown): RigResult {
       return { ok: false, error: `unknown rig key "${k}"${near ? ` (did you mean "${near}"?)` : ''}` };
     }
   }
+  if (obj.beams !== undefined && obj.channel !== undefined) return { ok: false, error: 'rig has both "beams" and "channel": keep "beams" (it replaces "channel")' };
   const out: Record<string, unknown> = {};
   for (const [k, spec] of Object.entries(FIELDS)) {
     const v = obj[k];
@@ -91,6 +118,7 @@ export function parseRig(input: unknown): RigResult {
     if (err) return { ok: false, error: err };
     out[k] = v;
   }
+  if (Array.isArray(out.beams)) out.channel = (out.beams as Beam[])[0]!.channel;
   const rig = out as unknown as Rig;
   if (rig.bob_diameter_m !== undefined && rig.bob_diameter_m / 2 >= rig.length_m)
     return { ok: false, error: 'bob_diameter_m/2 must be smaller than length_m' };
@@ -102,7 +130,8 @@ export function rigJson(rig: Rig): string {
   const o: Record<string, unknown> = {};
   for (const k of Object.keys(FIELDS)) {
     const v = (rig as unknown as Record<string, unknown>)[k];
-    if (v !== undefined) o[k] = v;
+    // `beams` replaces `channel`: writing both would make the line unreadable.
+    if (v !== undefined && !(k === 'channel' && rig.beams)) o[k] = v;
   }
   return JSON.stringify(o);
 }

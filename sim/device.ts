@@ -1,7 +1,7 @@
 // The device model: captures pin edges in ticks, sends H/E/T/R lines like the firmware, reboots, stalls and drops.
 import { encodeRecord } from '../protocol/encode.ts';
 import { SEQ_MODULO, type DeviceRecord } from '../protocol/records.ts';
-import { COMMAND_MAX_BYTES, HEARTBEAT_MAX_MS, HEARTBEAT_MIN_MS } from '../protocol/link-defaults.ts';
+import { CHANNEL_LATENCY_TICKS, COMMAND_MAX_BYTES, HEARTBEAT_MAX_MS, HEARTBEAT_MIN_MS } from '../protocol/link-defaults.ts';
 import { DeviceClock } from './device-clock.ts';
 import type { FaultSchedule, Window } from './fault-schedule.ts';
 import type { PinEdge } from './optics.ts';
@@ -38,6 +38,8 @@ export interface DeviceOptions {
   readonly device: Scenario['device'];
   readonly channel: number;
   readonly initialLevel: 0 | 1;
+  /** Levels of further channels before any edge (a second beam). */
+  readonly otherLevels?: readonly { readonly ch: number; readonly level: 0 | 1 }[];
   readonly schedule: FaultSchedule;
   readonly rng: Rng;
   readonly counts: FaultCounts;
@@ -81,7 +83,7 @@ export class DeviceModel {
   ) {
     this.cfg = o.device;
     this.rng = o.rng;
-    this.levels = Array.from({ length: this.cfg.channels }, (_, i) => (i === o.channel ? o.initialLevel : 1));
+    this.levels = Array.from({ length: this.cfg.channels }, (_, i) => (i === o.channel ? o.initialLevel : (o.otherLevels?.find((l) => l.ch === i)?.level ?? 1)));
     this.mask = (1 << this.cfg.channels) - 1;
     this.readyAt = this.cfg.first_boot_s;
     this.pullEdge();
@@ -242,7 +244,11 @@ export class DeviceModel {
   }
 
   private onEdge(e: PinEdge): void {
-    const ch = this.o.channel;
+    const ch = e.ch ?? this.o.channel;
+    if (ch !== this.o.channel) {
+      this.onOtherEdge(e, ch);
+      return;
+    }
     const before = this.levels[ch] as 0 | 1;
     if (before === e.level) return;
     this.levels[ch] = e.level;
@@ -270,7 +276,33 @@ export class DeviceModel {
       return;
     }
     const ticks = (Math.floor(at) + this.cfg.capture_latency_ticks) % TICKS_MAX;
-    const body: Body = { kind: 'E', ch, edge: e.level ? 'r' : 'f', ticks };
+    this.enqueueEdge(e.t, { kind: 'E', ch, edge: e.level ? 'r' : 'f', ticks });
+  }
+
+  /**
+   * An edge of a second beam's channel. Channel 1's input waits longer than channel 0's (protocol/link-defaults.ts
+   * CHANNEL_LATENCY_TICKS); its blind time is not modelled (two of its edges closer than ~10 µs need bounce).
+   */
+  private onOtherEdge(e: PinEdge, ch: number): void {
+    if (this.levels[ch] === e.level) return;
+    this.levels[ch] = e.level;
+    if (!this.up) {
+      this.o.counts.edges_missed_while_down++;
+      return;
+    }
+    if (!(this.mask & (1 << ch))) return;
+    if (this.inDrop(e.t)) {
+      this.lost++;
+      this.o.counts.edges_lost_by_device++;
+      return;
+    }
+    const extra = ch === 1 ? CHANNEL_LATENCY_TICKS[1] - CHANNEL_LATENCY_TICKS[0] : 0;
+    const ticks = (Math.floor(this.clock!.ticksAt(e.t)) + this.cfg.capture_latency_ticks + extra) % TICKS_MAX;
+    this.enqueueEdge(e.t, { kind: 'E', ch, edge: e.level ? 'r' : 'f', ticks });
+  }
+
+  /** Queues a captured edge: held back during a stall (or lost once the buffer is full), else in capture order. */
+  private enqueueEdge(t: number, body: Body): void {
     if (this.stalledUntil !== undefined) {
       if (this.stallQueued >= this.cfg.buffer_edges) {
         this.lost++;
@@ -286,7 +318,7 @@ export class DeviceModel {
     this.o.counts.edges_captured++;
     // Lines leave in capture order: the main loop drains the edge buffer first in, first out.
     const lastE = this.pending.length ? this.pending[this.pending.length - 1]!.at : -Infinity;
-    this.queue(Math.max(e.t + this.emitLatency(), lastE), body);
+    this.queue(Math.max(t + this.emitLatency(), lastE), body);
   }
 
   /**

@@ -9,6 +9,8 @@ import type { FaultCounts } from './truth.ts';
 export interface PinEdge {
   readonly t: number;
   readonly level: 0 | 1;
+  /** The device channel, when a run has more than one beam (else the rig's channel). */
+  readonly ch?: number;
 }
 
 export interface OpticsSetup {

@@ -99,6 +99,24 @@ export interface Scenario {
     readonly usb_tail: { readonly kind: 'exponential' | 'lognormal'; readonly mean_us: number; readonly sigma?: number };
   };
   readonly faults: Faults;
+  /**
+   * The bob's motion in two horizontal directions (a spherical pendulum, sim/spherical.ts). Present, or a rig
+   * with `beams`, switches the run to that model; absent, the bob swings in the plane of a single beam's normal.
+   */
+  readonly plane?: PlaneSetup;
+}
+
+export interface PlaneSetup {
+  /** Direction of the release, ° counterclockwise from above from the rig's reference direction. */
+  readonly azimuth_deg: number;
+  /** Horizontal speed at release across the release direction, + counterclockwise from above (m/s). */
+  readonly transverse_m_s: number;
+  /** The support's stiff principal axis, ° counterclockwise from the reference direction. */
+  readonly stiff_axis_deg: number;
+  /** ω_stiff/ω_soft − 1 of the support's two small-swing frequencies. */
+  readonly frequency_split: number;
+  /** Turn the room with the Earth at the rig's latitude_deg (ignored without one). */
+  readonly earth_rotation: boolean;
 }
 
 /** A scenario that cannot be used: the message is one line saying what to fix. */
@@ -242,6 +260,7 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
         usb_tail: sub({ kind: oneOf('exponential', 'lognormal'), mean_us: num(0), sigma: num(0) }, ['kind', 'mean_us']),
       }),
       faults: sub(FAULTS),
+      plane: sub({ azimuth_deg: num(-360, 360), transverse_m_s: num(-10, 10), stiff_axis_deg: num(-360, 360), frequency_split: num(-0.5, 0.5), earth_rotation: bool }),
     },
     ['rig', 'duration_s', 'physics'],
   );
@@ -255,6 +274,9 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
   const physics = { ...DEFAULTS.physics, ...o.physics } as Scenario['physics'];
   if (Math.abs(physics.release_deg) <= (Math.asin(Math.min(1, (rig.rig.flag_width_m / 2) / rig.rig.length_m)) * 180) / Math.PI)
     fail('scenario.physics.release_deg', 'is too small for the bob to leave the beam');
+  const plane = o.plane !== undefined || rig.rig.beams !== undefined ? { ...PLANE_DEFAULTS, ...o.plane } : undefined;
+  if (plane && (physics.quadratic_per_rad || physics.coulomb_rad))
+    fail('scenario.physics', 'of a two-direction (spherical) swing takes linear_q only: drop quadratic_per_rad and coulomb_rad');
   return {
     name: typeof o.name === 'string' ? (o.name as unknown as string) : fallbackName,
     description: typeof o.description === 'string' ? (o.description as unknown as string) : '',
@@ -265,8 +287,11 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     device: { ...DEFAULTS.device, ...o.device } as Scenario['device'],
     host: { ...DEFAULTS.host, ...o.host } as Scenario['host'],
     faults: (o.faults ?? {}) as Faults,
+    ...(plane ? { plane } : {}),
   };
 }
+
+const PLANE_DEFAULTS: PlaneSetup = { azimuth_deg: 0, transverse_m_s: 0, stiff_axis_deg: 0, frequency_split: 0, earth_rotation: true };
 
 /** Command-line style overrides of a scenario's main parameters. */
 export interface ScenarioOverrides {
@@ -285,13 +310,20 @@ export interface ScenarioOverrides {
   readonly no_faults?: boolean;
 }
 
+/** The rig's own keys, as a rig file would give them (`beams` replaces `channel`). */
+function rigKeys(rig: Rig): Partial<Rig> {
+  if (!rig.beams) return rig;
+  const { channel: _, ...rest } = rig;
+  return rest;
+}
+
 /** A scenario with overrides applied, validated again. */
 export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
   const def = <T>(v: T | undefined, d: T): T => (v === undefined ? d : v);
   const raw = {
     name: s.name,
     description: s.description,
-    rig: { ...s.rig, length_m: def(o.length_m, s.rig.length_m) },
+    rig: { ...rigKeys(s.rig), length_m: def(o.length_m, s.rig.length_m) },
     duration_s: def(o.duration_s, s.duration_s),
     physics: {
       ...s.physics,
@@ -305,6 +337,7 @@ export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
     device: { ...s.device, ppm: def(o.ppm, s.device.ppm), drift_ppm_per_h: def(o.drift_ppm_per_h, s.device.drift_ppm_per_h) },
     host: { ...s.host, start: def(o.start, s.host.start) },
     faults: o.no_faults ? {} : s.faults,
+    ...(s.plane ? { plane: s.plane } : {}),
   };
   return parseScenario(JSON.parse(JSON.stringify(raw)), s.name);
 }

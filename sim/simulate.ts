@@ -6,6 +6,7 @@ import { drawFaultSchedule, type FaultSchedule } from './fault-schedule.ts';
 import { linkEntries, type SimEntry } from './link.ts';
 import { initialLevel, pinEdges, type OpticsSetup, type PinEdge } from './optics.ts';
 import { swingSetup, truePhysics } from './physics.ts';
+import { beamsBlockedAtStart, emptyPlaneTruth, otherBeamLevels, planeEdges, sphericalSetup } from './plane-run.ts';
 import { Rng } from './prng.ts';
 import { applyOverrides, type Scenario, type ScenarioOverrides } from './scenario.ts';
 import { bobEvents, inZone, type BobEvent } from './swing.ts';
@@ -31,6 +32,7 @@ interface Run {
   /** Pin edges on the host clock, after sensor delays, bounce and objects. */
   readonly edges: () => Generator<PinEdge>;
   readonly initialLevel: 0 | 1;
+  readonly otherLevels: { ch: number; level: 0 | 1 }[];
 }
 
 function prepare(base: Scenario, opts: SimOptions): Run {
@@ -38,6 +40,7 @@ function prepare(base: Scenario, opts: SimOptions): Run {
   const tEnd = scenario.duration_s;
   const phys = truePhysics(scenario);
   const setup = swingSetup(phys);
+  const sph = scenario.plane ? sphericalSetup(scenario, phys) : undefined;
   const rng = new Rng(opts.seed);
   const schedule = drawFaultSchedule(scenario.faults, opts.seed, tEnd);
   const counts = emptyCounts();
@@ -69,6 +72,7 @@ function prepare(base: Scenario, opts: SimOptions): Run {
     swings: { stride, t_s: [], theta_rad: [] },
     passes: { stride, enter_s: [], exit_s: [], amplitude_rad: [] },
     release_host_s: t0,
+    ...(sph ? { plane: emptyPlaneTruth(scenario, stride, sph.ode.W) } : {}),
     final: { t_s: 0, amplitude_rad: phys.release_rad, at_rest: false },
     faults: { schedule, counts },
     complete: false,
@@ -100,9 +104,10 @@ function prepare(base: Scenario, opts: SimOptions): Run {
     blockedLevel: scenario.rig.blocked_level === 'low' ? 0 : 1,
     bounce: scenario.faults.bounce,
     objects: schedule.objects,
-    bobStartsBlocked: inZone(setup, setup.theta0),
+    bobStartsBlocked: sph ? beamsBlockedAtStart(sph)[0]! : inZone(setup, setup.theta0),
     t0,
   };
+  const tBob = Math.max(0, tEnd - t0);
   const header = journalHeader({
     start: new Date(scenario.host.start),
     rigJson: rigJson(scenario.rig),
@@ -115,8 +120,12 @@ function prepare(base: Scenario, opts: SimOptions): Run {
     header,
     schedule,
     rng,
-    edges: () => pinEdges(optics, bobEvents(setup, Math.max(0, tEnd - t0)), rng.fork('optics'), counts, onBob),
+    edges: () =>
+      sph
+        ? planeEdges(scenario, sph, optics, rng, counts, truth.plane!, onBob, tBob)
+        : pinEdges(optics, bobEvents(setup, tBob), rng.fork('optics'), counts, onBob),
     initialLevel: initialLevel(optics),
+    otherLevels: sph ? otherBeamLevels(scenario, sph, optics) : [],
   };
 }
 
@@ -157,6 +166,7 @@ function simulateDeviceFrom(run: Run): { device: DeviceModel } {
         device: run.scenario.device,
         channel: run.scenario.rig.channel,
         initialLevel: run.initialLevel,
+        otherLevels: run.otherLevels,
         schedule: run.schedule,
         rng: run.rng.fork('device'),
         counts: run.truth.faults.counts,

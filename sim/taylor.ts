@@ -80,10 +80,7 @@ export class TaylorSeries {
 
   /** θ'' at τ, from the derivative of the velocity series. */
   acc(tau: number): number {
-    const v = this.v;
-    let r = 0;
-    for (let k = TAYLOR_ORDER; k >= 1; k--) r = r * tau + k * v[k]!;
-    return r;
+    return hornerDerivative(this.v, tau);
   }
 
   /**
@@ -91,33 +88,55 @@ export class TaylorSeries {
    * over the bracket: Newton's method kept inside the bracket, bisection when it leaves it.
    */
   root(which: 'theta' | 'vel', target: number, lo0: number, hi0: number): number {
-    const f = which === 'theta' ? (t: number) => this.theta(t) - target : (t: number) => this.vel(t);
-    const df = which === 'theta' ? (t: number) => this.vel(t) : (t: number) => this.acc(t);
-    let lo = lo0;
-    let hi = hi0;
-    let flo = f(lo);
-    const fhi = f(hi);
-    if (fhi === 0) return hi;
-    let x = flo === fhi ? (lo + hi) / 2 : lo + (hi - lo) * (flo / (flo - fhi));
-    for (let i = 0; i < 100; i++) {
-      const fx = f(x);
-      if (fx === 0) return x;
-      if (Math.sign(fx) === Math.sign(flo)) {
-        lo = x;
-        flo = fx;
-      } else hi = x;
-      const d = df(x);
-      let nx = d !== 0 ? x - fx / d : NaN;
-      if (!(nx > lo && nx < hi)) nx = (lo + hi) / 2;
-      if (Math.abs(nx - x) <= 1e-16 * Math.max(1, Math.abs(x)) || hi - lo <= 1e-18) return nx;
-      x = nx;
-    }
-    return x;
+    if (which === 'theta')
+      return bracketedRoot(
+        (t) => this.theta(t) - target,
+        (t) => this.vel(t),
+        lo0,
+        hi0,
+      );
+    return bracketedRoot(
+      (t) => this.vel(t),
+      (t) => this.acc(t),
+      lo0,
+      hi0,
+    );
   }
 }
 
-function horner(a: Float64Array, tau: number): number {
+/** The root in (lo, hi] of f, known to change sign over the bracket: Newton kept inside it, else bisection. */
+export function bracketedRoot(f: (t: number) => number, df: (t: number) => number, lo0: number, hi0: number): number {
+  let lo = lo0;
+  let hi = hi0;
+  let flo = f(lo);
+  const fhi = f(hi);
+  if (fhi === 0) return hi;
+  let x = flo === fhi ? (lo + hi) / 2 : lo + (hi - lo) * (flo / (flo - fhi));
+  for (let i = 0; i < 100; i++) {
+    const fx = f(x);
+    if (fx === 0) return x;
+    if (Math.sign(fx) === Math.sign(flo)) {
+      lo = x;
+      flo = fx;
+    } else hi = x;
+    const d = df(x);
+    let nx = d !== 0 ? x - fx / d : NaN;
+    if (!(nx > lo && nx < hi)) nx = (lo + hi) / 2;
+    if (Math.abs(nx - x) <= 1e-16 * Math.max(1, Math.abs(x)) || hi - lo <= 1e-18) return nx;
+    x = nx;
+  }
+  return x;
+}
+
+export function horner(a: Float64Array, tau: number): number {
   let r = 0;
   for (let k = TAYLOR_ORDER; k >= 0; k--) r = r * tau + a[k]!;
+  return r;
+}
+
+/** The series' derivative at τ. */
+export function hornerDerivative(a: Float64Array, tau: number): number {
+  let r = 0;
+  for (let k = TAYLOR_ORDER; k >= 1; k--) r = r * tau + k * a[k]!;
   return r;
 }

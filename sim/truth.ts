@@ -49,6 +49,24 @@ export interface BootTruth {
   readonly cause: string;
 }
 
+/** The swing plane per pass (runs of the spherical model): every stride-th closest approach to the rest point. */
+export interface PlaneTruth {
+  readonly stride: number;
+  readonly beams: { readonly channel: number; readonly angle_deg: number }[];
+  /** −Ω_E·sin(latitude) in °/h when the room turns with the Earth, else 0 (counterclockwise from above positive). */
+  readonly earth_rate_deg_per_h: number;
+  /** Time since release of the closest approach. */
+  readonly t_s: number[];
+  /** Direction of the horizontal velocity there, ° counterclockwise from above from the reference direction (−180, 180]. */
+  readonly azimuth_deg: number[];
+  /** Distance from the rest point there, + when the bob goes round counterclockwise from above. */
+  readonly minor_axis_m: number[];
+  /** Mean of the polar angles of the farthest points before and after (one shorter when the run ends mid-swing). */
+  readonly amplitude_deg: number[];
+  /** Horizontal speed there. */
+  readonly speed_m_s: number[];
+}
+
 export interface Truth {
   readonly scenario: string;
   readonly seed: number;
@@ -83,6 +101,8 @@ export interface Truth {
   readonly passes: { stride: number; enter_s: number[]; exit_s: number[]; amplitude_rad: number[] };
   /** Host seconds since #start at which the bob was released (true time 0 of the swing). */
   readonly release_host_s: number;
+  /** Present for runs of the spherical model (a scenario with `plane`, or a rig with `beams`). */
+  readonly plane?: PlaneTruth;
   final: { t_s: number; amplitude_rad: number; at_rest: boolean };
   readonly faults: { readonly schedule: FaultSchedule; readonly counts: FaultCounts };
   /** True once the whole run has been generated. */

@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { parseRig } from '../../protocol/index.ts';
+import { parseRig, rigJson } from '../../protocol/index.ts';
 import { applyOverrides, listScenarios, loadScenario, ScenarioError, DEFAULT_SCENARIO, truePhysics } from '../../sim/index.ts';
 import { paceLines } from '../../sim/pace.ts';
 
@@ -13,7 +13,7 @@ describe('bundled scenarios', () => {
     expect(names).toEqual(expect.arrayContaining(['brass-1m-two-hours', 'club-resonator', 'night-run-faults', DEFAULT_SCENARIO]));
     for (const n of names) {
       const s = loadScenario(n);
-      expect(parseRig(s.rig).ok, n).toBe(true);
+      expect(parseRig(rigJson(s.rig)).ok, n).toBe(true);
       expect(s.name).toBe(n);
     }
   });
