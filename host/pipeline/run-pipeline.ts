@@ -25,7 +25,7 @@ export interface PipelineOptions {
   readonly rig?: Rig;
   /** Clock correction: `host`, `pps`, `nominal` or a rate error in ppm; default auto (PPS if present, else host if long enough). */
   readonly clock?: ClockOption;
-  /** Channel of a 1 PPS reference (default 1, ignored when it is the pendulum's channel). */
+  /** Channel of a 1 PPS reference (default 1, ignored when it is one of the rig's beams). */
   readonly ppsChannel?: number;
   /** Blocked intervals shorter than this are glitches (s); default 10 % of the transit of a 90° swing, 20 µs–2 ms. */
   readonly glitchS?: number;
@@ -210,7 +210,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
           const blocks = (rig?.blocked_level ?? 'low') === 'low' ? rec.edge === 'f' : rec.edge === 'r';
           if (blocks) pb.blockStart(boot, ticks);
           else pb.blockEnd(boot, ticks, hostUs);
-        } else if (rec.ch === ppsCh && rec.edge === 'r') {
+        } else if (rec.ch === ppsCh && rec.edge === 'r' && !rig?.beams?.some((b) => b.channel === ppsCh)) {
           pps.boot.push(boot);
           pps.ticks.push(ticks);
         } else c.otherEdges++;
