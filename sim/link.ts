@@ -38,74 +38,110 @@ export function corruptLine(line: string, rng: Rng): string {
   }
 }
 
-/** Yields host-side journal entries in host-time order for the device's lines. */
-export function* linkEntries(lines: () => DeviceLine | undefined, o: LinkOptions): Generator<SimEntry> {
-  const usbRng = o.rng.fork('usb');
-  const wireRng = o.rng.fork('wire');
-  const frame = o.host.usb_frame_us * 1e-6;
-  const framePhase = frame > 0 ? usbRng.uniform() * frame : 0;
-  const tail = o.host.usb_tail;
-  const sigma = tail.sigma ?? 0.5;
-  const logMu = Math.log(Math.max(tail.mean_us, 1e-9)) - (sigma * sigma) / 2;
-  const drawTail = (): number =>
-    (tail.kind === 'exponential' ? usbRng.exponential(tail.mean_us) : Math.exp(logMu + sigma * usbRng.normal())) * 1e-6;
-  const us = (t: number) => Math.round(t * 1e6);
-  let uartFree = 0;
-  let lastHost = 0;
-  let di = 0;
-  let inside = false;
+/**
+ * The link line by line: `open()` first, then `line()` for each device line until it returns undefined
+ * (past the run's end), then `close()`. Lets a source that produces lines asynchronously (the emulated
+ * firmware) share the model's serial timing, USB latency and wire faults.
+ */
+export class LinkModel {
+  private readonly usbRng: Rng;
+  private readonly wireRng: Rng;
+  private readonly frame: number;
+  private readonly framePhase: number;
+  private readonly drawTail: () => number;
+  private uartFree = 0;
+  private lastHost = 0;
+  private di = 0;
+  private inside = false;
 
-  yield { kind: 'annotation', hostUs: 0, word: 'connect', text: `${o.portName} (simulated rig)` };
-  for (;;) {
-    const l = lines();
-    if (!l) break;
-    const sent = Math.max(l.t, uartFree) + ((l.line.length + 1) * 10) / o.baud;
-    uartFree = sent;
+  constructor(private readonly o: LinkOptions) {
+    this.usbRng = o.rng.fork('usb');
+    this.wireRng = o.rng.fork('wire');
+    this.frame = o.host.usb_frame_us * 1e-6;
+    this.framePhase = this.frame > 0 ? this.usbRng.uniform() * this.frame : 0;
+    const tail = o.host.usb_tail;
+    const sigma = tail.sigma ?? 0.5;
+    const logMu = Math.log(Math.max(tail.mean_us, 1e-9)) - (sigma * sigma) / 2;
+    this.drawTail = (): number =>
+      (tail.kind === 'exponential' ? this.usbRng.exponential(tail.mean_us) : Math.exp(logMu + sigma * this.usbRng.normal())) * 1e-6;
+  }
+
+  open(): SimEntry[] {
+    return [{ kind: 'annotation', hostUs: 0, word: 'connect', text: `${this.o.portName} (simulated rig)` }];
+  }
+
+  /** The entries one device line leads to; undefined once the line would reach the host after the run. */
+  line(l: DeviceLine): SimEntry[] | undefined {
+    const o = this.o;
+    const out: SimEntry[] = [];
+    const sent = Math.max(l.t, this.uartFree) + ((l.line.length + 1) * 10) / o.baud;
+    this.uartFree = sent;
     // USB full-speed bulk data reaches the host at the next 1 ms frame, plus the driver's latency.
-    const framed = frame > 0 ? framePhase + Math.ceil((sent - framePhase) / frame) * frame : sent;
-    const host = Math.max(framed + drawTail(), lastHost);
-    if (host > o.tEnd) break;
-    lastHost = host;
-    while (di < o.disconnects.length) {
-      const w = o.disconnects[di]!;
-      if (!inside && w.start <= host) {
-        inside = true;
+    const framed = this.frame > 0 ? this.framePhase + Math.ceil((sent - this.framePhase) / this.frame) * this.frame : sent;
+    const host = Math.max(framed + this.drawTail(), this.lastHost);
+    if (host > o.tEnd) return undefined;
+    this.lastHost = host;
+    while (this.di < o.disconnects.length) {
+      const w = o.disconnects[this.di]!;
+      if (!this.inside && w.start <= host) {
+        this.inside = true;
         o.counts.disconnects++;
-        yield { kind: 'annotation', hostUs: us(w.start), word: 'disconnect', text: 'port lost (simulated)' };
+        out.push({ kind: 'annotation', hostUs: us(w.start), word: 'disconnect', text: 'port lost (simulated)' });
       }
-      if (inside && w.end <= host) {
-        inside = false;
-        di++;
-        yield { kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated)` };
+      if (this.inside && w.end <= host) {
+        this.inside = false;
+        this.di++;
+        out.push({ kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated)` });
         continue;
       }
       break;
     }
-    if (inside) {
+    if (this.inside) {
       o.counts.lines_in_disconnect++;
-      continue;
+      return out;
     }
-    if (o.faults.lost_lines && wireRng.chance(o.faults.lost_lines.probability)) {
+    if (o.faults.lost_lines && this.wireRng.chance(o.faults.lost_lines.probability)) {
       o.counts.lines_lost++;
-      continue;
+      return out;
     }
     let line = l.line;
-    if (o.faults.corrupt && wireRng.chance(o.faults.corrupt.probability)) {
-      line = corruptLine(line, wireRng);
+    if (o.faults.corrupt && this.wireRng.chance(o.faults.corrupt.probability)) {
+      line = corruptLine(line, this.wireRng);
       o.counts.lines_corrupted++;
     }
     o.counts.lines_journaled++;
-    yield { kind: 'data', hostUs: us(host), line };
+    out.push({ kind: 'data', hostUs: us(host), line });
+    return out;
   }
-  // Disconnect windows after the last line, within the run.
-  for (; di < o.disconnects.length; di++) {
-    const w = o.disconnects[di]!;
-    if (!inside) {
-      if (w.start > o.tEnd) break;
-      o.counts.disconnects++;
-      yield { kind: 'annotation', hostUs: us(w.start), word: 'disconnect', text: 'port lost (simulated)' };
+
+  /** Disconnect windows after the last line, within the run. */
+  close(): SimEntry[] {
+    const o = this.o;
+    const out: SimEntry[] = [];
+    for (; this.di < o.disconnects.length; this.di++) {
+      const w = o.disconnects[this.di]!;
+      if (!this.inside) {
+        if (w.start > o.tEnd) break;
+        o.counts.disconnects++;
+        out.push({ kind: 'annotation', hostUs: us(w.start), word: 'disconnect', text: 'port lost (simulated)' });
+      }
+      this.inside = false;
+      if (w.end <= o.tEnd) out.push({ kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated)` });
     }
-    inside = false;
-    if (w.end <= o.tEnd) yield { kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated)` };
+    return out;
   }
+}
+
+const us = (t: number): number => Math.round(t * 1e6);
+
+/** Yields host-side journal entries in host-time order for the device's lines. */
+export function* linkEntries(lines: () => DeviceLine | undefined, o: LinkOptions): Generator<SimEntry> {
+  const link = new LinkModel(o);
+  yield* link.open();
+  for (let l = lines(); l; l = lines()) {
+    const entries = link.line(l);
+    if (!entries) break;
+    yield* entries;
+  }
+  yield* link.close();
 }

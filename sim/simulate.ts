@@ -3,7 +3,7 @@ import { journalAnnotation, journalData, journalHeader } from '../protocol/journ
 import { rigJson } from '../protocol/rig.ts';
 import { DeviceModel } from './device.ts';
 import { drawFaultSchedule, type FaultSchedule } from './fault-schedule.ts';
-import { linkEntries, type SimEntry } from './link.ts';
+import { linkEntries, type LinkOptions, type SimEntry } from './link.ts';
 import { initialLevel, pinEdges, type OpticsSetup, type PinEdge } from './optics.ts';
 import { swingSetup, truePhysics } from './physics.ts';
 import { beamsBlockedAtStart, emptyPlaneTruth, otherBeamLevels, planeEdges, sphericalSetup } from './plane-run.ts';
@@ -22,8 +22,8 @@ export interface SimOptions extends ScenarioOverrides {
 /** Most entries kept per truth series; longer runs keep every stride-th. */
 const TRUTH_SERIES_MAX = 100_000;
 
-/** The parts of a run shared by every outlet. */
-interface Run {
+/** The parts of a run shared by every outlet (and by the emulated firmware, which replaces the device model). */
+export interface Run {
   readonly scenario: Scenario;
   readonly truth: Truth;
   readonly header: string[];
@@ -35,7 +35,7 @@ interface Run {
   readonly otherLevels: { ch: number; level: 0 | 1 }[];
 }
 
-function prepare(base: Scenario, opts: SimOptions): Run {
+export function prepareRun(base: Scenario, opts: SimOptions): Run {
   const scenario = applyOverrides(base, { ...opts, duration_s: opts.durationS ?? opts.duration_s });
   const tEnd = scenario.duration_s;
   const phys = truePhysics(scenario);
@@ -129,9 +129,24 @@ function prepare(base: Scenario, opts: SimOptions): Run {
   };
 }
 
+/** The link from the device to the journal: serial timing, USB, the scenario's wire faults and unplugs. */
+export function linkOptions(run: Run): LinkOptions {
+  const { scenario, truth } = run;
+  return {
+    baud: scenario.device.baud,
+    host: scenario.host,
+    faults: scenario.faults,
+    disconnects: run.schedule.disconnects,
+    rng: run.rng.fork('link'),
+    counts: truth.faults.counts,
+    tEnd: scenario.duration_s,
+    portName: 'sim0',
+  };
+}
+
 /** The device model of a run, for outlets that drive it themselves (the pty). */
 export function simulateDevice(base: Scenario, opts: SimOptions): { device: DeviceModel; truth: Truth; scenario: Scenario } {
-  const run = prepare(base, opts);
+  const run = prepareRun(base, opts);
   return { device: simulateDeviceFrom(run).device, truth: run.truth, scenario: run.scenario };
 }
 
@@ -140,20 +155,11 @@ export function simulateDevice(base: Scenario, opts: SimOptions): { device: Devi
  * and series are complete (truth.complete) once `entries` has been iterated to its end.
  */
 export function simulateEntries(base: Scenario, opts: SimOptions): { header: string[]; entries: Iterable<SimEntry>; truth: Truth } {
-  const run = prepare(base, opts);
+  const run = prepareRun(base, opts);
   const { scenario, truth } = run;
   function* gen(): Generator<SimEntry> {
     const { device } = simulateDeviceFrom(run);
-    yield* linkEntries(() => device.pop(), {
-      baud: scenario.device.baud,
-      host: scenario.host,
-      faults: scenario.faults,
-      disconnects: run.schedule.disconnects,
-      rng: run.rng.fork('link'),
-      counts: truth.faults.counts,
-      tEnd: scenario.duration_s,
-      portName: 'sim0',
-    });
+    yield* linkEntries(() => device.pop(), linkOptions(run));
     truth.complete = true;
   }
   return { header: run.header, entries: gen(), truth };
@@ -190,6 +196,6 @@ export function simulateJournal(base: Scenario, opts: SimOptions): { lines: Iter
 
 /** Pin edges of a run on the host clock (for the firmware schedule), with the truth of its physics. */
 export function simulatePinEdges(base: Scenario, opts: SimOptions): { edges: Iterable<PinEdge>; initialLevel: 0 | 1; truth: Truth; scenario: Scenario } {
-  const run = prepare(base, opts);
+  const run = prepareRun(base, opts);
   return { edges: run.edges(), initialLevel: run.initialLevel, truth: run.truth, scenario: run.scenario };
 }

@@ -107,6 +107,8 @@ export interface Truth {
   readonly faults: { readonly schedule: FaultSchedule; readonly counts: FaultCounts };
   /** True once the whole run has been generated. */
   complete: boolean;
+  /** Absent: the device model (sim/device.ts). 'emulated firmware': the shipped firmware in simavr. */
+  device?: 'emulated firmware';
 }
 
 export function emptyCounts(): FaultCounts {

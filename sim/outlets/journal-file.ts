@@ -22,6 +22,8 @@ export interface JournalFileOptions extends SimOptions {
   readonly speed?: number;
   readonly now?: PaceOptions['now'];
   readonly sleep?: PaceOptions['sleep'];
+  /** The run's journal lines and truth (default: the device model's run, simulateJournal). */
+  readonly source?: (scenario: Scenario, opts: SimOptions) => { lines: Iterable<string> | AsyncIterable<string>; truth: Truth };
 }
 
 async function put(out: WriteStream, text: string): Promise<void> {
@@ -40,7 +42,7 @@ async function writeTruth(path: string, truth: Truth): Promise<void> {
  * only when the run completes.
  */
 export async function writeScenarioJournal(scenario: Scenario, opts: JournalFileOptions): Promise<{ truth: Truth; lines: number }> {
-  const { lines, truth } = simulateJournal(scenario, opts);
+  const { lines, truth } = (opts.source ?? simulateJournal)(scenario, opts);
   if (opts.speed !== undefined && Number.isFinite(opts.speed)) {
     const out = createWriteStream(opts.path, { encoding: 'latin1' });
     let n = 0;
@@ -61,7 +63,7 @@ export async function writeScenarioJournal(scenario: Scenario, opts: JournalFile
   let n = 0;
   try {
     let chunk = '';
-    for (const line of lines) {
+    for await (const line of lines) {
       if (opts.signal?.aborted) throw new Error('aborted');
       chunk += `${line}\n`;
       n++;

@@ -11,6 +11,7 @@ import { Rng } from '../prng.ts';
 import type { Scenario } from '../scenario.ts';
 import { simulateDevice, type SimOptions } from '../simulate.ts';
 import type { Truth } from '../truth.ts';
+import type { DeviceLine, DeviceModel } from '../device.ts';
 
 /** The pty could not be set up (socat missing, links not created). */
 export class PtyError extends Error {
@@ -26,6 +27,8 @@ export interface PtyOptions extends SimOptions {
   /** Called once with the path the host should open. */
   readonly onReady: (hostPath: string) => void;
   readonly now?: () => number;
+  /** Waits about `ms` wall milliseconds (default setTimeout); a command or the signal ends it early. */
+  readonly sleep?: (ms: number) => Promise<void>;
 }
 
 interface PtyPair {
@@ -77,17 +80,46 @@ export async function openPtyPair(): Promise<PtyPair> {
   throw new PtyError('socat did not create the pty links within 5 s');
 }
 
+/** The device behind the pty: the model, or the emulated firmware. */
+export interface PtyDevice {
+  /** A host command line (without LF) arriving at host time t. */
+  command(t: number, text: string): void;
+  /** The lines the device has begun sending by host time t, in order. */
+  linesUntil(t: number): DeviceLine[] | Promise<DeviceLine[]>;
+  /** Host time at which to look again after t; Infinity once the run is over. */
+  nextAt(t: number): number;
+}
+
+/** The device model as a pty device: it knows when its next line is due. */
+function modelDevice(device: DeviceModel): PtyDevice {
+  return {
+    command: (t, text) => device.command(t, text),
+    linesUntil: (t) => {
+      const out: DeviceLine[] = [];
+      while (device.peekTime() <= t) out.push(device.pop()!);
+      return out;
+    },
+    nextAt: () => device.peekTime(),
+  };
+}
+
 /**
  * Runs the scenario's device model in real time (× speed) on a pty until the run ends or the signal aborts.
  * Host commands (`?`, `P`, `C`) are answered like the firmware. Wire faults (lost, corrupted lines) apply;
  * USB latency and disconnects do not (the host's own port supplies those).
  */
 export async function servePty(scenario: Scenario, opts: PtyOptions): Promise<Truth> {
-  const pair = await openPtyPair();
   const { device, truth, scenario: sc } = simulateDevice(scenario, opts);
+  return servePtyDevice(modelDevice(device), sc, truth, opts);
+}
+
+/** Serves any pty device paced to the (injected) clock: × opts.speed, commands answered as they come. */
+export async function servePtyDevice(device: PtyDevice, sc: Scenario, truth: Truth, opts: PtyOptions): Promise<Truth> {
+  const pair = await openPtyPair();
   const port = new SerialPort({ path: pair.simPath, baudRate: 115200 });
   const wireRng = new Rng(opts.seed, 'pty-wire');
   const counts = truth.faults.counts;
+  const sleep = opts.sleep ?? ((ms: number) => new Promise<void>((r) => setTimeout(r, ms)));
   try {
     await new Promise<void>((resolve, reject) => port.once('open', resolve).once('error', reject));
     const now = opts.now ?? (() => performance.now());
@@ -103,25 +135,24 @@ export async function servePty(scenario: Scenario, opts: PtyOptions): Promise<Tr
     opts.onReady(pair.hostPath);
     while (!opts.signal?.aborted) {
       for (const c of commands.splice(0)) device.command(c.t, c.text);
-      const due = device.peekTime();
+      const t = simNow();
+      for (const l of await device.linesUntil(t)) {
+        if (sc.faults.lost_lines && wireRng.chance(sc.faults.lost_lines.probability)) {
+          counts.lines_lost++;
+          continue;
+        }
+        let line = l.line;
+        if (sc.faults.corrupt && wireRng.chance(sc.faults.corrupt.probability)) {
+          line = corruptLine(line, wireRng);
+          counts.lines_corrupted++;
+        }
+        counts.lines_journaled++;
+        if (!port.write(`${line}\n`)) await new Promise((r) => port.once('drain', r));
+      }
+      const due = device.nextAt(t);
       if (due === Infinity) break;
       const waitMs = ((due - simNow()) * 1000) / opts.speed;
-      if (waitMs > 0) {
-        await Promise.race([new Promise<void>((r) => setTimeout(r, Math.min(waitMs, 1000))), new Promise<void>((r) => (wake = r)), aborted]);
-        continue;
-      }
-      const l = device.pop()!;
-      if (sc.faults.lost_lines && wireRng.chance(sc.faults.lost_lines.probability)) {
-        counts.lines_lost++;
-        continue;
-      }
-      let line = l.line;
-      if (sc.faults.corrupt && wireRng.chance(sc.faults.corrupt.probability)) {
-        line = corruptLine(line, wireRng);
-        counts.lines_corrupted++;
-      }
-      counts.lines_journaled++;
-      if (!port.write(`${line}\n`)) await new Promise((r) => port.once('drain', r));
+      if (waitMs > 0) await Promise.race([sleep(Math.min(waitMs, 1000)), new Promise<void>((r) => (wake = r)), aborted]);
     }
     truth.complete = !opts.signal?.aborted;
     return truth;

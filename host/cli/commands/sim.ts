@@ -13,6 +13,7 @@ import {
   truthJson,
   type Scenario,
   type SimOptions,
+  type Truth,
 } from '../../../sim/index.ts';
 import { paceLines } from '../../../sim/pace.ts';
 import { truthPathFor, writeScenarioJournal } from '../../../sim/outlets/journal-file.ts';
@@ -67,17 +68,19 @@ async function write(out: NodeJS.WritableStream, text: string): Promise<boolean>
   }
 }
 
-async function toStdout(scenario: Scenario, o: SimOptions, speed: number, truthFile: string | undefined, io: CommandIo): Promise<number> {
-  const { lines, truth } = simulateJournal(scenario, o);
+type Source = (scenario: Scenario, opts: SimOptions) => { lines: Iterable<string> | AsyncIterable<string>; truth: Truth };
+
+async function toStdout(source: Source, scenario: Scenario, o: SimOptions, speed: number, truthFile: string | undefined, io: CommandIo): Promise<number> {
+  const { lines, truth } = source(scenario, o);
   let closed = false;
   io.stdout.on('error', () => (closed = true));
   const ac = new AbortController();
   const onInt = (): void => ac.abort();
   process.once('SIGINT', onInt);
   try {
-    const source = Number.isFinite(speed) ? paceLines(lines, { speed, signal: ac.signal }) : lines;
+    const paced = Number.isFinite(speed) ? paceLines(lines, { speed, signal: ac.signal }) : lines;
     let chunk = '';
-    for await (const line of source as AsyncIterable<string>) {
+    for await (const line of paced as AsyncIterable<string>) {
       chunk += `${line}\n`;
       if (chunk.length >= 1 << 15 || Number.isFinite(speed)) {
         if (!(await write(io.stdout, chunk)) || closed) return 0;
@@ -96,6 +99,45 @@ async function toStdout(scenario: Scenario, o: SimOptions, speed: number, truthF
   return 0;
 }
 
+/** A status line on stderr while a long emulated run goes (a terminal only), cleared at the end. */
+function statusLine(io: CommandIo): { onProgress: (t: number, tEnd: number) => void; done: () => void } {
+  const start = Date.now();
+  let shown = 0;
+  let wrote = false;
+  const fmt = (s: number): string => (s >= 3600 ? `${(s / 3600).toFixed(2)} h` : s >= 60 ? `${(s / 60).toFixed(1)} min` : `${s.toFixed(0)} s`);
+  return {
+    onProgress: (t, tEnd) => {
+      const now = Date.now();
+      if (!io.stderr.isTTY || now - shown < 500) return;
+      shown = now;
+      wrote = true;
+      const rate = t / Math.max((now - start) / 1000, 1e-3);
+      io.stderr.write(`\rhalfswing sim: firmware at ${fmt(t)} of ${fmt(tEnd)} (${rate.toFixed(0)}× real time)  `);
+    },
+    done: () => {
+      if (wrote) io.stderr.write('\r\x1b[K');
+    },
+  };
+}
+
+/** The scenario through the shipped firmware in simavr instead of the device model. */
+async function firmwareSource(io: CommandIo): Promise<{ source: Source; done: () => void }> {
+  const { firmwareJournal } = await import('../../../sim/emulator/firmware-journal.ts');
+  const status = statusLine(io);
+  return { source: (sc, o) => firmwareJournal(sc, { ...o, onProgress: status.onProgress }), done: status.done };
+}
+
+/** EmulatorUnavailable (toolchain missing, build failed) as one line saying what to do. */
+async function emulatorErrors<T>(work: () => Promise<T>): Promise<T> {
+  const { EmulatorUnavailable } = await import('../../../sim/emulator/firmware-device.ts');
+  try {
+    return await work();
+  } catch (e) {
+    if (e instanceof EmulatorUnavailable) throw new UserError(`sim --firmware: ${e.message}`);
+    throw e;
+  }
+}
+
 export const command: Command = {
   name: 'sim',
   summary: 'simulate a pendulum rig and its device, to a journal, a pty or stdout',
@@ -106,6 +148,7 @@ export const command: Command = {
     journal: { type: 'string', short: 'o', arg: 'FILE', description: 'write the journal to FILE, and its truth to FILE.truth.json' },
     truth: { type: 'string', arg: 'FILE', description: 'when streaming to stdout: write the truth JSON to FILE at the end' },
     pty: { type: 'boolean', description: 'serve the device on a pseudo-terminal (prints the port to open; needs socat)' },
+    firmware: { type: 'boolean', description: 'run the shipped firmware in the simavr emulator as the device (needs avr-gcc, simavr; see README)' },
     speed: { type: 'string', arg: 'N', description: 'N× real time (default: as fast as possible for files and stdout, 1 for --pty); with --journal the file grows in place, for watch' },
     seed: { type: 'string', arg: 'N', description: 'random seed; the same seed gives the same bytes', default: '1' },
     duration: { type: 'string', arg: 'TIME', description: 'rig time to simulate: 90s, 20m, 2h, 7d (default: the scenario\'s)' },
@@ -124,6 +167,8 @@ export const command: Command = {
   details: `
 Scenarios are JSON files (rig, physics, gate, device, host, faults); see DEVELOPERS.md, "Simulator".
 With neither --journal nor --pty the journal streams to stdout, e.g.  halfswing sim --duration 10m | halfswing analyze -
+With --firmware the scenario's edges (with its bounce and objects) drive the real firmware in simavr and
+its own serial lines are the journal; lost and corrupted lines and unplugs still come from the scenario.
 Everything is simulated: no hardware is touched.`,
   async run(args, io) {
     if (args.values.list) {
@@ -146,49 +191,70 @@ Everything is simulated: no hardware is touched.`,
       throw e;
     }
     const sc = scenario;
-    if (journal) {
-      const t = Date.now();
-      const ac = new AbortController();
-      const onInt = (): void => ac.abort();
-      process.once('SIGINT', onInt);
-      let r;
-      try {
-        r = await writeScenarioJournal(sc, { ...o, path: journal, speed: speedS, signal: ac.signal });
-      } catch (e) {
-        if (ac.signal.aborted) throw new UserError(`sim: stopped; nothing written to ${journal}`, 130);
-        throw e;
-      } finally {
-        process.removeListener('SIGINT', onInt);
-      }
-      const { lines, truth } = r;
-      const truthNote = truth.complete ? ` and ${truthPathFor(journal)}` : ' (stopped early: no truth file)';
-      io.stderr.write(
-        `halfswing sim: wrote ${journal} (${lines} lines, ${(truth.duration_s / 3600).toFixed(2)} h of rig time, ${((Date.now() - t) / 1000).toFixed(1)} s)${truthNote}\n`,
-      );
-      return 0;
-    }
-    if (args.values.pty) {
-      const { servePty, PtyError } = await import('../../../sim/outlets/pty.ts');
-      const ac = new AbortController();
-      const onInt = (): void => ac.abort();
-      process.once('SIGINT', onInt);
-      process.once('SIGTERM', onInt);
-      try {
-        await servePty(sc, {
-          ...o,
-          speed: speedS ?? 1,
-          signal: ac.signal,
-          onReady: (p) => io.stdout.write(`halfswing sim: simulated device on ${p} (scenario ${sc.name}, ${speedS ?? 1}× real time; Ctrl-C stops)\n`),
-        });
-      } catch (e) {
-        if (e instanceof PtyError) throw new UserError(`sim: ${e.message}`);
-        throw e;
-      } finally {
-        process.removeListener('SIGINT', onInt);
-        process.removeListener('SIGTERM', onInt);
-      }
-      return 0;
-    }
-    return toStdout(sc, o, speedS ?? Infinity, optString(args, 'truth'), io);
+    if (args.values.firmware) return emulatorErrors(() => runSim(sc, o, speedS, journal, args, io, true));
+    return runSim(sc, o, speedS, journal, args, io, false);
   },
 };
+
+async function runSim(
+  sc: Scenario,
+  o: SimOptions,
+  speedS: number | undefined,
+  journal: string | undefined,
+  args: ParsedArgs,
+  io: CommandIo,
+  firmware: boolean,
+): Promise<number> {
+  const fw = firmware && !args.values.pty ? await firmwareSource(io) : undefined;
+  if (journal) {
+    const t = Date.now();
+    const ac = new AbortController();
+    const onInt = (): void => ac.abort();
+    process.once('SIGINT', onInt);
+    let r;
+    try {
+      r = await writeScenarioJournal(sc, { ...o, path: journal, speed: speedS, signal: ac.signal, source: fw?.source });
+    } catch (e) {
+      if (ac.signal.aborted) throw new UserError(`sim: stopped; nothing written to ${journal}`, 130);
+      throw e;
+    } finally {
+      process.removeListener('SIGINT', onInt);
+      fw?.done();
+    }
+    const { lines, truth } = r;
+    const truthNote = truth.complete ? ` and ${truthPathFor(journal)}` : ' (stopped early: no truth file)';
+    io.stderr.write(
+      `halfswing sim: wrote ${journal} (${lines} lines, ${(truth.duration_s / 3600).toFixed(2)} h of rig time, ${((Date.now() - t) / 1000).toFixed(1)} s)${truthNote}\n`,
+    );
+    return 0;
+  }
+  if (args.values.pty) {
+    const { servePty, PtyError } = await import('../../../sim/outlets/pty.ts');
+    const serve = firmware ? (await import('../../../sim/emulator/firmware-pty.ts')).serveFirmwarePty : servePty;
+    const ac = new AbortController();
+    const onInt = (): void => ac.abort();
+    process.once('SIGINT', onInt);
+    process.once('SIGTERM', onInt);
+    try {
+      await serve(sc, {
+        ...o,
+        speed: speedS ?? 1,
+        signal: ac.signal,
+        onReady: (p) =>
+          io.stdout.write(`halfswing sim: ${firmware ? 'emulated firmware' : 'simulated device'} on ${p} (scenario ${sc.name}, ${speedS ?? 1}× real time; Ctrl-C stops)\n`),
+      });
+    } catch (e) {
+      if (e instanceof PtyError) throw new UserError(`sim: ${e.message}`);
+      throw e;
+    } finally {
+      process.removeListener('SIGINT', onInt);
+      process.removeListener('SIGTERM', onInt);
+    }
+    return 0;
+  }
+  try {
+    return await toStdout(fw?.source ?? simulateJournal, sc, o, speedS ?? Infinity, optString(args, 'truth'), io);
+  } finally {
+    fw?.done();
+  }
+}
