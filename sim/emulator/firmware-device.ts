@@ -19,9 +19,6 @@ export class EmulatorUnavailable extends Error {
   }
 }
 
-/** A pin edge that may name its channel (a rig with two beams); without one it is the rig's channel. */
-type ChannelEdge = PinEdge & { readonly ch?: number };
-
 /**
  * Input levels at power-on: the inputs have pull-ups (firmware/src/board.h BOARD_INPUT_PULLUPS), so an
  * unconnected channel reads high, as the device model assumes.
@@ -66,8 +63,8 @@ export class FirmwareDevice {
   private readonly clock: DeviceClock;
   private readonly originCycle: number;
   private readonly fw: FirmwareProcess;
-  private readonly edges: Iterator<ChannelEdge>;
-  private nextEdge: ChannelEdge | undefined;
+  private readonly edges: Iterator<PinEdge>;
+  private nextEdge: PinEdge | undefined;
   private cycle = 0;
   private started = false;
   /** Every change as the harness applied it (cycle, channel, level), when asked to keep them. */
@@ -135,7 +132,8 @@ export class FirmwareDevice {
   private powerOn(): void {
     this.started = true;
     const levels = [IDLE_LEVEL, IDLE_LEVEL];
-    levels[this.channelOf({ t: 0, level: 0 })] = this.run.initialLevel;
+    levels[this.channelOf({})] = this.run.initialLevel;
+    for (const o of this.run.otherLevels) levels[this.channelOf(o)] = o.level;
     const t0 = this.hostTimeOf(0);
     for (; this.nextEdge && this.nextEdge.t <= t0; this.pull()) levels[this.channelOf(this.nextEdge)] = this.nextEdge.level;
     levels.forEach((level, ch) => this.fw.change(0, ch as 0 | 1, level as 0 | 1));
@@ -156,7 +154,7 @@ export class FirmwareDevice {
     if (beat) counts.edges_lost_by_device = parseInt(beat[1]!, 16);
   }
 
-  private channelOf(e: ChannelEdge): 0 | 1 {
+  private channelOf(e: { readonly ch?: number }): 0 | 1 {
     const ch = e.ch ?? this.run.scenario.rig.channel;
     if (ch !== 0 && ch !== 1) throw new EmulatorUnavailable(`the emulated board has channels 0 and 1 only, not ${ch}`);
     return ch;
