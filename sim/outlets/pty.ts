@@ -27,6 +27,10 @@ export interface PtyOptions extends SimOptions {
   /** Called once with the path the host should open. */
   readonly onReady: (hostPath: string) => void;
   readonly now?: () => number;
+  /** Start the run's clock at the host's first command (a host that opens the port late misses nothing). */
+  readonly startOnCommand?: boolean;
+  /** Called with every line the device sends, before wire faults (for tests that account for every line). */
+  readonly onSent?: (line: string) => void;
   /** Waits about `ms` wall milliseconds (default setTimeout); a command or the signal ends it early. */
   readonly sleep?: (ms: number) => Promise<void>;
 }
@@ -123,8 +127,8 @@ export async function servePtyDevice(device: PtyDevice, sc: Scenario, truth: Tru
   try {
     await new Promise<void>((resolve, reject) => port.once('open', resolve).once('error', reject));
     const now = opts.now ?? (() => performance.now());
-    const t0 = now();
-    const simNow = (): number => ((now() - t0) / 1000) * opts.speed;
+    let t0 = now();
+    const simNow = (): number => Math.max(0, ((now() - t0) / 1000) * opts.speed);
     let wake: () => void = () => undefined;
     const commands: { t: number; text: string }[] = [];
     port.pipe(new ReadlineParser({ delimiter: '\n', encoding: 'latin1' })).on('data', (text: string) => {
@@ -133,10 +137,16 @@ export async function servePtyDevice(device: PtyDevice, sc: Scenario, truth: Tru
     });
     const aborted = new Promise<void>((r) => opts.signal?.addEventListener('abort', () => r(), { once: true }));
     opts.onReady(pair.hostPath);
+    if (opts.startOnCommand) {
+      if (commands.length === 0) await Promise.race([new Promise<void>((r) => (wake = r)), aborted]);
+      t0 = now();
+      for (const c of commands) c.t = 0;
+    }
     while (!opts.signal?.aborted) {
       for (const c of commands.splice(0)) device.command(c.t, c.text);
       const t = simNow();
       for (const l of await device.linesUntil(t)) {
+        opts.onSent?.(l.line);
         if (sc.faults.lost_lines && wireRng.chance(sc.faults.lost_lines.probability)) {
           counts.lines_lost++;
           continue;
