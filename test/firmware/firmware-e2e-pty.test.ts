@@ -4,7 +4,7 @@ import { spawn } from 'node:child_process';
 import { once } from 'node:events';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { serveFirmwarePty } from '../../sim/emulator/firmware-pty.ts';
@@ -27,7 +27,7 @@ async function serve(opts: Omit<PtyOptions, 'onReady'>, sc = loadScenario('demo-
   return { path: await path, served };
 }
 
-describeFirmware.skipIf(!enabled)('the shipped firmware on a pty', () => {
+(enabled ? describeFirmware : describe.skip)('the shipped firmware on a pty', () => {
   it('record over it for a minute of device time (at 2× real time): every line the firmware sent is in the journal, in order', async () => {
     const sim = { seed: 5, durationS: 60 };
     const sc = loadScenario('demo-low-q');
