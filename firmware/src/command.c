@@ -52,6 +52,10 @@ static void parse(const char *s, uint8_t n, uint8_t mask_limit, command_t *out) 
       out->kind = CMD_CHANNELS;
       parse_number(s, n, 16, mask_limit, out);
       return;
+    case 'A':
+      out->kind = CMD_AIR;
+      parse_number(s, n, 10, AIR_MAX_S, out);
+      return;
     default:
       fail(out, R_UNKNOWN);
   }

@@ -1,4 +1,4 @@
-// Host command lines (`?`, `P <ms>`, `C <hex mask>`): assembly from received bytes and parsing. Pure.
+// Host command lines (`?`, `P <ms>`, `C <hex mask>`, `A <s>`): assembly from received bytes and parsing. Pure.
 #ifndef COMMAND_H
 #define COMMAND_H
 
@@ -9,14 +9,16 @@
 #define COMMAND_MAX_LINE 16
 #define PERIOD_MIN_MS 100
 #define PERIOD_MAX_MS 60000
+// Room reading interval in seconds (command A); 0 switches the readings off.
+#define AIR_MAX_S 3600
 
-typedef enum { CMD_HELLO, CMD_PERIOD, CMD_CHANNELS, CMD_ERROR } command_kind_t;
+typedef enum { CMD_HELLO, CMD_PERIOD, CMD_CHANNELS, CMD_AIR, CMD_ERROR } command_kind_t;
 
 typedef struct {
   command_kind_t kind;
   // Command letter as echoed in the reply, or '-' when the first byte is not printable.
   char letter;
-  // CMD_PERIOD: milliseconds; CMD_CHANNELS: mask.
+  // CMD_PERIOD: milliseconds; CMD_CHANNELS: mask; CMD_AIR: seconds.
   uint16_t value;
   // CMD_ERROR: reason token, a flash string.
   const char *reason;

@@ -9,6 +9,7 @@
 #include "config.h"
 #include "flash-strings.h"
 #include "report.h"
+#include "room.h"
 #include "system.h"
 #include "uart.h"
 
@@ -17,6 +18,7 @@
 
 static const char KEY_MS[] PROGMEM = "ms";
 static const char KEY_MASK[] PROGMEM = "mask";
+static const char KEY_S[] PROGMEM = "s";
 
 static uint16_t seq;
 static uint16_t boot_id;
@@ -43,6 +45,7 @@ static void schedule_heartbeat(uint64_t at) {
 static void send_hello(void) {
   char line[REPORT_MAX_LINE];
   send(line, report_hello(line, seq, boot_id, (int8_t)system_reset_cause()));
+  room_announce();
 }
 
 static void execute(const command_t *c) {
@@ -60,6 +63,10 @@ static void execute(const command_t *c) {
       channel_mask = (uint8_t)c->value;
       capture_set_mask(channel_mask);
       send(line, report_ok(line, seq, 'C', KEY_MASK, c->value, 1));
+      return;
+    case CMD_AIR:
+      room_set_interval(c->value, as_u64(capture_now()));
+      send(line, report_ok(line, seq, 'A', KEY_S, c->value, 0));
       return;
     case CMD_ERROR:
       send(line, report_err(line, seq, c->letter, c->reason));
@@ -83,9 +90,8 @@ static uint8_t service_commands(void) {
   return progressed;
 }
 
-static uint8_t service_heartbeat(void) {
+static uint8_t service_heartbeat(ticks48_t now) {
   if (uart_tx_free() < REPORT_MAX_HEARTBEAT) return 0;
-  ticks48_t now = capture_now();
   uint64_t t = as_u64(now);
   if (t < next_heartbeat) return 0;
   char line[REPORT_MAX_HEARTBEAT];
@@ -108,11 +114,31 @@ static uint8_t service_edges(void) {
   return progressed;
 }
 
+// The room sensor: one step per pass; its S and A lines only when the transmit ring has room for them.
+static uint8_t service_room(uint64_t now) {
+  uint8_t progressed = room_service(now);
+  int16_t st = room_state_due();
+  if (st >= 0 && uart_tx_free() >= REPORT_MAX_STATE) {
+    char line[REPORT_MAX_STATE];
+    send(line, report_state(line, seq, (uint8_t)st));
+    room_state_sent();
+    progressed = 1;
+  }
+  const room_reading_t *r = room_reading();
+  if (r && uart_tx_free() >= REPORT_MAX_AIR) {
+    char line[REPORT_MAX_AIR];
+    send(line, report_air(line, seq, r->at, r->temp, r->press, r->hum));
+    room_reading_sent();
+    progressed = 1;
+  }
+  return progressed;
+}
+
 // Sleep in idle mode until the next interrupt, unless an ISR left work since the last look. The check and
 // the sleep instruction run with interrupts off; `sei` lets one more instruction (sleep) run first.
 static void idle(void) {
   cli();
-  uint8_t work = capture_alarm_flag || uart_rx_pending() || (capture_pending() && uart_tx_free() >= REPORT_MAX_EDGE);
+  uint8_t work = capture_alarm_flag || uart_rx_pending() || room_busy() || (capture_pending() && uart_tx_free() >= REPORT_MAX_EDGE);
   capture_alarm_flag = 0;
   if (!work) {
     sleep_enable();
@@ -137,8 +163,11 @@ int main(void) {
   for (;;) {
     system_watchdog_pet();
     uint8_t progressed = service_commands();
-    progressed |= service_heartbeat();
+    // One reading of the counter per pass: each is a short section with interrupts off.
+    ticks48_t now = capture_now();
+    progressed |= service_heartbeat(now);
     progressed |= service_edges();
+    progressed |= service_room(as_u64(now));
     if (!progressed) idle();
   }
 }

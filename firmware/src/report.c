@@ -140,3 +140,26 @@ uint8_t report_err(char *buf, uint16_t seq, char cmd, const char *reason_flash) 
   put_flash(&l, reason_flash);
   return finish(&l);
 }
+
+uint8_t report_air(char *buf, uint16_t seq, ticks48_t t, int32_t temp, uint32_t press, uint32_t hum) {
+  line_t l;
+  begin(&l, buf, 'A', seq);
+  put_c(&l, ' ');
+  put_ticks(&l, t);
+  put_c(&l, ' ');
+  if (temp < 0) put_c(&l, '-');
+  put_dec(&l, (uint32_t)(temp < 0 ? -temp : temp));
+  put_c(&l, ' ');
+  put_dec(&l, press);
+  put_c(&l, ' ');
+  put_dec(&l, hum);
+  return finish(&l);
+}
+
+uint8_t report_state(char *buf, uint16_t seq, uint8_t state) {
+  line_t l;
+  begin(&l, buf, 'S', seq);
+  put_c(&l, ' ');
+  put_hex(&l, state);
+  return finish(&l);
+}

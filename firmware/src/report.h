@@ -9,6 +9,8 @@
 #define REPORT_MAX_EDGE 28      // "E ffff 1 r ffffffffffff *hh\n"
 #define REPORT_MAX_HEARTBEAT 36 // "T ffff ffffffffffff ffffffff ff *hh\n"
 #define REPORT_MAX_REPLY 32
+#define REPORT_MAX_AIR 46       // "A ffff ffffffffffff -99999 9999999 100000 *hh\n"
+#define REPORT_MAX_STATE 13     // "S ffff ff *hh\n"
 
 // Ticks since boot: 32-bit overflow count above the 16-bit Timer1 value (48 bits in all).
 typedef struct {
@@ -23,6 +25,10 @@ uint8_t report_heartbeat(char *buf, uint16_t seq, ticks48_t t, uint32_t lost, ui
 uint8_t report_hello(char *buf, uint16_t seq, uint16_t boot, int8_t rc);
 // "R <seq> ok <cmd> <key>=<value>", value in hex when hex != 0, else decimal.
 uint8_t report_ok(char *buf, uint16_t seq, char cmd, const char *key_flash, uint32_t value, uint8_t hex);
+// "A <seq> <ticks> <temp> <press> <hum>": hundredths of °C, Pa, thousandths of %RH, all decimal.
+uint8_t report_air(char *buf, uint16_t seq, ticks48_t t, int32_t temp, uint32_t press, uint32_t hum);
+// "S <seq> <state>", state in hex.
+uint8_t report_state(char *buf, uint16_t seq, uint8_t state);
 uint8_t report_err(char *buf, uint16_t seq, char cmd, const char *reason_flash);
 
 #endif

@@ -12,6 +12,7 @@
 
 #include <simavr/avr_ioport.h>
 #include <simavr/avr_timer.h>
+#include <simavr/avr_twi.h>
 #include <simavr/avr_uart.h>
 #include <simavr/sim_avr.h>
 #include <simavr/sim_elf.h>
@@ -267,6 +268,166 @@ static void no_sleep(avr_t *a, avr_cycle_count_t how_long) {
   (void)how_long;
 }
 
+// ---- a BME280 on the TWI bus ------------------------------------------------------------------------
+// Register map, chip id and calibration layout of the Bosch BME280 datasheet (memory map; trimming
+// parameters at 0x88..0xA1 and 0xE1..0xE7). The environment is a schedule of raw ADC readings ("cycle adcT
+// adcP adcH"); a forced-mode write to ctrl_meas latches the reading in force at that cycle, sets the status
+// register's measuring bit and fills the data registers when the measurement ends, 8 ms later (x1
+// oversampling takes up to 9.3 ms). Served readings are logged ("cycle adcT adcP adcH") for the tests.
+#define BME_REG_ID 0xd0
+#define BME_REG_STATUS 0xf3
+#define BME_REG_CTRL_MEAS 0xf4
+#define BME_REG_DATA 0xf7
+#define BME_MEASURE_CYCLES (HZ / 125)
+#define ADDR_TWCR 0xbc
+#define TWSTA_BIT 0x20
+
+typedef struct {
+  uint64_t cycle;
+  uint32_t t, p, h;
+} bme_sample_t;
+
+static struct {
+  int addr;  // 7-bit address, or -1: no sensor on the bus
+  uint8_t reg[256];
+  uint8_t pointer;
+  int selected, index;
+  uint64_t absent_at, return_at, hang_at, sda_low_at;
+  bme_sample_t *samples;
+  size_t n_samples;
+  bme_sample_t measuring;
+  FILE *log;
+  avr_irq_t *twi_irq;
+} bme = {.addr = -1, .absent_at = UINT64_MAX, .return_at = UINT64_MAX, .hang_at = UINT64_MAX, .sda_low_at = UINT64_MAX};
+static avr_io_write_t twcr_original;
+static void *twcr_param;
+
+static int bme_answers(void) { return bme.addr >= 0 && !(avr->cycle >= bme.absent_at && avr->cycle < bme.return_at); }
+
+static void twi_reply(uint8_t msg, uint8_t addr, uint8_t data) {
+  avr_raise_irq(bme.twi_irq + TWI_IRQ_INPUT, avr_twi_irq_msg(msg, addr, data));
+}
+
+static avr_cycle_count_t bme_measure_done(avr_t *a, avr_cycle_count_t when, void *param) {
+  (void)a;
+  (void)when;
+  (void)param;
+  bme_sample_t m = bme.measuring;
+  uint8_t *d = &bme.reg[BME_REG_DATA];
+  d[0] = (uint8_t)(m.p >> 12), d[1] = (uint8_t)(m.p >> 4), d[2] = (uint8_t)(m.p << 4);
+  d[3] = (uint8_t)(m.t >> 12), d[4] = (uint8_t)(m.t >> 4), d[5] = (uint8_t)(m.t << 4);
+  d[6] = (uint8_t)(m.h >> 8), d[7] = (uint8_t)m.h;
+  bme.reg[BME_REG_STATUS] &= (uint8_t)~0x08;
+  bme.reg[BME_REG_CTRL_MEAS] &= (uint8_t)~0x03;  // back to sleep mode
+  return 0;
+}
+
+static void bme_write(uint8_t reg, uint8_t v) {
+  if (reg < 0xf2 && reg != 0xe0) return;  // calibration and id are read-only
+  bme.reg[reg] = v;
+  if (reg == BME_REG_CTRL_MEAS && (v & 3) && (v & 3) != 3) {
+    size_t i = 0;
+    while (i + 1 < bme.n_samples && bme.samples[i + 1].cycle <= avr->cycle) i++;
+    bme.measuring = bme.n_samples ? bme.samples[i] : (bme_sample_t){0, 0x80000, 0x80000, 0x8000};
+    bme.measuring.cycle = avr->cycle;
+    if (bme.log)
+      fprintf(bme.log, "%" PRIu64 " %u %u %u\n", (uint64_t)avr->cycle, bme.measuring.t, bme.measuring.p, bme.measuring.h);
+    bme.reg[BME_REG_STATUS] |= 0x08;
+    avr_cycle_timer_register(avr, BME_MEASURE_CYCLES, bme_measure_done, NULL);
+  }
+}
+
+// The slave side of simavr's TWI messages (as its i2c_eeprom part does): ACK our address and each byte
+// written, hand out register bytes on reads; the first byte of a write sets the register pointer.
+static void bme_twi_hook(avr_irq_t *irq, uint32_t value, void *param) {
+  (void)irq;
+  (void)param;
+  avr_twi_msg_irq_t v;
+  v.u.v = value;
+  if (v.u.twi.msg & TWI_COND_STOP) bme.selected = 0;
+  if (v.u.twi.msg & TWI_COND_START) {
+    bme.selected = 0;
+    bme.index = 0;
+    if (bme_answers() && (v.u.twi.addr >> 1) == bme.addr) {
+      bme.selected = v.u.twi.addr;
+      twi_reply(TWI_COND_ACK, bme.selected, 1);
+    }
+  }
+  if (!bme.selected) return;
+  if (v.u.twi.msg & TWI_COND_WRITE) {
+    twi_reply(TWI_COND_ACK, bme.selected, 1);
+    if (bme.index++ == 0)
+      bme.pointer = v.u.twi.data;
+    else
+      bme_write(bme.pointer++, v.u.twi.data);
+  }
+  if (v.u.twi.msg & TWI_COND_READ) twi_reply(TWI_COND_READ, bme.selected, bme.reg[bme.pointer++]);
+}
+
+// A stuck bus: the TWI never completes a start (silicon waits for a free bus), so TWCR writes that would
+// start one are kept out of simavr's TWI; with --sda-low-at the SDA pin (PC4) also reads low.
+static void twcr_watch(avr_t *a, avr_io_addr_t addr, uint8_t v, void *param) {
+  (void)param;
+  if (a->cycle >= bme.hang_at || a->cycle >= bme.sda_low_at) {
+    a->data[addr] = (uint8_t)(v & ~TWSTA_BIT & ~0x80);
+    return;
+  }
+  twcr_original(a, addr, v, twcr_param);
+}
+
+static avr_cycle_count_t sda_low(avr_t *a, avr_cycle_count_t when, void *param) {
+  (void)a;
+  (void)when;
+  (void)param;
+  avr_ioport_external_t e = {.name = 'C', .mask = 1u << 4, .value = 0};
+  avr_ioctl(avr, AVR_IOCTL_IOPORT_SET_EXTERNAL('C'), &e);
+  avr_raise_irq(avr_io_getirq(avr, AVR_IOCTL_IOPORT_GETIRQ('C'), 4), 0);
+  if (applied_out) fprintf(applied_out, "%" PRIu64 " sda-low\n", (uint64_t)avr->cycle);
+  return 0;
+}
+
+static int hexval(int c);
+
+// Calibration: 33 bytes as hex, the contents of 0x88..0xA1 then 0xE1..0xE7.
+static void install_bme(const char *addr_s, const char *calib_hex, const char *env_path, const char *log_path) {
+  bme.addr = (int)strtol(addr_s, NULL, 0);
+  bme.reg[BME_REG_ID] = 0x60;
+  if (!calib_hex || strlen(calib_hex) != 66) die("--bme-calib: 33 bytes as hex");
+  for (int i = 0; i < 33; i++) {
+    int hi = hexval(calib_hex[2 * i]), lo = hexval(calib_hex[2 * i + 1]);
+    if (hi < 0 || lo < 0) die("--bme-calib: bad hex");
+    bme.reg[i < 26 ? 0x88 + i : 0xe1 + i - 26] = (uint8_t)(hi * 16 + lo);
+  }
+  bme.reg[0xf7] = bme.reg[0xfa] = 0x80;  // reset values of the data registers (datasheet memory map)
+  bme.reg[0xfd] = 0x80;
+  if (env_path) {
+    FILE *f = fopen(env_path, "r");
+    if (!f) die("cannot open the --bme-env file");
+    size_t cap = 64;
+    bme.samples = malloc(cap * sizeof *bme.samples);
+    bme_sample_t m;
+    while (fscanf(f, "%" SCNu64 " %u %u %u", &m.cycle, &m.t, &m.p, &m.h) == 4) {
+      if (m.t > 0xfffff || m.p > 0xfffff || m.h > 0xffff) die("--bme-env: raw values are 20, 20 and 16 bits");
+      if (bme.n_samples == cap) bme.samples = realloc(bme.samples, (cap *= 2) * sizeof *bme.samples);
+      bme.samples[bme.n_samples++] = m;
+    }
+    fclose(f);
+  }
+  if (log_path && !(bme.log = fopen(log_path, "w"))) die("cannot open the --bme-log file");
+}
+
+static void install_twi_device(void) {
+  bme.twi_irq = avr_io_getirq(avr, AVR_IOCTL_TWI_GETIRQ(0), 0);
+  if (!bme.twi_irq) die("simavr has no TWI on this part");
+  avr_irq_register_notify(bme.twi_irq + TWI_IRQ_OUTPUT, bme_twi_hook, NULL);
+  int io = AVR_DATA_TO_IO(ADDR_TWCR);
+  if (!avr->io[io].w.c) die("no TWCR write handler");
+  twcr_original = avr->io[io].w.c;
+  twcr_param = avr->io[io].w.param;
+  avr->io[io].w.c = twcr_watch;
+  if (bme.sda_low_at != UINT64_MAX) avr_cycle_timer_register(avr, bme.sda_low_at, sda_low, NULL);
+}
+
 // ---- input files -----------------------------------------------------------------------------------
 static void read_schedule(const char *path) {
   FILE *f = fopen(path, "r");
@@ -415,8 +576,12 @@ int main(int argc, char **argv) {
     fprintf(stderr,
             "usage: halfswing-emu --elf FILE --cycles N --uart-out FILE --applied-out FILE --info-out FILE\n"
             "       [--schedule FILE] [--commands FILE] [--uart-times FILE] [--host-baud N] [--no-tifr-fix]\n"
-            "       [--stall-at CYCLE]\n"
-            "   or: halfswing-emu --stream --elf FILE --info-out FILE [--host-baud N]  (requests on stdin)\n");
+            "       [--stall-at CYCLE] [--bme-addr A --bme-calib HEX [--bme-env FILE] [--bme-log FILE]]
+"
+            "       [--bme-absent-at CYCLE] [--bme-return-at CYCLE] [--twi-hang-at CYCLE] [--sda-low-at CYCLE]
+"
+            "   or: halfswing-emu --stream --elf FILE --info-out FILE [--host-baud N]  (requests on stdin)
+");
     return 2;
   }
   const char *baud_s = arg_value(argc, argv, "--host-baud");
@@ -450,6 +615,15 @@ int main(int argc, char **argv) {
     install_eifr_fix();
   }
   install_tccr1b_watch();
+  const char *bme_addr = arg_value(argc, argv, "--bme-addr");
+  if (bme_addr)
+    install_bme(bme_addr, arg_value(argc, argv, "--bme-calib"), arg_value(argc, argv, "--bme-env"),
+                arg_value(argc, argv, "--bme-log"));
+  const char *at;
+  if ((at = arg_value(argc, argv, "--bme-absent-at"))) bme.absent_at = strtoull(at, NULL, 10);
+  if ((at = arg_value(argc, argv, "--bme-return-at"))) bme.return_at = strtoull(at, NULL, 10);
+  if ((at = arg_value(argc, argv, "--twi-hang-at"))) bme.hang_at = strtoull(at, NULL, 10);
+  if ((at = arg_value(argc, argv, "--sda-low-at"))) bme.sda_low_at = strtoull(at, NULL, 10);
 
   if (!streaming) {
     uart_out = fopen(uart_path, "wb");
@@ -469,6 +643,7 @@ int main(int argc, char **argv) {
   avr_irq_register_notify(uart_irq + UART_IRQ_OUT_XON, uart_xon, NULL);
   avr_irq_register_notify(uart_irq + UART_IRQ_OUT_XOFF, uart_xoff, NULL);
 
+  install_twi_device();
   pin_irq[0] = avr_io_getirq(avr, AVR_IOCTL_IOPORT_GETIRQ('B'), IOPORT_IRQ_PIN0);
   pin_irq[1] = avr_io_getirq(avr, AVR_IOCTL_IOPORT_GETIRQ('D'), IOPORT_IRQ_PIN0 + 2);
 
@@ -511,5 +686,6 @@ int main(int argc, char **argv) {
   if (uart_out) fclose(uart_out);
   fclose(applied_out);
   if (uart_times_out) fclose(uart_times_out);
+  if (bme.log) fclose(bme.log);
   return state == cpu_Crashed ? 3 : 0;
 }

@@ -45,6 +45,41 @@ export interface RunFirmwareOptions {
   readonly hostBaud?: number;
   /** Simulates a hang of the main loop at this emulated time (ISRs keep running): for watchdog tests. */
   readonly stallAtS?: number;
+  /** A BME280 on the TWI bus (absent: nothing answers on the bus). */
+  readonly room?: EmulatedRoomSensor;
+  /** From this time on no TWI start completes (a device holds the bus mid-transfer): only timeouts see it. */
+  readonly twiHangAtS?: number;
+  /** From this time on SDA (PC4, pin A4) reads low and no start completes: a bus held low. */
+  readonly sdaLowAtS?: number;
+}
+
+/** Raw ADC readings the emulated sensor gives from `t_s` on (20, 20 and 16 bits, as in its data registers). */
+export interface RawRoomSample {
+  readonly t_s: number;
+  readonly adcT: number;
+  readonly adcP: number;
+  readonly adcH: number;
+}
+
+export interface EmulatedRoomSensor {
+  /** 7-bit I²C address: 0x76 or 0x77. */
+  readonly addr: number;
+  /** Contents of 0x88..0xA1 then 0xE1..0xE7 (33 bytes). */
+  readonly calib: Uint8Array;
+  /** The environment as raw readings, in time order; the one in force when a measurement starts is served. */
+  readonly samples: readonly RawRoomSample[];
+  /** The sensor stops answering at this time ... */
+  readonly absentAtS?: number;
+  /** ... and answers again from this time. */
+  readonly returnAtS?: number;
+}
+
+/** A measurement the emulated sensor made: when it was triggered, and the raw values it served. */
+export interface ServedRoomSample {
+  readonly cycle: number;
+  readonly adcT: number;
+  readonly adcP: number;
+  readonly adcH: number;
 }
 
 /** A change as the harness really applied it (simavr applies a change at an instruction boundary). */
@@ -72,6 +107,8 @@ export interface FirmwareRun {
   readonly u2x: 0 | 1;
   /** Final values of interrupt-enable and peripheral registers (EIMSK, TIMSK0..2, PRR, WDTCSR, ...). */
   readonly registers: Readonly<Record<string, number>>;
+  /** Measurements the emulated room sensor made (empty without one). */
+  readonly roomServed: ServedRoomSample[];
 }
 
 interface HarnessInfo {
@@ -102,6 +139,8 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
       times: join(dir, 'uart-times.txt'),
       applied: join(dir, 'applied.txt'),
       info: join(dir, 'info.json'),
+      bmeEnv: join(dir, 'bme-env.txt'),
+      bmeLog: join(dir, 'bme-log.txt'),
     };
     await writeFile(files.schedule, changes.map((c) => `${c.cycle} ${c.ch} ${c.level}\n`).join(''));
     const commands = [...(options.commands ?? [])].sort((a, b) => a.t_s - b.t_s);
@@ -122,6 +161,7 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
     ];
     if (options.tifrFix === false) args.push('--no-tifr-fix');
     if (options.stallAtS !== undefined) args.push('--stall-at', String(toCycle(options.stallAtS)));
+    args.push(...(await roomArgs(options, files)));
     // simavr prints its own messages on stdout; the UART bytes are in their own file.
     await run(HARNESS_BIN, args, { maxBuffer: 16 * 1024 * 1024 });
     const info = JSON.parse(await readFile(files.info, 'utf8')) as HarnessInfo;
@@ -131,7 +171,7 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
     const lineCycles = (await readFile(files.times, 'utf8')).split('\n').filter((s) => s !== '').map(Number);
     const applied = (await readFile(files.applied, 'utf8'))
       .split('\n')
-      .filter((s) => s !== '' && !s.endsWith(' stall'))
+      .filter((s) => s !== '' && !s.endsWith(' stall') && !s.endsWith(' sda-low'))
       .map((s) => {
         const [cycle, ch, level] = s.split(' ').map(Number);
         return { cycle: cycle!, ch: ch as 0 | 1, level: level as 0 | 1 };
@@ -146,8 +186,37 @@ export async function runFirmware(options: RunFirmwareOptions): Promise<Firmware
       ubrr: info.ubrr,
       u2x: info.u2x,
       registers: info.registers,
+      roomServed: options.room ? await readServed(files.bmeLog) : [],
     };
   } finally {
     await rm(dir, { recursive: true, force: true });
   }
+}
+
+async function roomArgs(options: RunFirmwareOptions, files: { bmeEnv: string; bmeLog: string }): Promise<string[]> {
+  const args: string[] = [];
+  const at = (flag: string, t_s: number | undefined): void => {
+    if (t_s !== undefined) args.push(flag, String(toCycle(t_s)));
+  };
+  const room = options.room;
+  if (room) {
+    if (room.calib.length !== 33) throw new TypeError('room.calib: 33 bytes (0x88..0xA1, 0xE1..0xE7)');
+    await writeFile(files.bmeEnv, room.samples.map((m) => `${toCycle(m.t_s)} ${m.adcT} ${m.adcP} ${m.adcH}\n`).join(''));
+    args.push('--bme-addr', String(room.addr), '--bme-calib', Buffer.from(room.calib).toString('hex'), '--bme-env', files.bmeEnv, '--bme-log', files.bmeLog);
+    at('--bme-absent-at', room.absentAtS);
+    at('--bme-return-at', room.returnAtS);
+  }
+  at('--twi-hang-at', options.twiHangAtS);
+  at('--sda-low-at', options.sdaLowAtS);
+  return args;
+}
+
+async function readServed(path: string): Promise<ServedRoomSample[]> {
+  return (await readFile(path, 'utf8'))
+    .split('\n')
+    .filter((s) => s !== '')
+    .map((s) => {
+      const [cycle, adcT, adcP, adcH] = s.split(' ').map(Number);
+      return { cycle: cycle!, adcT: adcT!, adcP: adcP!, adcH: adcH! };
+    });
 }

@@ -42,6 +42,10 @@ function request(r: DeviceRecord): string | undefined {
       if (!m || rest.length > 0) return undefined;
       return m[1] === 'ms' ? `Rok ${h(r.seq)} ${r.cmd} ms ${m[2]} d` : `Rok ${h(r.seq)} ${r.cmd} mask ${parseInt(m[2]!, 16)} x`;
     }
+    case 'A':
+      return `A ${h(r.seq)} ${h(r.ticks)} ${r.temp} ${r.press} ${r.hum}`;
+    case 'S':
+      return `S ${h(r.seq)} ${h(r.state)}`;
     default:
       return undefined;
   }
@@ -72,7 +76,7 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
     cases.forEach((c, i) => expect(got[i]).toBe(c.v.line));
   });
 
-  it('formats E and T lines exactly as protocol/encode.ts does over random values (48-bit ticks, wrap of seq)', () => {
+  it('formats E, T, A and S lines exactly as protocol/encode.ts does over random values (48-bit ticks, wrap of seq)', () => {
     const edge = fc.record({
       kind: fc.constant('E' as const),
       seq: fc.integer({ min: 0, max: 0xffff }),
@@ -87,7 +91,16 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
       lost: fc.integer({ min: 0, max: 0xffffffff }),
       levels: fc.integer({ min: 0, max: 3 }),
     });
-    const records = fc.sample(fc.oneof(edge, beat), { numRuns: 3000, seed: 20261201 }) as DeviceRecord[];
+    const air = fc.record({
+      kind: fc.constant('A' as const),
+      seq: fc.integer({ min: 0, max: 0xffff }),
+      ticks: fc.integer({ min: 0, max: 2 ** 48 - 1 }),
+      temp: fc.integer({ min: -99999, max: 99999 }),
+      press: fc.integer({ min: 0, max: 9_999_999 }),
+      hum: fc.integer({ min: 0, max: 100_000 }),
+    });
+    const state = fc.record({ kind: fc.constant('S' as const), seq: fc.integer({ min: 0, max: 0xffff }), state: fc.integer({ min: 0, max: 0xff }) });
+    const records = fc.sample(fc.oneof(edge, beat, air, state), { numRuns: 3000, seed: 20261201 }) as DeviceRecord[];
     const got = ask(records.map((r) => request(r)!));
     records.forEach((r, i) => expect(got[i]).toBe(encodeRecord(r)));
   });
@@ -99,7 +112,7 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
 
   it('classifies random command lines as the contract says (property test against a reference reading)', () => {
     // The command grammar of protocol/SPEC.md read independently: `?`, `P <decimal 100..60000>`,
-    // `C <hex mask 0..3>`; at most 16 bytes before the LF, a CR included; one trailing CR dropped; empty
+    // `C <hex mask 0..3>`, `A <decimal 0..3600>`; at most 16 bytes before the LF, a CR included; one trailing CR dropped; empty
     // lines ignored.
     const reference = (bytes: number[]): string => {
       const first = bytes[0] ?? 0;
@@ -118,16 +131,17 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
       if (letter === '?') return n === 1 ? 'hello ?' : 'error ? syntax';
       if (letter === 'P') return number(/^[0-9]+$/, 10, 100, 60000, 'period');
       if (letter === 'C') return number(/^[0-9a-fA-F]+$/, 16, 0, 3, 'channels');
+      if (letter === 'A') return number(/^[0-9]+$/, 10, 0, 3600, 'air');
       return `error ${letter} unknown`;
     };
     const byte = fc.oneof(
-      fc.constantFrom(0x3f, 0x50, 0x43, 0x20, 0x0d, 0x30, 0x31, 0x39, 0x61, 0x46),
+      fc.constantFrom(0x3f, 0x50, 0x43, 0x41, 0x20, 0x0d, 0x30, 0x31, 0x39, 0x61, 0x46),
       fc.integer({ min: 0x00, max: 0xff }).filter((b) => b !== 0x0a),
     );
     const lines = fc.sample(
       fc.oneof(
         fc.array(byte, { minLength: 0, maxLength: 24 }),
-        fc.tuple(fc.constantFrom('P ', 'C '), fc.stringMatching(/^[0-9a-fA-F]{1,7}$/)).map(([a, b]) => [...Buffer.from(a + b)]),
+        fc.tuple(fc.constantFrom('P ', 'C ', 'A '), fc.stringMatching(/^[0-9a-fA-F]{1,7}$/)).map(([a, b]) => [...Buffer.from(a + b)]),
       ),
       { numRuns: 3000, seed: 7 },
     );
@@ -156,6 +170,11 @@ describeFirmware('firmware formatter (host build of firmware/src/report.c, crc8.
       ['C 0', 'channels C 0 -'],
       ['C 4', 'error C 0 range'],
       ['C g', 'error C 0 syntax'],
+      ['A 0', 'air A 0 -'],
+      ['A 3600', 'air A 3600 -'],
+      ['A 3601', 'error A 0 range'],
+      ['A', 'error A 0 syntax'],
+      ['A x', 'error A 0 syntax'],
       ['? 1', 'error ? 0 syntax'],
       ['Z', 'error Z 0 unknown'],
       ['p 100', 'error p 0 unknown'],

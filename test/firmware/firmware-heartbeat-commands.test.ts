@@ -123,21 +123,22 @@ describeFirmware('commands', () => {
 describeFirmware('watchdog', () => {
   it('resets the board when the main loop hangs: a new hello with rc=8 (WDRF), a new boot id, no reset loop', async () => {
     const run = await runFirmware({ edges: [], durationS: 5, stallAtS: 1.5 });
-    const records = decodeRun({ ...run, lines: run.lines.slice(0, 2) });
-    expect(records.map((r) => r.kind)).toEqual(['H', 'T']);
-    const after = run.lines.slice(2).map((l) => decodeLine(l));
+    // Hello, the room sensor's state (none fitted: absent), one heartbeat.
+    const records = decodeRun({ ...run, lines: run.lines.slice(0, 3) });
+    expect(records.map((r) => r.kind)).toEqual(['H', 'S', 'T']);
+    const after = run.lines.slice(3).map((l) => decodeLine(l));
     const kinds = after.map((r) => (r.ok ? r.record.kind : 'rejected'));
     // 1 s watchdog: nothing between the hang and the reset, then a fresh boot that keeps running.
-    expect(kinds[0]).toBe('H');
-    expect(kinds.slice(1).every((k) => k === 'T')).toBe(true);
-    expect(kinds.length).toBeGreaterThanOrEqual(3);
+    expect(kinds.slice(0, 2)).toEqual(['H', 'S']);
+    expect(kinds.slice(2).every((k) => k === 'T')).toBe(true);
+    expect(kinds.length).toBeGreaterThanOrEqual(4);
     const hello = (after[0] as { ok: true; record: HelloRecord }).record;
     const first = records[0] as HelloRecord;
     expect(hello.seq).toBe(0);
     expect(hello.extra).toEqual({ rc: '8' });
     expect(hello.boot).not.toBe(first.boot);
     // The reset came between 1 s and 1.1 s after the hang (WDTO_1S; the 128 kHz oscillator, datasheet).
-    const helloAt = run.lineCycles[2]! / run.hz;
+    const helloAt = run.lineCycles[3]! / run.hz;
     expect(helloAt - 1.5).toBeGreaterThan(1.0);
     expect(helloAt - 1.5).toBeLessThan(1.1);
   });
@@ -175,7 +176,7 @@ describeFirmware('configuration left by the firmware', () => {
     expect(r.EECR! & 0x08).toBe(0); // EERIE
     expect(r.SPMCSR! & 0x80).toBe(0); // SPMIE
     expect(r.ACSR! & 0x88).toBe(0x80); // ACD on, ACIE off
-    expect(r.PRR! & 0xe5).toBe(0xe5); // PRTWI, PRTIM2, PRTIM0, PRSPI, PRADC
+    expect(r.PRR! & 0x65).toBe(0x65); // PRTIM2, PRTIM0, PRSPI, PRADC (the TWI is on for the room sensor)
     expect(r.TCCR1B! & 0x87).toBe(0x81); // ICNC1 on, prescaler 1
   });
 });
