@@ -576,12 +576,9 @@ int main(int argc, char **argv) {
     fprintf(stderr,
             "usage: halfswing-emu --elf FILE --cycles N --uart-out FILE --applied-out FILE --info-out FILE\n"
             "       [--schedule FILE] [--commands FILE] [--uart-times FILE] [--host-baud N] [--no-tifr-fix]\n"
-            "       [--stall-at CYCLE] [--bme-addr A --bme-calib HEX [--bme-env FILE] [--bme-log FILE]]
-"
-            "       [--bme-absent-at CYCLE] [--bme-return-at CYCLE] [--twi-hang-at CYCLE] [--sda-low-at CYCLE]
-"
-            "   or: halfswing-emu --stream --elf FILE --info-out FILE [--host-baud N]  (requests on stdin)
-");
+            "       [--stall-at CYCLE] [--bme-addr A --bme-calib HEX [--bme-env FILE] [--bme-log FILE]]\n"
+            "       [--bme-absent-at CYCLE] [--bme-return-at CYCLE] [--twi-hang-at CYCLE] [--sda-low-at CYCLE]\n"
+            "   or: halfswing-emu --stream --elf FILE --info-out FILE [--host-baud N]  (requests on stdin)\n");
     return 2;
   }
   const char *baud_s = arg_value(argc, argv, "--host-baud");
