@@ -32,8 +32,8 @@ export function firmwareSchedule(scenario: Scenario, opts: SimOptions & { leadS?
   const pinOnly: Scenario = { ...scenario, faults: { bounce: scenario.faults.bounce, object: scenario.faults.object } };
   const { edges, initialLevel, scenario: sc } = simulatePinEdges(pinOnly, { ...opts, no_faults: opts.no_faults ?? false });
   const d = sc.device;
-  if (sc.rig.channel > 1) throw new RangeError('the emulated board has channels 0 and 1 only');
-  const ch = sc.rig.channel as 0 | 1;
+  if (sc.rig.beams[0].channel > 1) throw new RangeError('the emulated board has channels 0 and 1 only');
+  const ch = sc.rig.beams[0].channel as 0 | 1;
   const boot = d.first_boot_s;
   // Phase 0: device tick n is emulated time n/hz after the schedule's origin.
   const clock = new DeviceClock(d.hz, d.ppm, d.drift_ppm_per_h, boot, 0);

@@ -1,5 +1,5 @@
 // Scenario files: a rig, its true physics, gate, device, host link and faults, validated strictly.
-import { parseRig, type Rig } from '../protocol/rig.ts';
+import { parseSimpleRig, type Rig } from '../protocol/rig.ts';
 import {
   CH0_MIN_PULSE_TICKS,
   CHANNEL_LATENCY_TICKS,
@@ -265,10 +265,10 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     ['rig', 'duration_s', 'physics'],
   );
   const o = value as Record<string, Record<string, unknown>>;
-  const rig = parseRig(o.rig);
+  const rig = parseSimpleRig(o.rig);
   if (!rig.ok) throw new ScenarioError(`scenario.rig: ${rig.error}`);
   if (!Number.isInteger(o.device?.channels ?? 2)) fail('scenario.device.channels', 'must be an integer');
-  if (rig.rig.channel >= Number(o.device?.channels ?? DEFAULTS.device.channels)) fail('scenario.rig.channel', 'must be below device.channels');
+  if (rig.rig.beams[0].channel >= Number(o.device?.channels ?? DEFAULTS.device.channels)) fail('scenario.rig.channel', 'must be below device.channels');
   if (rig.rig.string_mass_kg !== undefined && rig.rig.bob_mass_kg === undefined)
     fail('scenario.rig.string_mass_kg', 'needs bob_mass_kg as well, to model the string');
   const physics = { ...DEFAULTS.physics, ...o.physics } as Scenario['physics'];

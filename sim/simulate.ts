@@ -58,7 +58,7 @@ export function prepareRun(base: Scenario, opts: SimOptions): Run {
       offset_convention: 'metres along the bob path, + toward the release side (release_deg > 0 side)',
       flag_width_m: scenario.rig.flag_width_m,
       blocked_level: scenario.rig.blocked_level,
-      channel: scenario.rig.channel,
+      channel: scenario.rig.beams[0].channel,
     },
     clock: {
       hz: scenario.device.hz,
@@ -170,7 +170,7 @@ function simulateDeviceFrom(run: Run): { device: DeviceModel } {
     device: new DeviceModel(
       {
         device: run.scenario.device,
-        channel: run.scenario.rig.channel,
+        channel: run.scenario.rig.beams[0].channel,
         initialLevel: run.initialLevel,
         otherLevels: run.otherLevels,
         schedule: run.schedule,

@@ -1,6 +1,6 @@
 // The contract every CLI command implements, and the shared option parser that gives each one --help.
 import { parseArgs } from 'node:util';
-import { UserError } from './errors.ts';
+import { UserError } from '../errors.ts';
 
 /** One option of a command, as shown in its help and parsed by node:util parseArgs. */
 export interface OptionSpec {

@@ -1,7 +1,7 @@
 // CLI entry: dispatches `halfswing <command>` and turns expected failures into one line and an exit code.
 import { COMMANDS } from './registry.ts';
 import { commandHelp, parseCommandArgs, type CommandIo } from './command.ts';
-import { isUserError } from './errors.ts';
+import { isUserError } from '../errors.ts';
 
 function topHelp(): string {
   const w = Math.max(...COMMANDS.map((c) => c.name.length)) + 2;

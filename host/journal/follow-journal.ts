@@ -1,7 +1,7 @@
 // Follows a journal while the recorder writes it (tail -f), or replays a finished one paced by its host time.
 import { open, stat, type FileHandle } from 'node:fs/promises';
 import { JOURNAL_MAGIC, parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
-import { UserError } from '../cli/errors.ts';
+import { UserError } from '../errors.ts';
 
 export interface FollowOptions {
   /** Keep waiting at the end of the file for more lines (default true). False: stop at the end (replay). */

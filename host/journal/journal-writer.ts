@@ -2,7 +2,7 @@
 import { closeSync, fstatSync, fsyncSync, ftruncateSync, openSync, readSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { journalAnnotation, journalData, journalHeader, JOURNAL_MAGIC, parseJournalLine, type AnnotationWord } from '../../protocol/journal.ts';
-import { UserError } from '../cli/errors.ts';
+import { UserError } from '../errors.ts';
 
 /** The file operations the writer uses; tests replace them to simulate a full disk or a read-only mount. */
 export interface WriterIo {

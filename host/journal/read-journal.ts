@@ -3,7 +3,7 @@ import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import { createInterface } from 'node:readline';
 import { JOURNAL_MAGIC, parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
-import { UserError } from '../cli/errors.ts';
+import { UserError } from '../errors.ts';
 
 /** Checks that `path` is a readable journal file; throws UserError with a one-line reason otherwise. */
 export async function assertJournalFile(path: string): Promise<void> {

@@ -1,7 +1,7 @@
 // Writes the recorder's machine-readable status file atomically (temp file, fsync, rename), for lab monitoring.
 import { closeSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { UserError } from '../cli/errors.ts';
+import { UserError } from '../errors.ts';
 
 /** Replaces `path` with `value` as JSON, so a reader never sees a half-written file. */
 export function writeStatusFile(path: string, value: unknown): void {

@@ -3,7 +3,7 @@ import type { BindingInterface } from './binding-types.ts';
 import { decodeLine } from '../../protocol/decode.ts';
 import type { AnnotationWord } from '../../protocol/journal.ts';
 import { PROTOCOL_VERSION, type HelloRecord } from '../../protocol/records.ts';
-import { UserError } from '../cli/errors.ts';
+import { UserError } from '../errors.ts';
 import { DEFAULT_BAUD, HEARTBEAT_DEFAULT_MS } from '../../protocol/link-defaults.ts';
 import { LineFramer } from './line-framer.ts';
 import { monotonicClock, type MicrosClock } from './monotonic-clock.ts';

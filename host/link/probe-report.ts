@@ -1,7 +1,7 @@
 // What `halfswing probe` measures on a connected board: hello, reply to `?`, heartbeat regularity, line errors, levels.
 import { decodeLine } from '../../protocol/decode.ts';
 import type { HelloRecord } from '../../protocol/records.ts';
-import type { Rig } from '../../protocol/rig.ts';
+import type { AnyRig } from '../../protocol/rig.ts';
 import { SequenceTracker } from '../../protocol/sequence.ts';
 import type { DeviceLink } from './device-link.ts';
 
@@ -103,19 +103,19 @@ export async function probeBoard(o: ProbeOptions): Promise<ProbeReport> {
 }
 
 /** "ch0 high (beam clear)" per channel, using the rig's blocked level when given. */
-export function describeLevels(levels: number, channels: number, rig?: Rig): string[] {
+export function describeLevels(levels: number, channels: number, rig?: AnyRig): string[] {
   const out: string[] = [];
   for (let ch = 0; ch < channels; ch++) {
     const high = ((levels >> ch) & 1) === 1;
     let beam = '';
-    if (rig && rig.channel === ch) beam = ` (beam ${high === (rig.blocked_level === 'high') ? 'BLOCKED' : 'clear'})`;
+    if (rig && rig.beams.some((b) => b.channel === ch)) beam = ` (beam ${high === (rig.blocked_level === 'high') ? 'BLOCKED' : 'clear'})`;
     out.push(`ch${ch} ${high ? 'high' : 'low'}${beam}`);
   }
   return out;
 }
 
 /** The probe report as text lines. */
-export function formatProbe(r: ProbeReport, rig?: Rig): string[] {
+export function formatProbe(r: ProbeReport, rig?: AnyRig): string[] {
   const h = r.hello;
   const f = (v: number): string => v.toFixed(1);
   const out = [

@@ -5,7 +5,7 @@
 // `live`) at any moment never changes later numbers.
 import type { JournalEntry } from '../../protocol/journal.ts';
 import type { RejectReason } from '../../protocol/records.ts';
-import { parseRig, type Rig } from '../../protocol/rig.ts';
+import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import { SequenceTracker } from '../../protocol/sequence.ts';
 import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
 import { analyzeRun } from '../analysis/analyze-run.ts';
@@ -205,7 +205,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         const ticks = unwrap(rec.ticks);
         if (!bootFirst[boot]) bootFirst[boot] = { hostUs, ticks };
         const rig = rigNow();
-        const ch = rig ? rig.channel : 0;
+        const ch = rig ? rig.beams[0].channel : 0;
         if (rec.ch === ch) {
           const blocks = (rig?.blocked_level ?? 'low') === 'low' ? rec.edge === 'f' : rec.edge === 'r';
           if (blocks) pb.blockStart(boot, ticks);
@@ -275,7 +275,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
           return;
         case 'rig':
           if (!opts.rig && !journalRig) {
-            const r = parseRig(entry.json);
+            const r = parseSimpleRig(entry.json);
             if (r.ok) journalRig = r.rig;
             else warnings.push(`the journal's #rig line is not usable (${r.error}); give --rig FILE`);
           }

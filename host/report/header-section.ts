@@ -31,7 +31,7 @@ function rigRows(rig: Rig): string[] {
   rows.push(row('air density', `${esc(sig(rig.air_density_kg_m3, 3))} kg/m³`));
   if (rig.latitude_deg !== undefined) rows.push(row('latitude', `${esc(sig(rig.latitude_deg, 6))}°`));
   if (rig.elevation_m !== undefined) rows.push(row('elevation', `${esc(sig(rig.elevation_m, 4))} m`));
-  rows.push(row('gate', `channel ${rig.channel}, beam blocked reads ${esc(rig.blocked_level)}`));
+  rows.push(row('gate', `channel ${rig.beams.map((b) => b.channel).join(' and ')}, beam blocked reads ${esc(rig.blocked_level)}`));
   return rows;
 }
 

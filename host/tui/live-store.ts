@@ -1,7 +1,7 @@
 // The view's store outside React: feeds entries to the pipeline and publishes throttled snapshots.
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { decodeLine } from '../../protocol/decode.ts';
-import { parseRig, type Rig } from '../../protocol/rig.ts';
+import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
 import type { ResultSource } from '../pipeline/result-client.ts';
@@ -239,7 +239,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
         else if (entry.kind === 'start') header.splice(0, header.length, ...header.filter((c) => c.kind === 'magic'));
         header.push(entry);
         if (entry.kind === 'rig') {
-          const r = parseRig(entry.json);
+          const r = parseSimpleRig(entry.json);
           rig = r.ok ? r.rig : null;
         }
       } else if (entry.kind === 'data') {

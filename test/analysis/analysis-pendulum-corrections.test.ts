@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { airPeriodRel, dampingPeriodRel, effectiveLength, pendulumModel } from '../../host/analysis/pendulum-corrections.ts';
-import { parseRig } from '../../protocol/rig.ts';
+import { parseSimpleRig } from '../../protocol/rig.ts';
 
 // docs/references.md#ref-pendulum-corrections: the example pendulum L = 1.000 m, r = 12.7 mm, 0.5 g string, steel 7850 kg/m³ (M = 67.35 g)
 // or brass 8500 kg/m³ (M = 72.93 g), air 1.204 kg/m³, η = 1.81e-5 Pa·s, ω0 = 3.1316 rad/s. Forms after
@@ -35,7 +35,7 @@ describe('corrections from the simple pendulum (relative period changes ε = ΔT
   });
 
   it('the rig model applies what its inputs allow and lists the rest', () => {
-    const rig = parseRig({ length_m: 1, flag_width_m: 0.0254, bob_diameter_m: 0.0254, bob_mass_kg: 0.06735, string_mass_kg: 0.0005, bob_density_kg_m3: 7850, air_density_kg_m3: 1.204 });
+    const rig = parseSimpleRig({ length_m: 1, flag_width_m: 0.0254, bob_diameter_m: 0.0254, bob_mass_kg: 0.06735, string_mass_kg: 0.0005, bob_density_kg_m3: 7850, air_density_kg_m3: 1.204 });
     if (!rig.ok) throw new Error(rig.error);
     const m = pendulumModel(rig.rig, 3.1316, 2000);
     expect(m.lines.every((l) => l.applied)).toBe(true);
@@ -44,7 +44,7 @@ describe('corrections from the simple pendulum (relative period changes ε = ΔT
     expect(m.air_rel).toBeCloseTo((lo + 1.5714e-4) / 2, 8);
     expect(m.lines.find((l) => l.name.startsWith('air'))!.u_rel!).toBeGreaterThan((1.5714e-4 - lo) / 2 / Math.sqrt(3));
     expect(m.L_eff_m).toBeCloseTo(effectiveLength(1, r, 0.06735, 0.0005), 15);
-    const bare = parseRig({ length_m: 1, flag_width_m: 0.0254 });
+    const bare = parseSimpleRig({ length_m: 1, flag_width_m: 0.0254 });
     if (!bare.ok) throw new Error(bare.error);
     const b = pendulumModel(bare.rig, 3.1316, null);
     expect(b.L_eff_m).toBe(1);

@@ -1,7 +1,7 @@
 // The rig files shown in the docs parse and validate with the project's rig parser (protocol/rig.ts).
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseRig } from '../../protocol/rig.ts';
+import { parseSimpleRig } from '../../protocol/rig.ts';
 import { fencedBlocks } from './markdown.ts';
 
 const read = (p: string): string => readFileSync(new URL(`../../${p}`, import.meta.url), 'utf8');
@@ -20,12 +20,12 @@ describe('rig examples in the docs', () => {
   });
 
   it.each([...worked, ...first])('validates: %s', (text) => {
-    const r = parseRig(text);
+    const r = parseSimpleRig(text);
     expect(r.ok, r.ok ? '' : r.error).toBe(true);
   });
 
   it('the worked example carries the figures its text derives (L = A + r, the 0.36 mm budget rounded up)', () => {
-    const r = parseRig(worked[0]!);
+    const r = parseSimpleRig(worked[0]!);
     if (!r.ok) throw new Error(r.error);
     // measuring-the-rig.md: A = 1188.42 mm, r = 31.75/2 mm.
     expect(r.rig.length_m).toBeCloseTo((1188.42 + 31.75 / 2) / 1000, 4);
@@ -37,6 +37,6 @@ describe('rig examples in the docs', () => {
 
   it('a typo in a key is refused with the key named, as the notes promise', () => {
     const typo = worked[0]!.replace('"length_m"', '"lenght_m"');
-    expect(parseRig(typo)).toMatchObject({ ok: false, error: expect.stringContaining('lenght_m') });
+    expect(parseSimpleRig(typo)).toMatchObject({ ok: false, error: expect.stringContaining('lenght_m') });
   });
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { openDeviceLink } from '../../host/link/device-link.ts';
 import { describeLevels, formatProbe, probeBoard } from '../../host/link/probe-report.ts';
-import { parseRig } from '../../protocol/rig.ts';
+import { parseSimpleRig } from '../../protocol/rig.ts';
 import { DeviceLines } from './helpers/device-lines.ts';
 import { FakeBinding } from './helpers/fake-binding.ts';
 
@@ -37,13 +37,13 @@ describe('probe', () => {
     expect(r.deviceIntervalMs).toBeCloseTo(1000, 9);
     expect(r.lineErrors).toBe(1);
     expect(r.problems).toEqual(['1 of 7 lines rejected (noise on the cable, or a wrong baud)']);
-    const rig = parseRig({ length_m: 1, flag_width_m: 0.02, blocked_level: 'low', channel: 0 });
+    const rig = parseSimpleRig({ length_m: 1, flag_width_m: 0.02, blocked_level: 'low', channel: 0 });
     if (!rig.ok) throw new Error(rig.error);
     expect(formatProbe(r, rig.rig).join('\n')).toMatch(/gates {6}ch0 high \(beam clear\), ch1 low/);
   });
 
   it('a blocked beam reads BLOCKED for the rig channel only', () => {
-    const rig = parseRig({ length_m: 1, flag_width_m: 0.02, blocked_level: 'high', channel: 1 });
+    const rig = parseSimpleRig({ length_m: 1, flag_width_m: 0.02, blocked_level: 'high', channel: 1 });
     if (!rig.ok) throw new Error(rig.error);
     expect(describeLevels(0b10, 2, rig.rig)).toEqual(['ch0 low', 'ch1 high (beam BLOCKED)']);
     expect(describeLevels(0b10, 2)).toEqual(['ch0 low', 'ch1 high']);

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { parseRig, type Rig } from '../../protocol/rig.ts';
+import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import { loadScenario } from '../../sim/index.ts';
 import { TestRng } from '../analysis/seeded-rng.ts';
 import { scenario, simAndAnalyze, truthAmplitudeAt } from './sim-run.ts';
 
 const DEG = 180 / Math.PI;
 const rigOf = (v: unknown): Rig => {
-  const r = parseRig(v);
+  const r = parseSimpleRig(v);
   if (!r.ok) throw new Error(r.error);
   return r.rig;
 };

@@ -92,7 +92,7 @@ export const syntheticRig: Rig = {
   flag_width_u_m: 0.0001,
   bob_diameter_m: 0.03,
   blocked_level: 'low',
-  channel: 0,
+  beams: [{ channel: 0, angle_deg: 0 }],
   air_density_kg_m3: 1.2,
   latitude_deg: 52.2,
   elevation_m: 40,

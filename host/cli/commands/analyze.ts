@@ -1,16 +1,17 @@
 // `halfswing analyze`: a journal → summary, JSON, per-swing CSV and HTML report; all outputs or none are written.
 import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { open, readFile, rename, rm } from 'node:fs/promises';
+import { open, rename, rm } from 'node:fs/promises';
 import { basename, dirname, relative, resolve, sep } from 'node:path';
-import { parseRig, type Rig } from '../../../protocol/rig.ts';
+import { assumedNote, isSimpleRig } from '../../../protocol/rig.ts';
 import { formatSummary } from '../../analysis/format-summary.ts';
 import { swingsCsvChunks } from '../../analysis/swings-csv.ts';
 import { analyzeJournalFile } from '../../pipeline/analyze-entries.ts';
 import type { ClockOption } from '../../pipeline/clock-choice.ts';
 import { renderReport } from '../../report/index.ts';
 import { optString, type Command } from '../command.ts';
-import { UserError } from '../errors.ts';
+import { UserError } from '../../errors.ts';
+import { loadRigFile } from '../rig-file.ts';
 
 /** Parses `--clock`: host, pps, nominal, or a rate error in ppm. */
 export function parseClockOption(s: string | undefined): ClockOption {
@@ -19,18 +20,6 @@ export function parseClockOption(s: string | undefined): ClockOption {
   const v = Number(s);
   if (s.trim() !== '' && Number.isFinite(v) && Math.abs(v) < 1e5) return v;
   throw new UserError(`--clock must be host, pps, nominal or a rate error in ppm (e.g. -35.2), not '${s}'`, 2);
-}
-
-async function loadRig(path: string, cwd: string): Promise<Rig> {
-  let text: string;
-  try {
-    text = await readFile(resolve(cwd, path), 'utf8');
-  } catch (e) {
-    throw new UserError(`cannot read rig file ${path} (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
-  }
-  const r = parseRig(text);
-  if (!r.ok) throw new UserError(`rig file ${path}: ${r.error}`);
-  return r.rig;
 }
 
 async function sha256(path: string): Promise<string> {
@@ -79,13 +68,18 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const journal = resolve(io.cwd, args.positionals[0]!);
     const clock = parseClockOption(optString(args, 'clock'));
     const rigPath = optString(args, 'rig');
-    const rig = rigPath !== undefined ? await loadRig(rigPath, io.cwd) : undefined;
+    // The note on assumed uncertainties comes once, below, for the rig actually used (file or journal).
+    const rig = rigPath !== undefined ? loadRigFile(rigPath, io.cwd, () => {}) : undefined;
+    if (rig && !isSimpleRig(rig)) throw new UserError(`rig file ${rigPath}: analyze handles the ordinary pendulum only so far, not "reversible"`);
     const csvPath = optString(args, 'csv');
     const reportPath = optString(args, 'report');
     const rows = csvPath !== undefined;
     const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows });
     if (result.passes + result.counts.rejected_passes + (result.counts.unsequenced_passes ?? 0) === 0)
-      throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.channel ?? 0}, and did the bob swing?)`);
+      throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.beams[0].channel ?? 0}, and did the bob swing?)`);
+    const used = pipeline.rig();
+    const note = used ? assumedNote(used) : null;
+    if (note) io.stderr.write(`halfswing: note: ${note}\n`);
     const files: { path: string; chunks: Iterable<string> }[] = [];
     if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), chunks: swingsCsvChunks(result.swings) });
     if (reportPath !== undefined) {

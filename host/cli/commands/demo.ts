@@ -1,7 +1,7 @@
 // `halfswing demo`: the simulated rig in the live view, the default of `npm start`.
 import type { Command } from '../command.ts';
 import { optNumber, optString } from '../command.ts';
-import { UserError } from '../errors.ts';
+import { UserError } from '../../errors.ts';
 import { processViewIo } from './view-process.ts';
 
 /**

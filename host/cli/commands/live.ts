@@ -1,9 +1,8 @@
 // `halfswing live`: own the board's port, journal every line, and show the swing live.
-import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import type { Command } from '../command.ts';
 import { optString } from '../command.ts';
-import { UserError } from '../errors.ts';
+import { UserError } from '../../errors.ts';
 import { processViewIo } from './view-process.ts';
 
 /** A journal name from the start time, e.g. halfswing-20260105-090000.journal. */
@@ -30,15 +29,9 @@ estimates from now, ? help. For long unattended runs use 'halfswing record' and 
     const rigPath = optString(args, 'rig');
     if (!port) throw new UserError('live: give the board with --port P (or --port auto; halfswing ports lists them)', 2);
     if (!rigPath) throw new UserError('live: give the rig description with --rig FILE (length_m and flag_width_m at least)', 2);
-    const { parseRig, rigJson } = await import('../../../protocol/rig.ts');
-    let text: string;
-    try {
-      text = readFileSync(resolve(io.cwd, rigPath), 'utf8');
-    } catch (e) {
-      throw new UserError(`cannot read rig file ${rigPath} (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
-    }
-    const parsed = parseRig(text);
-    if (!parsed.ok) throw new UserError(`rig file ${rigPath}: ${parsed.error}`);
+    const { isSimpleRig, rigJson } = await import('../../../protocol/rig.ts');
+    const { loadRigFile } = await import('../rig-file.ts');
+    const rig = loadRigFile(rigPath, io.cwd, (line) => void io.stderr.write(`${line}\n`));
 
     const start = new Date();
     const journalPath = resolve(io.cwd, optString(args, 'journal') ?? defaultJournalName(start));
@@ -53,7 +46,7 @@ estimates from now, ? help. For long unattended runs use 'halfswing record' and 
     // No await between opening the link and subscribing to it: its first events must not be missed.
     const nowUs = monotonicClock();
     const link = openDeviceLink({ port, now: nowUs });
-    const feed = deviceFeed({ link, writer, nowUs, start, source: `halfswing live, port ${port}`, rigJson: rigJson(parsed.rig), portLabel: port });
-    return runLiveView({ feed, createPipeline: () => createRunPipeline({ rig: parsed.rig }), ...processViewIo(io) });
+    const feed = deviceFeed({ link, writer, nowUs, start, source: `halfswing live, port ${port}`, rigJson: rigJson(rig), portLabel: port });
+    return runLiveView({ feed, createPipeline: () => createRunPipeline(isSimpleRig(rig) ? { rig } : {}), ...processViewIo(io) });
   },
 };

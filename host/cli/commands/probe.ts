@@ -4,7 +4,7 @@ import { openDeviceLink } from '../../link/device-link.ts';
 import { monotonicClock } from '../../link/monotonic-clock.ts';
 import { formatProbe, probeBoard } from '../../link/probe-report.ts';
 import { optNumber, optString, type Command } from '../command.ts';
-import { loadRigFile } from './record.ts';
+import { loadRigFile } from '../rig-file.ts';
 
 export const command: Command = {
   name: 'probe',
@@ -24,7 +24,7 @@ Block and unblock the beam by hand during the probe and run it again to see the 
 Exit status 0 when the board looks healthy, 1 when the report lists problems.`,
   async run(args, io) {
     const rigPath = optString(args, 'rig');
-    const rig = rigPath ? loadRigFile(rigPath) : undefined;
+    const rig = rigPath ? loadRigFile(rigPath, io.cwd, (line) => void io.stderr.write(`${line}\n`)) : undefined;
     const now = monotonicClock();
     const link = openDeviceLink({
       port: optString(args, 'port') ?? 'auto',

@@ -1,10 +1,10 @@
 // `halfswing record`: records a board unattended into an append-only journal, for hours or days.
-import { readFileSync } from 'node:fs';
-import { parseRig, rigJson, type Rig } from '../../../protocol/rig.ts';
+import { isSimpleRig, rigJson } from '../../../protocol/rig.ts';
 import { openJournalWriter } from '../../journal/journal-writer.ts';
 import { runRecorder } from '../../journal/recorder.ts';
 import { statusLine, type RecorderStatus } from '../../journal/recorder-status.ts';
 import { writeStatusFile } from '../../journal/status-file.ts';
+import { resolve } from 'node:path';
 import { DEFAULT_BAUD } from '../../../protocol/link-defaults.ts';
 import { openDeviceLink } from '../../link/device-link.ts';
 import { monotonicClock } from '../../link/monotonic-clock.ts';
@@ -12,23 +12,10 @@ import { holdSleepInhibitor } from '../../link/sleep-inhibitor.ts';
 import { autosuspendWarning } from '../../link/usb-power.ts';
 import { createRunPipeline } from '../../pipeline/run-pipeline.ts';
 import { optNumber, optString, type Command } from '../command.ts';
-import { UserError } from '../errors.ts';
+import { UserError } from '../../errors.ts';
+import { loadRigFile } from '../rig-file.ts';
 
 const SIGNALS = ['SIGINT', 'SIGTERM', 'SIGHUP'] as const;
-
-/** Reads and validates a rig file; a typo in a key is named. */
-export function loadRigFile(path: string): Rig {
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new UserError(code === 'ENOENT' ? `no such rig file: ${path}` : `cannot read rig file ${path} (${code ?? 'error'})`);
-  }
-  const r = parseRig(text);
-  if (!r.ok) throw new UserError(`rig file ${path}: ${r.error}`);
-  return r.rig;
-}
 
 export const command: Command = {
   name: 'record',
@@ -66,10 +53,10 @@ a new device segment in the same section. Running again with the same --journal 
     const flood = optNumber(args, 'flood', { min: 0 })!;
     const statusPath = optString(args, 'status');
     const quiet = args.values.quiet === true;
-    const rig = loadRigFile(rigPath);
-    // The journal is checked (writable, right format) before the port is touched.
-    const writer = openJournalWriter(journalPath);
     const say = (line: string): void => void io.stderr.write(`${line}\n`);
+    const rig = loadRigFile(rigPath, io.cwd, say);
+    // The journal is checked (writable, right format) before the port is touched.
+    const writer = openJournalWriter(resolve(io.cwd, journalPath));
 
     const ac = new AbortController();
     let stopWhy = 'shutdown';
@@ -126,7 +113,7 @@ a new device segment in the same section. Running again with the same --journal 
         link,
         writer,
         header: { start, source: `halfswing 0.1.0 record --port ${port} (${baud} baud)`, rigJson: rigJson(rig) },
-        pipeline: createRunPipeline({ rig }),
+        pipeline: createRunPipeline(isSimpleRig(rig) ? { rig } : {}),
         now,
         statusEveryMs: intervalS * 1000,
         onStatus,

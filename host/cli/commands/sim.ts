@@ -2,7 +2,7 @@
 import { once } from 'node:events';
 import { writeFile, rename } from 'node:fs/promises';
 import { optNumber, optString, type Command, type CommandIo, type ParsedArgs } from '../command.ts';
-import { UserError } from '../errors.ts';
+import { UserError } from '../../errors.ts';
 import {
   applyOverrides,
   DEFAULT_SCENARIO,

@@ -3,7 +3,7 @@ import { closeSync, openSync, readSync, statSync } from 'node:fs';
 import { resolve } from 'node:path';
 import type { Command } from '../command.ts';
 import { optNumber } from '../command.ts';
-import { UserError } from '../errors.ts';
+import { UserError } from '../../errors.ts';
 import { isJournalMagic } from '../../../protocol/journal.ts';
 import { processViewIo } from './view-process.ts';
 

@@ -1,4 +1,4 @@
-// Expected, user-facing failures: one clear line and an exit code, never a stack trace.
+// Expected, user-facing failures anywhere in the host: one clear line and an exit code, never a stack trace.
 
 /** A failure the user can act on (bad input, missing file, busy port). `main` prints its message alone. */
 export class UserError extends Error {
