@@ -15,9 +15,9 @@ export const EARTH_RATE_RAD_S = 7.292115e-5;
 
 const rad = (deg: number): number => (deg * Math.PI) / 180;
 
-/** The rig's beams, or its one beam on `channel` at angle 0. */
+/** The rig's beams (a rig file's `channel` is one beam at angle 0). */
 export function rigBeams(s: Scenario): readonly Beam[] {
-  return s.rig.beams ?? [{ channel: s.rig.channel as 0 | 1, angle_deg: 0 }];
+  return s.rig.beams;
 }
 
 /**

@@ -274,7 +274,8 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
   const physics = { ...DEFAULTS.physics, ...o.physics } as Scenario['physics'];
   if (Math.abs(physics.release_deg) <= (Math.asin(Math.min(1, (rig.rig.flag_width_m / 2) / rig.rig.length_m)) * 180) / Math.PI)
     fail('scenario.physics.release_deg', 'is too small for the bob to leave the beam');
-  const plane = o.plane !== undefined || rig.rig.beams !== undefined ? { ...PLANE_DEFAULTS, ...o.plane } : undefined;
+  // A rig file that names its beams asks for the two-direction swing.
+  const plane = o.plane !== undefined || o.rig?.beams !== undefined ? { ...PLANE_DEFAULTS, ...o.plane } : undefined;
   if (plane && (physics.quadratic_per_rad || physics.coulomb_rad))
     fail('scenario.physics', 'of a two-direction (spherical) swing takes linear_q only: drop quadratic_per_rad and coulomb_rad');
   return {
@@ -310,20 +311,13 @@ export interface ScenarioOverrides {
   readonly no_faults?: boolean;
 }
 
-/** The rig's own keys, as a rig file would give them (`beams` replaces `channel`). */
-function rigKeys(rig: Rig): Partial<Rig> {
-  if (!rig.beams) return rig;
-  const { channel: _, ...rest } = rig;
-  return rest;
-}
-
 /** A scenario with overrides applied, validated again. */
 export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
   const def = <T>(v: T | undefined, d: T): T => (v === undefined ? d : v);
   const raw = {
     name: s.name,
     description: s.description,
-    rig: { ...rigKeys(s.rig), length_m: def(o.length_m, s.rig.length_m) },
+    rig: { ...s.rig, length_m: def(o.length_m, s.rig.length_m) },
     duration_s: def(o.duration_s, s.duration_s),
     physics: {
       ...s.physics,

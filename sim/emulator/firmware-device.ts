@@ -155,7 +155,7 @@ export class FirmwareDevice {
   }
 
   private channelOf(e: { readonly ch?: number }): 0 | 1 {
-    const ch = e.ch ?? this.run.scenario.rig.channel;
+    const ch = e.ch ?? this.run.scenario.rig.beams[0].channel;
     if (ch !== 0 && ch !== 1) throw new EmulatorUnavailable(`the emulated board has channels 0 and 1 only, not ${ch}`);
     return ch;
   }

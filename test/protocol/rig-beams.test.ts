@@ -9,7 +9,7 @@ describe('rig beams', () => {
     const r = parseRig({ ...base, beams: [{ channel: 1, angle_deg: 45 }, { channel: 0, angle_deg: -45 }] });
     expect(r.ok).toBe(true);
     if (!r.ok) return;
-    expect(r.rig.channel).toBe(1);
+    expect(r.rig.beams[0].channel).toBe(1);
     const text = rigJson(r.rig);
     expect(JSON.parse(text).channel).toBeUndefined();
     expect(parseRig(text)).toEqual(r);
@@ -31,8 +31,10 @@ describe('rig beams', () => {
     }
   });
 
-  it('leaves a rig without beams as it was', () => {
+  it('reads a rig without beams as one beam on its channel at 0°, and writes it back as channel', () => {
     const r = parseRig(base);
-    expect(r.ok && r.rig.beams === undefined && r.rig.channel === 0).toBe(true);
+    expect(r.ok && r.rig.beams).toEqual([{ channel: 0, angle_deg: 0 }]);
+    expect(r.ok && JSON.parse(rigJson(r.rig))).toMatchObject({ channel: 0 });
+    expect(r.ok && JSON.parse(rigJson(r.rig)).beams).toBeUndefined();
   });
 });
