@@ -1,5 +1,5 @@
 // Scenario files: a rig, its true physics, gate, device, host link and faults, validated strictly.
-import { parseSimpleRig, type Rig } from '../protocol/rig.ts';
+import { parseSimpleRig, rigJson, type Rig } from '../protocol/rig.ts';
 import {
   CH0_MIN_PULSE_TICKS,
   CHANNEL_LATENCY_TICKS,
@@ -317,7 +317,8 @@ export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
   const raw = {
     name: s.name,
     description: s.description,
-    rig: { ...s.rig, length_m: def(o.length_m, s.rig.length_m) },
+    // The rig as its file gives it: a plain one-beam rig must not come back naming beams.
+    rig: { ...(JSON.parse(rigJson(s.rig)) as object), length_m: def(o.length_m, s.rig.length_m) },
     duration_s: def(o.duration_s, s.duration_s),
     physics: {
       ...s.physics,

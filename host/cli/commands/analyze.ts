@@ -77,9 +77,6 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows });
     if (result.passes + result.counts.rejected_passes + (result.counts.unsequenced_passes ?? 0) === 0)
       throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.beams[0].channel ?? 0}, and did the bob swing?)`);
-    const used = pipeline.rig();
-    const note = used ? assumedNote(used) : null;
-    if (note) io.stderr.write(`halfswing: note: ${note}\n`);
     const files: { path: string; chunks: Iterable<string> }[] = [];
     if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), chunks: swingsCsvChunks(result.swings) });
     if (reportPath !== undefined) {
@@ -87,6 +84,10 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
       files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, meta)] });
     }
     await writeAll(files);
+    // Beside the summary only: --json is read by programs, and its budget rows carry the assumed values.
+    const used = pipeline.rig();
+    const note = used && args.values.json !== true ? assumedNote(used) : null;
+    if (note) io.stderr.write(`halfswing: note: ${note}\n`);
     if (args.values.json === true) {
       const { swings: _rows, ...rest } = result;
       io.stdout.write(`${JSON.stringify(rest)}\n`);
