@@ -10,7 +10,7 @@ import type { State6 } from './spherical-taylor.ts';
 import type { BobEvent } from './swing.ts';
 import type { FaultCounts, PlaneTruth } from './truth.ts';
 
-/** Earth's rotation rate, rad/s (IERS conventions; docs/references.md#ref-earth-rotation). */
+/** Earth's rotation rate, rad/s (IERS conventions; docs/references.md#ref-swing-plane). */
 export const EARTH_RATE_RAD_S = 7.292115e-5;
 
 const rad = (deg: number): number => (deg * Math.PI) / 180;
