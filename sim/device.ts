@@ -1,4 +1,4 @@
-// The device model: captures pin edges in ticks, sends H/E/T/R lines like the firmware, reboots, stalls and drops.
+// The device model: captures pin edges in ticks, sends H/E/T/R (and, with a room, S/A) lines like the firmware, reboots, stalls and drops.
 import { encodeRecord } from '../protocol/encode.ts';
 import { SEQ_MODULO, type DeviceRecord } from '../protocol/records.ts';
 import { CHANNEL_LATENCY_TICKS, COMMAND_MAX_BYTES, HEARTBEAT_MAX_MS, HEARTBEAT_MIN_MS } from '../protocol/link-defaults.ts';
@@ -6,6 +6,7 @@ import { DeviceClock } from './device-clock.ts';
 import type { FaultSchedule, Window } from './fault-schedule.ts';
 import type { PinEdge } from './optics.ts';
 import type { Rng } from './prng.ts';
+import { roomAt, type RoomSetup } from './room.ts';
 import type { Scenario } from './scenario.ts';
 import type { BootTruth, FaultCounts } from './truth.ts';
 
@@ -32,7 +33,7 @@ interface Pending {
   line: string | undefined;
 }
 
-type Input = 'edge' | 'heartbeat' | 'check' | 'reboot' | 'ready' | 'stall' | 'resume';
+type Input = 'edge' | 'heartbeat' | 'air' | 'check' | 'reboot' | 'ready' | 'stall' | 'resume';
 
 export interface DeviceOptions {
   readonly device: Scenario['device'];
@@ -46,6 +47,8 @@ export interface DeviceOptions {
   readonly boots: BootTruth[];
   /** No line is formed after this host time. */
   readonly tEnd: number;
+  /** A room sensor reading this room (host time since #start), as the firmware's BME280 does. */
+  readonly room?: RoomSetup;
 }
 
 export class DeviceModel {
@@ -66,6 +69,9 @@ export class DeviceModel {
   private hbTicksPer = 0;
   private nextHbTicks = Infinity;
   private nextHbAt = Infinity;
+  private airTicksPer = 0;
+  private nextAirTicks = Infinity;
+  private nextAirAt = Infinity;
   private stalledUntil: number | undefined;
   private stallQueued = 0;
   /** Keeps lines released at the end of a stall in their original order. */
@@ -111,7 +117,31 @@ export class DeviceModel {
     if (!this.up || this.stalledUntil !== undefined) return;
     const cmdLine = text.replace(/\r$/, '');
     if (cmdLine.length === 0) return;
-    this.queue(Math.max(t + REPLY_LATENCY_S, this.lastAt), this.reply(cmdLine, t));
+    const body = this.reply(cmdLine, t);
+    this.queue(Math.max(t + REPLY_LATENCY_S, this.lastAt), body);
+    if (body.kind === 'H' || (body.kind === 'R' && body.ok && body.cmd === 'A')) this.sensorState(t + REPLY_LATENCY_S);
+  }
+
+  /** The S line the firmware sends after a hello and when readings are switched on or off. */
+  private sensorState(t: number): void {
+    if (this.o.room) this.queue(Math.max(t, this.lastQueued()), { kind: 'S', state: this.airTicksPer > 0 ? 0 : 8 });
+  }
+
+  /** Readings every `s` seconds of device time from `fromTicks` (0: off). */
+  private setAir(s: number, fromTicks: number): void {
+    this.airTicksPer = this.cfg.hz * s;
+    this.nextAirTicks = s > 0 ? fromTicks : Infinity;
+    this.nextAirAt = s > 0 ? this.clock!.timeAt(this.nextAirTicks) : Infinity;
+  }
+
+  /** A reading rounded as the firmware sends it: hundredths of °C, Pa, thousandths of %RH. */
+  private onAir(t: number): void {
+    const c = roomAt(this.o.room!, t);
+    const ticks = Math.floor(this.clock!.ticksAt(t)) % TICKS_MAX;
+    const hum = Math.min(100_000, Math.max(0, Math.round(c.rhPct * 1000)));
+    this.queue(Math.max(t + 0.011 + this.emitLatency(), this.lastQueued()), { kind: 'A', ticks, temp: Math.round(c.tempC * 100), press: Math.round(c.pressPa), hum });
+    this.nextAirTicks += this.airTicksPer;
+    this.nextAirAt = this.clock!.timeAt(this.nextAirTicks);
   }
 
   /** The firmware's grammar (firmware/src/command.c): numbers of any length saturate, so huge values are `range`. */
@@ -121,6 +151,14 @@ export class DeviceModel {
     const err = (reason: string): Body => ({ kind: 'R', ok: false, cmd, reason, fields: [] });
     if (text.length > MAX_COMMAND_CHARS) return err('too-long');
     if (c === '?') return text === '?' ? this.hello() : err('syntax');
+    if (c === 'A' && this.o.room) {
+      const a = /^A ([0-9]+)$/.exec(text);
+      if (!a) return err('syntax');
+      const s = Number(a[1]);
+      if (s > 3600) return err('range');
+      this.setAir(s, this.clock!.ticksAt(t));
+      return { kind: 'R', ok: true, cmd, fields: [`s=${s}`] };
+    }
     if (c !== 'P' && c !== 'C') return err('unknown');
     const m = (c === 'P' ? /^P ([0-9]+)$/ : /^C ([0-9a-fA-F]+)$/).exec(text);
     if (!m) return err('syntax');
@@ -178,6 +216,7 @@ export class DeviceModel {
       if (t < best[0]) best = [t, k];
     };
     if (this.up && this.stalledUntil === undefined) consider(this.nextHbAt, 'heartbeat');
+    if (this.up && this.stalledUntil === undefined) consider(this.nextAirAt, 'air');
     if (this.window && this.window.missed > 0) consider(this.window.checkAt, 'check');
     if (!this.up) consider(this.readyAt, 'ready');
     if (this.ri < s.reboots.length) consider(s.reboots[this.ri]!.t, 'reboot');
@@ -215,6 +254,9 @@ export class DeviceModel {
         return;
       case 'heartbeat':
         this.onHeartbeat(t);
+        return;
+      case 'air':
+        this.onAir(t);
         return;
       case 'check':
         this.resolveWindow();
@@ -383,6 +425,11 @@ export class DeviceModel {
     this.o.boots.push({ host_s: t, boot_id: this.bootId, phase_ticks: phase, cause: this.readyCause });
     this.queue(Math.max(t + this.emitLatency(), this.lastQueued()), this.hello());
     this.setHeartbeat(this.cfg.heartbeat_ms, phase);
+    if (this.o.room) {
+      // The firmware probes the sensor at boot: first reading and its state a few ms after the hello.
+      this.setAir(this.o.room.interval_s, phase + 0.035 * this.cfg.hz);
+      this.sensorState(t);
+    }
   }
 
   private onStall(w: Window): void {
@@ -401,6 +448,10 @@ export class DeviceModel {
       this.o.counts.heartbeats_skipped++;
       this.nextHbTicks += this.hbTicksPer;
       this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+    }
+    while (this.nextAirAt < t) {
+      this.nextAirTicks += this.airTicksPer;
+      this.nextAirAt = this.clock!.timeAt(this.nextAirTicks);
     }
     this.stallQueued = 0;
   }

@@ -1,5 +1,6 @@
 // Scenario files: a rig, its true physics, gate, device, host link and faults, validated strictly.
 import { parseSimpleRig, rigJson, type Rig } from '../protocol/rig.ts';
+import type { RoomSetup } from './room.ts';
 import {
   CH0_MIN_PULSE_TICKS,
   CHANNEL_LATENCY_TICKS,
@@ -104,6 +105,8 @@ export interface Scenario {
    * with `beams`, switches the run to that model; absent, the bob swings in the plane of a single beam's normal.
    */
   readonly plane?: PlaneSetup;
+  /** The room: temperature, pressure and humidity over the run, the length following the temperature, and room readings from the device. */
+  readonly room?: RoomSetup;
 }
 
 export interface PlaneSetup {
@@ -260,6 +263,23 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
         usb_tail: sub({ kind: oneOf('exponential', 'lognormal'), mean_us: num(0), sigma: num(0) }, ['kind', 'mean_us']),
       }),
       faults: sub(FAULTS),
+      room: sub(
+        {
+          temp_mean_C: num(-40, 85),
+          temp_amp_K: num(0, 20),
+          temp_period_h: num(0.01, 1000, true),
+          press_Pa: num(30000, 110000),
+          front_Pa: num(-10000, 10000),
+          front_at_h: num(),
+          front_width_h: num(0.001, 1000, true),
+          rh_mean_pct: num(0, 100),
+          rh_amp_pct: num(0, 50),
+          expansion_per_K: num(-1e-3, 1e-3),
+          length_temp_C: num(-40, 85),
+          interval_s: num(1, 3600),
+        },
+        [],
+      ),
       plane: sub({ azimuth_deg: num(-360, 360), transverse_m_s: num(-10, 10), stiff_axis_deg: num(-360, 360), frequency_split: num(-0.5, 0.5), earth_rotation: bool }),
     },
     ['rig', 'duration_s', 'physics'],
@@ -289,8 +309,25 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     host: { ...DEFAULTS.host, ...o.host } as Scenario['host'],
     faults: (o.faults ?? {}) as Faults,
     ...(plane ? { plane } : {}),
+    ...(o.room !== undefined ? { room: { ...ROOM_DEFAULTS, ...o.room } as RoomSetup } : {}),
   };
 }
+
+/** A room with a ±2 K day, a 9 hPa falling front at mid-run and a brass-ish string (18 ppm/K, from memory: docs/references.md#ref-air-density). */
+const ROOM_DEFAULTS: RoomSetup = {
+  temp_mean_C: 21,
+  temp_amp_K: 2,
+  temp_period_h: 24,
+  press_Pa: 101325,
+  front_Pa: -900,
+  front_at_h: 4,
+  front_width_h: 1,
+  rh_mean_pct: 45,
+  rh_amp_pct: 5,
+  expansion_per_K: 18e-6,
+  length_temp_C: 21,
+  interval_s: 10,
+};
 
 const PLANE_DEFAULTS: PlaneSetup = { azimuth_deg: 0, transverse_m_s: 0, stiff_axis_deg: 0, frequency_split: 0, earth_rotation: true };
 
@@ -333,6 +370,7 @@ export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
     host: { ...s.host, start: def(o.start, s.host.start) },
     faults: o.no_faults ? {} : s.faults,
     ...(s.plane ? { plane: s.plane } : {}),
+    ...(s.room ? { room: s.room } : {}),
   };
   return parseScenario(JSON.parse(JSON.stringify(raw)), s.name);
 }

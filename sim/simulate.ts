@@ -6,6 +6,7 @@ import { drawFaultSchedule, type FaultSchedule } from './fault-schedule.ts';
 import { linkEntries, type LinkOptions, type SimEntry } from './link.ts';
 import { initialLevel, pinEdges, type OpticsSetup, type PinEdge } from './optics.ts';
 import { swingSetup, truePhysics } from './physics.ts';
+import { omega0SquaredAt } from './room.ts';
 import { beamsBlockedAtStart, emptyPlaneTruth, otherBeamLevels, planeEdges, sphericalSetup } from './plane-run.ts';
 import { Rng } from './prng.ts';
 import { applyOverrides, type Scenario, type ScenarioOverrides } from './scenario.ts';
@@ -39,7 +40,9 @@ export function prepareRun(base: Scenario, opts: SimOptions): Run {
   const scenario = applyOverrides(base, { ...opts, duration_s: opts.durationS ?? opts.duration_s });
   const tEnd = scenario.duration_s;
   const phys = truePhysics(scenario);
-  const setup = swingSetup(phys);
+  const room = scenario.room;
+  const w2AtHost = room ? omega0SquaredAt(scenario, room) : undefined;
+  const setup = { ...swingSetup(phys), ...(w2AtHost ? { w2At: (t: number) => w2AtHost(t + scenario.physics.release_at_s) } : {}) };
   const sph = scenario.plane ? sphericalSetup(scenario, phys) : undefined;
   const rng = new Rng(opts.seed);
   const schedule = drawFaultSchedule(scenario.faults, opts.seed, tEnd);
@@ -177,6 +180,7 @@ function simulateDeviceFrom(run: Run): { device: DeviceModel } {
         rng: run.rng.fork('device'),
         counts: run.truth.faults.counts,
         boots: run.truth.clock.boots,
+        ...(run.scenario.room ? { room: run.scenario.room } : {}),
         tEnd: run.scenario.duration_s,
       },
       run.edges(),

@@ -14,6 +14,11 @@ export interface SwingSetup {
   readonly theta0: number;
   /** The bob blocks the beam while θ is strictly between these angles (lo < hi). */
   readonly zone: readonly [number, number];
+  /**
+   * ω0² at time t since release when the length and the air follow the room: taken at every turning point,
+   * so each half-swing has its own (the room changes by parts in 1e9 within one).
+   */
+  readonly w2At?: (t: number) => number;
 }
 
 /** True when the bob at angle θ is inside the beam zone. */
@@ -27,7 +32,7 @@ export function inZone(setup: SwingSetup, theta: number): boolean {
  */
 export function* bobEvents(setup: SwingSetup, tEnd: number): Generator<BobEvent> {
   const { ode, omega0 } = setup;
-  const series = new TaylorSeries(ode);
+  let series = new TaylorSeries(setup.w2At ? { ...ode, w2: setup.w2At(0) } : ode);
   // Steps under half a period hold at most one turning point, so a sign change of θ' at the step's end finds
   // it; cutting there keeps θ monotonic within every step, so endpoint signs find every zone crossing.
   const hMax = (2 * Math.PI) / omega0 / 8;
@@ -68,6 +73,7 @@ export function* bobEvents(setup: SwingSetup, tEnd: number): Generator<BobEvent>
     if (turning) {
       yield { kind: 'turn', t, theta };
       sigma = -sigma;
+      if (setup.w2At) series = new TaylorSeries({ ...ode, w2: setup.w2At(t) });
       if (sticks(ode, theta)) {
         yield { kind: 'rest', t, theta };
         return;
