@@ -64,7 +64,7 @@ export function parseCommandArgs(cmd: Command, argv: readonly string[]): ParsedA
   }
   let parsed: ParsedArgs;
   try {
-    const r = parseArgs({ args: [...argv], options, allowPositionals: true, strict: true });
+    const r = parseArgs({ args: joinNegativeValues(cmd, argv), options, allowPositionals: true, strict: true });
     parsed = { values: r.values as ParsedArgs['values'], positionals: r.positionals };
   } catch (e) {
     const msg = (e as Error).message.split('\n')[0]!.replace(/\. To specify a positional.*$/, '');
@@ -75,6 +75,28 @@ export function parseCommandArgs(cmd: Command, argv: readonly string[]): ParsedA
   if (parsed.positionals.length > max)
     throw new UserError(`${cmd.name}: unexpected argument '${parsed.positionals[max]}' (usage: halfswing ${cmd.usage})`, 2);
   return parsed;
+}
+
+/**
+ * `--ppm -200` and `--duration -5`: a value that looks like a negative number is the option's value, not an
+ * option (parseArgs would call it ambiguous); such pairs are passed on as `--ppm=-200`.
+ */
+function joinNegativeValues(cmd: Command, argv: readonly string[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]!;
+    const next = argv[i + 1];
+    const name = a.startsWith('--') ? a.slice(2) : a.length === 2 && a[0] === '-' ? Object.keys(cmd.options).find((k) => cmd.options[k]!.short === a[1]) : undefined;
+    if (a === '--') {
+      out.push(...argv.slice(i));
+      break;
+    }
+    if (name !== undefined && cmd.options[name]?.type === 'string' && next !== undefined && /^-(\d|\.\d)/.test(next)) {
+      out.push(`--${name}=${next}`);
+      i++;
+    } else out.push(a);
+  }
+  return out;
 }
 
 /** Reads a string option, or undefined. */

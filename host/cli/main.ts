@@ -25,6 +25,7 @@ export async function runCli(argv: readonly string[], io: CommandIo): Promise<nu
     io.stderr.write(`halfswing: unknown command '${name}' (run 'halfswing --help' for the list)\n`);
     return 2;
   }
+  quietOnClosedPipe(io);
   try {
     const cmd = await entry.load();
     const parsed = parseCommandArgs(cmd, rest);
@@ -40,4 +41,21 @@ export async function runCli(argv: readonly string[], io: CommandIo): Promise<nu
     }
     throw e;
   }
+}
+
+/**
+ * A reader that goes away (`halfswing analyze --json | head -c 50`) makes the next write fail with EPIPE: that
+ * ends the output, not the program with a stack trace. Other stream errors become one line.
+ */
+function quietOnClosedPipe(io: CommandIo): void {
+  const onError = (e: NodeJS.ErrnoException): void => {
+    if (e.code === 'EPIPE') return;
+    try {
+      io.stderr.write(`halfswing: cannot write output (${e.code ?? e.message})\n`);
+    } catch {
+      // stderr is gone too: nothing left to tell.
+    }
+    process.exitCode = 1;
+  };
+  io.stdout.on('error', onError);
 }

@@ -1,6 +1,7 @@
 // Streaming reader of a finished journal file: yields parsed entries, checks the magic line first.
 import { createReadStream } from 'node:fs';
-import { stat } from 'node:fs/promises';
+import { constants } from 'node:fs';
+import { access, stat } from 'node:fs/promises';
 import { createInterface } from 'node:readline';
 import { JOURNAL_MAGIC, parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import { UserError } from '../errors.ts';
@@ -15,6 +16,12 @@ export async function assertJournalFile(path: string): Promise<void> {
     throw new UserError(code === 'ENOENT' ? `no such journal: ${path}` : `cannot read ${path} (${code ?? 'error'})`);
   }
   if (st.isDirectory()) throw new UserError(`${path} is a folder, not a journal file`);
+  try {
+    await access(path, constants.R_OK);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new UserError(`cannot read journal ${path}: ${code === 'EACCES' || code === 'EPERM' ? 'permission denied (check its owner and mode)' : (code ?? 'error')}`);
+  }
 }
 
 /**
@@ -62,10 +69,11 @@ export function parseJournalLineFast(raw: string): JournalEntry {
 
 /**
  * Yields the entries of a journal file in batches (one per chunk read), for batch analysis: far fewer async
- * steps than one per line. Same checks and errors as `readJournalFile`.
+ * steps than one per line. Same checks and errors as `readJournalFile`. With `input` (e.g. standard input) the
+ * bytes come from that stream and `path` only names it in messages.
  */
-export async function* readJournalBatches(path: string): AsyncGenerator<JournalEntry[]> {
-  await assertJournalFile(path);
+export async function* readJournalBatches(path: string, input?: AsyncIterable<string | Buffer>): AsyncGenerator<JournalEntry[]> {
+  if (!input) await assertJournalFile(path);
   let rest = '';
   let first = true;
   const handleFirst = (line: string): JournalEntry => {
@@ -75,8 +83,8 @@ export async function* readJournalBatches(path: string): AsyncGenerator<JournalE
     if (e.version !== 1) throw new UserError(`${path} is journal format ${e.version}; this version reads format 1`);
     return e;
   };
-  for await (const chunk of createReadStream(path, { encoding: 'latin1', highWaterMark: 1 << 16 })) {
-    const text = rest + (chunk as string);
+  for await (const chunk of input ?? createReadStream(path, { encoding: 'latin1', highWaterMark: 1 << 16 })) {
+    const text = rest + (typeof chunk === 'string' ? chunk : chunk.toString('latin1'));
     const out: JournalEntry[] = [];
     let from = 0;
     for (let nl = text.indexOf('\n'); nl >= 0; nl = text.indexOf('\n', from)) {

@@ -11,9 +11,16 @@ export function analyzeEntries(entries: Iterable<JournalEntry>, opts: PipelineOp
   return p.result();
 }
 
-/** Feeds a journal file through a pipeline and returns the pipeline (for its rig) and the result (`rows: false`: no swing rows). */
-export async function analyzeJournalFile(path: string, opts: PipelineOptions & { rows?: boolean } = {}): Promise<{ pipeline: RunPipeline; result: AnalysisResult }> {
+/**
+ * Feeds a journal file (or, with `input`, a stream such as standard input, named `path` in messages) through a
+ * pipeline and returns the pipeline (for its rig) and the result (`rows: false`: no swing rows).
+ */
+export async function analyzeJournalFile(
+  path: string,
+  opts: PipelineOptions & { rows?: boolean } = {},
+  input?: AsyncIterable<string | Buffer>,
+): Promise<{ pipeline: RunPipeline; result: AnalysisResult }> {
   const p = createRunPipeline(opts);
-  for await (const batch of readJournalBatches(path)) for (const e of batch) p.push(e);
+  for await (const batch of readJournalBatches(path, input)) for (const e of batch) p.push(e);
   return { pipeline: p, result: p.result({ rows: opts.rows ?? true }) };
 }

@@ -3,7 +3,7 @@ import { createWriteStream, type WriteStream } from 'node:fs';
 import { rename, rm, writeFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import type { Scenario } from '../scenario.ts';
-import { paceLines, type PaceOptions } from '../pace.ts';
+import { lineHostUs, paceLines, type PaceOptions } from '../pace.ts';
 import { simulateJournal, type SimOptions } from '../simulate.ts';
 import { truthJson, type Truth } from '../truth.ts';
 
@@ -41,14 +41,16 @@ async function writeTruth(path: string, truth: Truth): Promise<void> {
  * runs of days. Unpaced, nothing is left at either path unless both are complete. Paced, the truth is written
  * only when the run completes.
  */
-export async function writeScenarioJournal(scenario: Scenario, opts: JournalFileOptions): Promise<{ truth: Truth; lines: number }> {
+export async function writeScenarioJournal(scenario: Scenario, opts: JournalFileOptions): Promise<{ truth: Truth; lines: number; rigTimeS: number }> {
   const { lines, truth } = (opts.source ?? simulateJournal)(scenario, opts);
   if (opts.speed !== undefined && Number.isFinite(opts.speed)) {
     const out = createWriteStream(opts.path, { encoding: 'latin1' });
     let n = 0;
+    let lastUs = 0;
     try {
       for await (const line of paceLines(lines, { speed: opts.speed, signal: opts.signal, now: opts.now, sleep: opts.sleep })) {
         await put(out, `${line}\n`);
+        lastUs = lineHostUs(line) ?? lastUs;
         n++;
       }
     } finally {
@@ -56,7 +58,8 @@ export async function writeScenarioJournal(scenario: Scenario, opts: JournalFile
       await once(out, 'close');
     }
     if (truth.complete) await writeTruth(opts.path, truth);
-    return { truth, lines: n };
+    // A stop part-way leaves the rig time reached so far, not the planned duration.
+    return { truth, lines: n, rigTimeS: truth.complete ? truth.duration_s : lastUs / 1e6 };
   }
   const tmp = `${opts.path}.tmp-${process.pid}`;
   const out = createWriteStream(tmp, { encoding: 'latin1' });
@@ -76,7 +79,7 @@ export async function writeScenarioJournal(scenario: Scenario, opts: JournalFile
     await once(out, 'finish');
     await writeTruth(opts.path, truth);
     await rename(tmp, opts.path);
-    return { truth, lines: n };
+    return { truth, lines: n, rigTimeS: truth.duration_s };
   } catch (e) {
     out.destroy();
     await rm(tmp, { force: true });

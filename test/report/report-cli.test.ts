@@ -36,7 +36,8 @@ describe('analyze --report', () => {
   it('writes a report whose every number equals the --json output of the same command', async () => {
     const j = journal('run-a', 21, 900);
     const r = await cli(['analyze', j, '--json', '--report', 'run-a.html', '--csv', 'run-a.csv']);
-    expect(r.err).toBe('');
+    // With --json on stdout, the "wrote" lines go to stderr.
+    expect(r.err).toMatch(/^halfswing analyze: wrote run-a\.csv \(\d+ rows\)\nhalfswing analyze: wrote run-a\.html\n$/);
     expect(r.code).toBe(0);
     const json = JSON.parse(r.out) as Record<string, unknown>;
     const html = readFileSync(join(dir, 'run-a.html'), 'utf8');

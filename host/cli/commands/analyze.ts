@@ -1,7 +1,6 @@
 // `halfswing analyze`: a journal → summary, JSON, per-swing CSV and HTML report; all outputs or none are written.
-import { createHash, randomBytes } from 'node:crypto';
+import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { open, rename, rm } from 'node:fs/promises';
 import { basename, dirname, relative, resolve, sep } from 'node:path';
 import { assumedNote, isSimpleRig } from '../../../protocol/rig.ts';
 import { formatSummary } from '../../analysis/format-summary.ts';
@@ -12,6 +11,7 @@ import { renderReport } from '../../report/index.ts';
 import { optString, type Command } from '../command.ts';
 import { UserError } from '../../errors.ts';
 import { loadRigFile } from '../rig-file.ts';
+import { guardOutputs, writeWhole, type InputRef, type PlannedOutput } from '../../files/safe-output.ts';
 
 /** Parses `--clock`: host, pps, nominal, or a rate error in ppm. */
 export function parseClockOption(s: string | undefined): ClockOption {
@@ -28,30 +28,29 @@ async function sha256(path: string): Promise<string> {
   return h.digest('hex');
 }
 
-/** Writes all files (each as text chunks) through temporary names, then renames them; on any failure none is left. */
-async function writeAll(files: readonly { path: string; chunks: Iterable<string> }[]): Promise<void> {
-  const tag = `${process.pid}-${randomBytes(4).toString('hex')}`;
-  const temps = files.map((f) => ({ ...f, tmp: `${f.path}.tmp-${tag}` }));
-  try {
-    for (const f of temps) {
-      const fh = await open(f.tmp, 'wx');
-      try {
-        for (const c of f.chunks) await fh.write(c);
-      } finally {
-        await fh.close();
-      }
-    }
-    for (const f of temps) await rename(f.tmp, f.path);
-  } catch (e) {
-    await Promise.all(temps.map((f) => rm(f.tmp, { force: true })));
-    throw new UserError(`cannot write ${temps.map((f) => f.path).join(', ')} (${(e as NodeJS.ErrnoException).code ?? String(e)})`);
+/** Standard input as latin1 chunks, hashed as they pass, so the report can still name the journal's SHA-256. */
+async function* hashed(input: AsyncIterable<string | Buffer>, h: ReturnType<typeof createHash>): AsyncGenerator<Buffer> {
+  for await (const c of input) {
+    const b = typeof c === 'string' ? Buffer.from(c, 'latin1') : c;
+    h.update(b);
+    yield b;
   }
+}
+
+/** Refuses, before any reading, outputs that would land on an input (journal, stdin's file, rig) or a journal. */
+async function guardAnalyzeOutputs(cwd: string, journal: string | null, rigPath: string | undefined, csv: string | undefined, report: string | undefined): Promise<void> {
+  const planned: PlannedOutput[] = [];
+  if (csv !== undefined) planned.push({ path: resolve(cwd, csv), flag: '--csv' });
+  if (report !== undefined) planned.push({ path: resolve(cwd, report), flag: '--report' });
+  const inputs: InputRef[] = [journal === null ? { fd: 0, label: 'on standard input' } : { path: journal }];
+  if (rigPath !== undefined) inputs.push({ path: resolve(cwd, rigPath) });
+  await guardOutputs(planned, inputs);
 }
 
 export const command: Command = {
   name: 'analyze',
   summary: 'analyse a journal: period vs amplitude, T0, g with uncertainty, Q',
-  usage: 'analyze JOURNAL [--rig FILE] [--json] [--csv FILE] [--report FILE.html] [--clock host|pps|nominal|PPM]',
+  usage: 'analyze JOURNAL|- [--rig FILE] [--json] [--csv FILE] [--report FILE.html] [--clock host|pps|nominal|PPM]',
   positionals: [1, 1],
   options: {
     rig: { type: 'string', arg: 'FILE', description: "rig description (JSON); default: the journal's #rig line" },
@@ -65,7 +64,9 @@ The analysis is the same as the live view's: passes from the beam edges, full pe
 amplitude from the exact transit-time integral, reduction to zero amplitude with T/T0 = 2K(sin²(θ0/2))/π, and
 g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k = 1) unless marked k = 2.`,
   async run(args, io) {
-    const journal = resolve(io.cwd, args.positionals[0]!);
+    const fromStdin = args.positionals[0] === '-';
+    const journal = fromStdin ? 'standard input' : resolve(io.cwd, args.positionals[0]!);
+    if (fromStdin && io.stdin.isTTY) throw new UserError("analyze -: standard input is a terminal; pipe a journal in, e.g. 'halfswing sim --duration 10m | halfswing analyze -'", 2);
     const clock = parseClockOption(optString(args, 'clock'));
     const rigPath = optString(args, 'rig');
     // The note on assumed uncertainties comes once, below, for the rig actually used (file or journal).
@@ -73,17 +74,21 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     if (rig && !isSimpleRig(rig)) throw new UserError(`rig file ${rigPath}: analyze handles the ordinary pendulum only so far, not "reversible"`);
     const csvPath = optString(args, 'csv');
     const reportPath = optString(args, 'report');
-    const rows = csvPath !== undefined;
-    const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows });
+    await guardAnalyzeOutputs(io.cwd, fromStdin ? null : journal, rigPath, csvPath, reportPath);
+    const stdinHash = createHash('sha256');
+    const input = fromStdin ? hashed(io.stdin as AsyncIterable<string | Buffer>, stdinHash) : undefined;
+    const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows: csvPath !== undefined }, input);
     if (result.passes + result.counts.rejected_passes + (result.counts.unsequenced_passes ?? 0) === 0)
       throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.beams[0].channel ?? 0}, and did the bob swing?)`);
+    const name = fromStdin ? 'standard input' : basename(journal);
     const files: { path: string; chunks: Iterable<string> }[] = [];
     if (csvPath !== undefined) files.push({ path: resolve(io.cwd, csvPath), chunks: swingsCsvChunks(result.swings) });
     if (reportPath !== undefined) {
-      const meta = { journalName: basename(journal), journalSha256: await sha256(journal), rig: pipeline.rig(), csvName: csvPath !== undefined ? csvLinkFrom(resolve(io.cwd, reportPath), resolve(io.cwd, csvPath)) : null };
-      files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, meta)] });
+      const journalSha256 = fromStdin ? stdinHash.digest('hex') : await sha256(journal);
+      const csvName = csvPath !== undefined ? csvLinkFrom(resolve(io.cwd, reportPath), resolve(io.cwd, csvPath)) : null;
+      files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, { journalName: name, journalSha256, rig: pipeline.rig(), csvName })] });
     }
-    await writeAll(files);
+    await writeWhole(files);
     // Beside the summary only: --json is read by programs, and its budget rows carry the assumed values.
     const used = pipeline.rig();
     const note = used && args.values.json !== true ? assumedNote(used) : null;
@@ -91,7 +96,11 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     if (args.values.json === true) {
       const { swings: _rows, ...rest } = result;
       io.stdout.write(`${JSON.stringify(rest)}\n`);
-    } else io.stdout.write(formatSummary(result, basename(journal)));
+    } else io.stdout.write(formatSummary(result, name));
+    // The "wrote" lines go to stderr when stdout carries JSON for another program.
+    const notes = args.values.json === true ? io.stderr : io.stdout;
+    if (csvPath !== undefined) notes.write(`halfswing analyze: wrote ${csvPath} (${result.swings.length} rows)\n`);
+    if (reportPath !== undefined) notes.write(`halfswing analyze: wrote ${reportPath}\n`);
     return 0;
   },
 };

@@ -1,8 +1,10 @@
 // `halfswing sim`: run a simulated rig to a journal file (with its truth), a pseudo-terminal, or stdout.
 import { once } from 'node:events';
-import { writeFile, rename } from 'node:fs/promises';
+import { resolve } from 'node:path';
 import { optNumber, optString, type Command, type CommandIo, type ParsedArgs } from '../command.ts';
 import { UserError } from '../../errors.ts';
+import { guardOutputs, writeWhole, type InputRef } from '../../files/safe-output.ts';
+import { duration } from '../../report/format.ts';
 import {
   applyOverrides,
   DEFAULT_SCENARIO,
@@ -22,6 +24,7 @@ import { truthPathFor, writeScenarioJournal } from '../../../sim/outlets/journal
 export function parseDuration(s: string): number {
   const m = /^([0-9]+(?:\.[0-9]+)?)\s*(s|m|h|d)?$/.exec(s.trim());
   const v = m ? Number(m[1]) * { s: 1, m: 60, h: 3600, d: 86400 }[(m[2] ?? 's') as 's'] : NaN;
+  if (/^\s*-/.test(s)) throw new UserError(`--duration must be a positive time like 90s, 20m, 2h or 7d, not '${s}'`, 2);
   if (!(v > 0)) throw new UserError(`--duration must be a time like 90s, 20m, 2h or 7d, not '${s}'`, 2);
   return v;
 }
@@ -91,11 +94,7 @@ async function toStdout(source: Source, scenario: Scenario, o: SimOptions, speed
   } finally {
     process.removeListener('SIGINT', onInt);
   }
-  if (truthFile && truth.complete) {
-    const tmp = `${truthFile}.tmp-${process.pid}`;
-    await writeFile(tmp, `${truthJson(truth)}\n`);
-    await rename(tmp, truthFile);
-  }
+  if (truthFile && truth.complete) await writeWhole([{ path: truthFile, chunks: [`${truthJson(truth)}\n`] }]);
   return 0;
 }
 
@@ -158,11 +157,12 @@ export const command: Command = {
     q: { type: 'string', arg: 'Q', description: 'linear (viscous) damping as small-amplitude Q' },
     quadratic: { type: 'string', arg: 'C', description: 'quadratic (air) damping c in −c|θ\'|θ\' (1/rad)' },
     coulomb: { type: 'string', arg: 'RAD', description: 'pivot friction θ_f (rad; amplitude falls 4θ_f per cycle)' },
-    ppm: { type: 'string', arg: 'PPM', description: 'device clock frequency error (ppm, + runs fast; write negatives as --ppm=-200)' },
+    ppm: { type: 'string', arg: 'PPM', description: 'device clock frequency error (ppm, + runs fast)' },
     drift: { type: 'string', arg: 'PPM/H', description: 'device clock drift (ppm per hour)' },
     'offset-mm': { type: 'string', arg: 'MM', description: 'beam offset from the lowest point (mm, + toward the release side)' },
     start: { type: 'string', arg: 'ISO', description: 'the journal\'s #start time (ISO-8601 UTC)' },
     'no-faults': { type: 'boolean', description: 'drop every fault of the scenario' },
+    force: { type: 'boolean', description: 'with --journal: replace an existing file (never a recorded journal)' },
   },
   details: `
 Scenarios are JSON files (rig, physics, gate, device, host, faults); see DEVELOPERS.md, "Simulator".
@@ -191,10 +191,24 @@ Everything is simulated: no hardware is touched.`,
       throw e;
     }
     const sc = scenario;
+    const scenarioArg = optString(args, 'scenario');
+    const inputs: InputRef[] = scenarioArg !== undefined ? [{ path: resolve(io.cwd, scenarioArg) }] : [];
+    const truthFile = optString(args, 'truth');
+    if (journal) await guardJournal(resolve(io.cwd, journal), args.values.force === true, inputs);
+    else if (truthFile !== undefined) await guardOutputs([{ path: resolve(io.cwd, truthFile), flag: '--truth' }], inputs);
     if (args.values.firmware) return emulatorErrors(() => runSim(sc, o, speedS, journal, args, io, true));
     return runSim(sc, o, speedS, journal, args, io, false);
   },
 };
+
+/** `sim --journal FILE`: refuses an existing file (unless --force; never a recorded journal) before anything runs. */
+async function guardJournal(path: string, force: boolean, inputs: InputRef[]): Promise<void> {
+  const outputs = [
+    { path, flag: '--journal', mustBeNew: true },
+    { path: truthPathFor(path), flag: '--journal (its truth file)' },
+  ];
+  await guardOutputs(outputs, inputs, { force });
+}
 
 async function runSim(
   sc: Scenario,
@@ -213,19 +227,20 @@ async function runSim(
     process.once('SIGINT', onInt);
     let r;
     try {
-      r = await writeScenarioJournal(sc, { ...o, path: journal, speed: speedS, signal: ac.signal, source: fw?.source });
+      r = await writeScenarioJournal(sc, { ...o, path: resolve(io.cwd, journal), speed: speedS, signal: ac.signal, source: fw?.source });
     } catch (e) {
       if (ac.signal.aborted) throw new UserError(`sim: stopped; nothing written to ${journal}`, 130);
+      const code = (e as NodeJS.ErrnoException).code;
+      if (code) throw new UserError(`sim: cannot write ${journal} (${code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code})`);
       throw e;
     } finally {
       process.removeListener('SIGINT', onInt);
       fw?.done();
     }
-    const { lines, truth } = r;
+    const { lines, truth, rigTimeS } = r;
     const truthNote = truth.complete ? ` and ${truthPathFor(journal)}` : ' (stopped early: no truth file)';
-    io.stderr.write(
-      `halfswing sim: wrote ${journal} (${lines} lines, ${(truth.duration_s / 3600).toFixed(2)} h of rig time, ${((Date.now() - t) / 1000).toFixed(1)} s)${truthNote}\n`,
-    );
+    const took = ((Date.now() - t) / 1000).toFixed(1);
+    io.stderr.write(`halfswing sim: wrote ${journal} (${lines} lines, ${duration(rigTimeS)} of rig time, ${took} s)${truthNote}\n`);
     return 0;
   }
   if (args.values.pty) {
@@ -253,7 +268,8 @@ async function runSim(
     return 0;
   }
   try {
-    return await toStdout(fw?.source ?? simulateJournal, sc, o, speedS ?? Infinity, optString(args, 'truth'), io);
+    const truth = optString(args, 'truth');
+    return await toStdout(fw?.source ?? simulateJournal, sc, o, speedS ?? Infinity, truth !== undefined ? resolve(io.cwd, truth) : undefined, io);
   } finally {
     fw?.done();
   }
