@@ -64,12 +64,14 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
   const sphereOnly = r !== undefined ? effectiveLength(L, r, 1, 0) : L;
   const full = r !== undefined && haveMasses ? effectiveLength(L, r, rig.bob_mass_kg!, rig.string_mass_kg!) : haveMasses ? effectiveLength(L, 0, rig.bob_mass_kg!, rig.string_mass_kg!) : sphereOnly;
   lines.push({
+    id: 'finite-bob',
     name: 'finite bob (sphere, I = M(L² + 2r²/5))',
     period_rel: Math.sqrt(sphereOnly / L) - 1,
     applied: r !== undefined,
     why: r !== undefined ? `r = ${(r * 1000).toFixed(2)} mm` : 'not applied: the rig gives no bob_diameter_m',
   });
   lines.push({
+    id: 'string-mass',
     name: 'string mass (uniform rod to the bob)',
     period_rel: Math.sqrt(full / sphereOnly) - 1,
     applied: haveMasses,
@@ -84,6 +86,7 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
   const airHi = airPeriodRel(rig.air_density_kg_m3, rhoB, r, omega0);
   const air = 0.5 * (airLo + airHi);
   lines.push({
+    id: 'air',
     name: 'air buoyancy and added mass',
     period_rel: air,
     u_rel: haveDensity ? Math.hypot(0.1 * airLo, (airHi - airLo) / 2 / Math.sqrt(3)) : Math.abs(air) / Math.sqrt(3),
@@ -94,6 +97,7 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
   });
   const damp = q !== null && q > 0.5 ? dampingPeriodRel(q) : 0;
   lines.push({
+    id: 'damping',
     name: 'damping (viscous form 1/(8Q²))',
     period_rel: damp,
     applied: q !== null,

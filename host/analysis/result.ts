@@ -32,8 +32,16 @@ export interface RunCounts {
   readonly malformed_journal_lines: number;
 }
 
+/** What a correction accounts for (stable; the display text is `name`). */
+export type CorrectionId = 'finite-bob' | 'string-mass' | 'air' | 'damping';
+
+/** What a budget line stands for (stable; the display text is `name`). A correction's line has the correction's id. */
+export type BudgetId = 'length' | 'statistics' | 'clock' | 'flag-width' | 'delay-difference' | CorrectionId;
+
 /** One line of the uncertainty budget: the relative standard uncertainty this input contributes to g. */
 export interface BudgetLine {
+  readonly id: BudgetId;
+  /** Display text. */
   readonly name: string;
   readonly u_rel_g: number;
   /** Human note: the input's value and standard uncertainty. */
@@ -42,6 +50,8 @@ export interface BudgetLine {
 
 /** A correction considered for g: its size, and whether it was applied. */
 export interface CorrectionLine {
+  readonly id: CorrectionId;
+  /** Display text. */
   readonly name: string;
   /** Relative change of the period it accounts for (ΔT/T0). */
   readonly period_rel: number;

@@ -61,3 +61,11 @@ export function robustSigma(xs: ArrayLike<number>): number {
   for (let i = 0; i < d.length; i++) d[i] = Math.abs(d[i]! - m);
   return 1.4826 * median(d);
 }
+
+/** About `max` evenly spread values of an array (all when shorter): enough for a robust median, much cheaper. */
+export function everyKth(xs: ArrayLike<number>, max: number): Float64Array {
+  const stride = Math.max(1, Math.floor(xs.length / max));
+  const out = new Float64Array(Math.ceil(xs.length / stride));
+  for (let i = 0, k = 0; i < xs.length; i += stride) out[k++] = xs[i]!;
+  return out;
+}

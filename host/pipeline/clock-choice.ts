@@ -1,6 +1,6 @@
 // Picks the device clock correction for a run: a given ppm, the nominal rate, a 1 PPS input, or the host clock.
 import { clockRateFromHost, clockRateFromPps, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
-import type { ClockApplied } from '../analysis/analyze-run.ts';
+import type { ClockApplied } from '../analysis/passes.ts';
 
 /** What the user asked for: a mode, a rate error in ppm, or nothing (auto: PPS if present, else host if long enough). */
 export type ClockOption = 'host' | 'pps' | 'nominal' | number | undefined;

@@ -8,9 +8,13 @@
 // numbers one way, odd the other). When several candidates fall in the same beat
 // window the one nearest the predicted time (and transit) wins. A longer gap, or a new boot, starts a new segment.
 
+import { STATUS_CODE } from '../analysis/passes.ts';
+
+const { valid: VALID, 'rejected-transit': REJECTED_TRANSIT, 'rejected-timing': REJECTED_TIMING, unsequenced: UNSEQUENCED } = STATUS_CODE;
+
 /** Result of sequencing, parallel to the input passes. */
 export interface PassSequence {
-  /** 0 valid, 1 rejected for transit, 2 rejected for timing, 3 unsequenced (too few passes to start a beat, or a swing that no longer clears the beam). */
+  /** STATUS_CODE of each pass (host/analysis/passes.ts: read it with `passStatus`). */
   readonly status: Uint8Array;
   /** Pass number within its segment (−1 when rejected). */
   readonly index: Int32Array;
@@ -91,7 +95,7 @@ export function sequencePasses(
     if (m < 3) continue;
     const med = sortedMedian(scratch, m);
     const r = transit[i]! / med;
-    if (!(r < ratio && r > 1 / ratio)) (status[i] = 1), rejectedTransit++;
+    if (!(r < ratio && r > 1 / ratio)) (status[i] = REJECTED_TRANSIT), rejectedTransit++;
   }
 
   // 2. The beat of half-periods.
@@ -117,29 +121,29 @@ export function sequencePasses(
   let last = -1;
   const candidates = (from: number): number => {
     let j = from;
-    while (j < n && status[j] !== 0) j++;
+    while (j < n && status[j] !== VALID) j++;
     return j;
   };
   const reject = (j: number): void => {
-    status[j] = 2;
+    status[j] = REJECTED_TIMING;
     rejectedTiming++;
   };
   const startSegment = (from: number): number => {
     // Find three consecutive candidates of the same boot, evenly spaced: a trustworthy start of the beat.
-    // Candidates skipped on the way are left unsequenced (status 3), not rejected.
+    // Candidates skipped on the way are left unsequenced, not rejected.
     let a = candidates(from);
     while (a < n) {
       const b = candidates(a + 1);
       const c = b < n ? candidates(b + 1) : n;
       if (c >= n || boot[b] !== boot[a] || boot[c] !== boot[a]) {
-        status[a] = 3;
+        status[a] = UNSEQUENCED;
         a = candidates(a + 1);
         continue;
       }
       const h1 = t[b]! - t[a]!;
       const h2 = t[c]! - t[b]!;
       if (transit[a]! > NOT_CLEARING * Math.min(h1, h2)) {
-        status[a] = 3;
+        status[a] = UNSEQUENCED;
         a = candidates(a + 1);
         continue;
       }
@@ -154,7 +158,7 @@ export function sequencePasses(
         return a + 1;
       }
       // Uneven spacing before a beat is known: a missing pass as likely as an intruder, so no blame.
-      status[a] = 3;
+      status[a] = UNSEQUENCED;
       a = candidates(a + 1);
     }
     last = -1;
@@ -170,7 +174,7 @@ export function sequencePasses(
       continue;
     }
     if (transit[j]! > NOT_CLEARING * H) {
-      status[j] = 3;
+      status[j] = UNSEQUENCED;
       j++;
       continue;
     }

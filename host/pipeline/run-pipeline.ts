@@ -9,6 +9,7 @@ import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import { SequenceTracker } from '../../protocol/sequence.ts';
 import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
 import { analyzeRun } from '../analysis/analyze-run.ts';
+import { STATUS_CODE } from '../analysis/passes.ts';
 import { periodRatio } from '../analysis/elliptic.ts';
 import type { AnalysisResult, RunCounts } from '../analysis/result.ts';
 import { amplitudeFromTransit, blockHalfAngle } from '../analysis/transit-amplitude.ts';
@@ -365,7 +366,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       if (seq.rejectedTiming > 0) w.push(`${seq.rejectedTiming} pass(es) rejected: off the beat of the swing (an object through the beam?)`);
       if (seq.longGaps > 0) w.push(`${seq.longGaps} gap(s) too long to bridge: the run is analysed in ${seq.segments} segments`);
       let unsequenced = 0;
-      for (let i = 0; i < np; i++) if (seq.status[i] === 3) unsequenced++;
+      for (let i = 0; i < np; i++) if (seq.status[i] === STATUS_CODE.unsequenced) unsequenced++;
       if (unsequenced > 0) w.push(`${unsequenced} pass(es) left out: the swing no longer cleared the beam, or too few passes in a row to follow the beat`);
       const lastUs = lastHostUs ?? 0;
       return analyzeRun({

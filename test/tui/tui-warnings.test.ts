@@ -9,7 +9,7 @@ const base: WarningInput = {
   expectedPeriod_s: 2,
   gateOffset_m: 0.0003,
   gateOffset_u_m: 0.0001,
-  budget: [{ name: 'length', u_rel_g: 1e-3 }],
+  budget: [{ id: 'length' as const, name: 'length', u_rel_g: 1e-3 }],
   lastHeartbeat_s: 99.5,
   heartbeatInterval_s: 1,
   expectingLines: true,
@@ -53,12 +53,12 @@ describe('warnings', () => {
 
   it('the clock dominating the g budget', () => {
     const budget = [
-      { name: 'length', u_rel_g: 1e-4 },
-      { name: 'clock rate', u_rel_g: 2e-4 },
+      { id: 'length' as const, name: 'length', u_rel_g: 1e-4 },
+      { id: 'clock' as const, name: 'clock rate', u_rel_g: 2e-4 },
     ];
     expect(clockShare(budget)).toBeCloseTo(0.8, 12);
     expect(reasons({ budget })).toEqual(['clock-dominates']);
-    expect(reasons({ budget: [{ name: 'clock rate', u_rel_g: 1e-5 }, { name: 'length', u_rel_g: 1e-3 }] })).toEqual([]);
+    expect(reasons({ budget: [{ id: 'clock' as const, name: 'clock rate', u_rel_g: 1e-5 }, { id: 'length' as const, name: 'length', u_rel_g: 1e-3 }] })).toEqual([]);
   });
 
   it('a disconnect is reported first and hides the silence rules', () => {
