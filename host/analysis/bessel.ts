@@ -64,21 +64,23 @@ export function besselG(x: BesselInput): BesselResult | null {
   const rel = (dA: number): number => Math.abs(dA) / A;
   const ms = (s: number): string => `${(s * 1e6).toFixed(2)} µs`;
   const budget: BudgetLine[] = [
-    { name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: `l = ${l} ± ${x.l_u_m} m` },
+    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: `l = ${l} ± ${x.l_u_m} m` },
     {
+      id: 'centre-of-mass-distances',
       name: 'centre-of-mass distances h1 − h2',
       u_rel_g: rel(dA_ddh * x.dh_u_m),
       note: `h1 − h2 = ${dh.toFixed(4)} ± ${x.dh_u_m} m; T1 − T2 = ${ms(T1 - T2)}`,
     },
-    { name: 'T1 (pivot 1, statistics)', u_rel_g: rel(dA_dT1 * x.pivot1.u_stat_s), note: `T1 = ${T1.toFixed(7)} s ± ${ms(x.pivot1.u_stat_s)}` },
-    { name: 'T2 (pivot 2, statistics)', u_rel_g: rel(dA_dT2 * x.pivot2.u_stat_s), note: `T2 = ${T2.toFixed(7)} s ± ${ms(x.pivot2.u_stat_s)}` },
+    { id: 'pivot-1-statistics', name: 'T1 (pivot 1, statistics)', u_rel_g: rel(dA_dT1 * x.pivot1.u_stat_s), note: `T1 = ${T1.toFixed(7)} s ± ${ms(x.pivot1.u_stat_s)}` },
+    { id: 'pivot-2-statistics', name: 'T2 (pivot 2, statistics)', u_rel_g: rel(dA_dT2 * x.pivot2.u_stat_s), note: `T2 = ${T2.toFixed(7)} s ± ${ms(x.pivot2.u_stat_s)}` },
     {
+      id: 'amplitude-reduction',
       name: 'amplitude reduction (both pivots, same flag and gate)',
       u_rel_g: rel(dA_dT1 * x.pivot1.u_amp_s + dA_dT2 * x.pivot2.u_amp_s),
       note: `${ms(x.pivot1.u_amp_s)} and ${ms(x.pivot2.u_amp_s)}, taken together`,
     },
     // Both periods scale by the same clock factor (1 + ε): A by (1 + 2ε) exactly.
-    { name: 'device clock (common to both pivots)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
+    { id: 'clock', name: 'device clock (common to both pivots)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
   ];
   return {
     g_m_s2: g,

@@ -35,8 +35,26 @@ export interface RunCounts {
 /** What a correction accounts for (stable; the display text is `name`). */
 export type CorrectionId = 'finite-bob' | 'string-mass' | 'air' | 'damping';
 
-/** What a budget line stands for (stable; the display text is `name`). A correction's line has the correction's id. */
-export type BudgetId = 'length' | 'statistics' | 'clock' | 'flag-width' | 'delay-difference' | CorrectionId;
+/**
+ * What a budget line stands for (stable; the display text is `name`). A correction's line has the correction's id.
+ * The last group belongs to the budgets of `combine` (reversible pendulum, tuning series, two lengths).
+ */
+export type BudgetId =
+  | 'length'
+  | 'statistics'
+  | 'clock'
+  | 'flag-width'
+  | 'delay-difference'
+  | CorrectionId
+  | 'knife-edge-distance'
+  | 'centre-of-mass-distances'
+  | 'pivot-1-statistics'
+  | 'pivot-2-statistics'
+  | 'amplitude-reduction'
+  | 'crossing-period'
+  | 'length-differences'
+  | 'length-t0'
+  | 'length-corrections';
 
 /** One line of the uncertainty budget: the relative standard uncertainty this input contributes to g. */
 export interface BudgetLine {

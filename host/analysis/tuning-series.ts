@@ -136,10 +136,10 @@ export function tuningCrossing(x: TuningInput): TuningResult {
   const g = (4 * Math.PI * Math.PI * x.l_m) / (c0.T * c0.T);
   const uT = Math.sqrt(vt);
   const budget: BudgetLine[] = [
-    { name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: `l = ${x.l_m} ± ${x.l_u_m} m` },
-    { name: 'period at the crossing (fits of T1 and T2)', u_rel_g: (2 * uT) / c0.T, note: `T = ${c0.T.toFixed(7)} s ± ${(uT * 1e6).toFixed(2)} µs` },
-    { name: 'amplitude reduction (every run, same flag and gate)', u_rel_g: 2 * x.amp_u_rel },
-    { name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
+    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: `l = ${x.l_m} ± ${x.l_u_m} m` },
+    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2)', u_rel_g: (2 * uT) / c0.T, note: `T = ${c0.T.toFixed(7)} s ± ${(uT * 1e6).toFixed(2)} µs` },
+    { id: 'amplitude-reduction', name: 'amplitude reduction (every run, same flag and gate)', u_rel_g: 2 * x.amp_u_rel },
+    { id: 'clock', name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
   ];
   return {
     ok: true,

@@ -1,6 +1,6 @@
 // The stages of the analysis, each alone: periods, amplitudes, reduction to zero amplitude, corrections, budget, rows.
 import { describe, expect, it } from 'vitest';
-import { parseRig, type Rig } from '../../protocol/rig.ts';
+import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import { ellipF, ellipK } from '../../sim/elliptic.ts';
 import { PASS_STATUSES, STATUS_CODE, passStatus, type ClockApplied, type SequencedPasses } from '../../host/analysis/passes.ts';
 import { fillPeriodAmplitudes, periodAmplitude } from '../../host/analysis/stages/amplitudes.ts';
@@ -12,7 +12,7 @@ import { swingRows } from '../../host/analysis/stages/swing-rows.ts';
 import { lineT0 } from '../../host/analysis/stages/t0-line.ts';
 
 const rigOf = (o: object): Rig => {
-  const r = parseRig(o);
+  const r = parseSimpleRig(o);
   if (!r.ok) throw new Error(r.error);
   return r.rig;
 };
