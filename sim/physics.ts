@@ -35,8 +35,9 @@ export interface TruePhysics {
  * ∝ M − m_air) and an added mass k·m_air that moves with the bob's centre.
  */
 export function truePhysics(s: Scenario): TruePhysics {
+  if (s.rigid) return rigidPhysics(s);
   const { rig, physics, gate } = s;
-  const L = rig.length_m;
+  const L = physics.length_m ?? rig.length_m;
   const r = rig.bob_diameter_m !== undefined ? rig.bob_diameter_m / 2 : 0;
   const M = rig.bob_mass_kg ?? 1;
   const ms = rig.bob_mass_kg !== undefined ? (rig.string_mass_kg ?? 0) : 0;
@@ -46,7 +47,6 @@ export function truePhysics(s: Scenario): TruePhysics {
   const torque = physics.g_m_s2 * ((M - mAir) * L + (ms * l) / 2);
   const omega0 = Math.sqrt(torque / I);
   const q = physics.linear_q;
-  const half = rig.flag_width_m / 2;
   const parts = [r > 0 ? 'sphere bob' : 'point bob', ms > 0 ? 'string as uniform rod' : 'massless string', mAir > 0 ? `air buoyancy + added mass k=${physics.added_mass_k}` : 'no air'];
   return {
     g_m_s2: physics.g_m_s2,
@@ -62,9 +62,46 @@ export function truePhysics(s: Scenario): TruePhysics {
     b2_per_rad: physics.quadratic_per_rad ?? 0,
     b0_rad_per_s2: (physics.coulomb_rad ?? 0) * omega0 * omega0,
     linear_q: q ?? Infinity,
-    zone_rad: [Math.asin(clamp((gate.offset_m - half) / L)), Math.asin(clamp((gate.offset_m + half) / L))],
+    zone_rad: beamZone(s, L),
     gate_offset_m: gate.offset_m,
     model: parts.join(', '),
+  };
+}
+
+/** The bob blocks the beam between these angles: the flag's edges at radius R from the pivot. */
+function beamZone(s: Scenario, R: number): readonly [number, number] {
+  const half = s.rig.flag_width_m / 2;
+  return [Math.asin(clamp((s.gate.offset_m - half) / R)), Math.asin(clamp((s.gate.offset_m + half) / R))];
+}
+
+/**
+ * A rigid body on a knife edge: ω0² = g h/(k² + h²) with h the true pivot-to-centre-of-mass distance and k the
+ * radius of gyration about the centre of mass; the beam crosses the flag at the rig's flag_radius_m. No air: for a
+ * body of one outer shape it acts alike about both edges (docs/references.md#ref-reversible-pendulum).
+ */
+function rigidPhysics(s: Scenario): TruePhysics {
+  const { physics, gate } = s;
+  const h = physics.cm_distance_m!;
+  const k2 = physics.gyration_radius_m! ** 2;
+  const omega0 = Math.sqrt((physics.g_m_s2 * h) / (k2 + h * h));
+  const q = physics.linear_q;
+  return {
+    g_m_s2: physics.g_m_s2,
+    length_m: h + k2 / h,
+    bob_radius_m: 0,
+    T0_s: (2 * Math.PI) / omega0,
+    T0_point_s: 2 * Math.PI * Math.sqrt(h / physics.g_m_s2),
+    omega0,
+    inertia_per_kg: k2 + h * h,
+    torque_per_kg: physics.g_m_s2 * h,
+    release_rad: (physics.release_deg * Math.PI) / 180,
+    b1_per_s: q !== undefined ? omega0 / q : 0,
+    b2_per_rad: physics.quadratic_per_rad ?? 0,
+    b0_rad_per_s2: (physics.coulomb_rad ?? 0) * omega0 * omega0,
+    linear_q: q ?? Infinity,
+    zone_rad: beamZone(s, s.rigid!.flag_radius_m),
+    gate_offset_m: gate.offset_m,
+    model: `rigid body on a knife edge (h = ${h} m, k = ${physics.gyration_radius_m} m), no air`,
   };
 }
 

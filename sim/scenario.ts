@@ -1,5 +1,5 @@
 // Scenario files: a rig, its true physics, gate, device, host link and faults, validated strictly.
-import { parseSimpleRig, rigJson, type Rig } from '../protocol/rig.ts';
+import { isSimpleRig, parseRig, rigJson, type ReversibleRig, type Rig } from '../protocol/rig.ts';
 import type { RoomSetup } from './room.ts';
 import {
   CH0_MIN_PULSE_TICKS,
@@ -41,7 +41,9 @@ export interface Faults {
 export interface Scenario {
   readonly name: string;
   readonly description: string;
+  /** The ordinary rig; for a reversible pendulum its gate-side view (length_m = flag radius) and `rigid` the file's rig. */
   readonly rig: Rig;
+  readonly rigid?: ReversibleRig;
   readonly duration_s: number;
   readonly physics: {
     readonly g_m_s2: number;
@@ -56,6 +58,11 @@ export interface Scenario {
     readonly coulomb_rad?: number;
     /** Added-mass coefficient of the air moved with the bob (used when the rig gives bob_density_kg_m3). */
     readonly added_mass_k: number;
+    /** The true pivot-to-bob-centre distance when it differs from the rig's reading (a length scale with an offset). */
+    readonly length_m?: number;
+    /** A rigid (reversible) pendulum: true pivot to centre of mass, and radius of gyration about the centre of mass. */
+    readonly cm_distance_m?: number;
+    readonly gyration_radius_m?: number;
   };
   readonly gate: {
     /** Beam's horizontal offset from the lowest point, + toward the release side (m). */
@@ -230,6 +237,9 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
           quadratic_per_rad: num(0),
           coulomb_rad: num(0),
           added_mass_k: num(0, 5),
+          length_m: num(0, 100, true),
+          cm_distance_m: num(0, 100, true),
+          gyration_radius_m: num(0, 100, true),
         },
         ['g_m_s2', 'release_deg'],
       ),
@@ -285,13 +295,20 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     ['rig', 'duration_s', 'physics'],
   );
   const o = value as Record<string, Record<string, unknown>>;
-  const rig = parseSimpleRig(o.rig);
-  if (!rig.ok) throw new ScenarioError(`scenario.rig: ${rig.error}`);
+  const anyRig = parseRig(o.rig);
+  if (!anyRig.ok) throw new ScenarioError(`scenario.rig: ${anyRig.error}`);
+  const rigid = isSimpleRig(anyRig.rig) ? undefined : anyRig.rig;
+  // The simulator's gate and device see a reversible pendulum's flag at its radius, as a bob at that length.
+  const rig = { rig: isSimpleRig(anyRig.rig) ? anyRig.rig : asFlagRadius(anyRig.rig) };
   if (!Number.isInteger(o.device?.channels ?? 2)) fail('scenario.device.channels', 'must be an integer');
   if (rig.rig.beams[0].channel >= Number(o.device?.channels ?? DEFAULTS.device.channels)) fail('scenario.rig.channel', 'must be below device.channels');
   if (rig.rig.string_mass_kg !== undefined && rig.rig.bob_mass_kg === undefined)
     fail('scenario.rig.string_mass_kg', 'needs bob_mass_kg as well, to model the string');
   const physics = { ...DEFAULTS.physics, ...o.physics } as Scenario['physics'];
+  if (rigid && (physics.cm_distance_m === undefined || physics.gyration_radius_m === undefined))
+    fail('scenario.physics', 'needs cm_distance_m and gyration_radius_m for a reversible pendulum');
+  if (!rigid && (physics.cm_distance_m !== undefined || physics.gyration_radius_m !== undefined))
+    fail('scenario.physics.cm_distance_m', 'belongs to a reversible pendulum (rig "pendulum": "reversible")');
   if (Math.abs(physics.release_deg) <= (Math.asin(Math.min(1, (rig.rig.flag_width_m / 2) / rig.rig.length_m)) * 180) / Math.PI)
     fail('scenario.physics.release_deg', 'is too small for the bob to leave the beam');
   // A rig file that names its beams asks for the two-direction swing.
@@ -302,6 +319,7 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     name: typeof o.name === 'string' ? (o.name as unknown as string) : fallbackName,
     description: typeof o.description === 'string' ? (o.description as unknown as string) : '',
     rig: rig.rig,
+    ...(rigid ? { rigid } : {}),
     duration_s: o.duration_s as unknown as number,
     physics,
     gate: { ...DEFAULTS.gate, ...o.gate },
@@ -349,13 +367,19 @@ export interface ScenarioOverrides {
 }
 
 /** A scenario with overrides applied, validated again. */
+/** The fields of a reversible rig the gate and device need, in the ordinary rig's shape (length = flag radius). */
+function asFlagRadius(r: ReversibleRig): Rig {
+  const { pendulum: _p, pivot: _v, edge_distance_m: _e, edge_distance_u_m: _eu, cm_distance_m: _c, cm_distance_u_m: _cu, flag_radius_m, mass_position_m: _m, body_volume_m3: _bv, body_mass_kg: _bm, ...common } = r;
+  return { ...common, length_m: flag_radius_m, length_u_m: 0 };
+}
+
 export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
   const def = <T>(v: T | undefined, d: T): T => (v === undefined ? d : v);
   const raw = {
     name: s.name,
     description: s.description,
     // The rig as its file gives it: a plain one-beam rig must not come back naming beams.
-    rig: { ...(JSON.parse(rigJson(s.rig)) as object), length_m: def(o.length_m, s.rig.length_m) },
+    rig: s.rigid ? rigidFileRig(s.rigid, o) : { ...(JSON.parse(rigJson(s.rig)) as object), length_m: def(o.length_m, s.rig.length_m) },
     duration_s: def(o.duration_s, s.duration_s),
     physics: {
       ...s.physics,
@@ -373,4 +397,10 @@ export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
     ...(s.room ? { room: s.room } : {}),
   };
   return parseScenario(JSON.parse(JSON.stringify(raw)), s.name);
+}
+
+/** A reversible pendulum's rig as its file has it (it has no length to override). */
+function rigidFileRig(rig: ReversibleRig, o: ScenarioOverrides): object {
+  if (o.length_m !== undefined) throw new ScenarioError('scenario.rig: a reversible pendulum has no length to override');
+  return JSON.parse(rigJson(rig)) as object;
 }

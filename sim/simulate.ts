@@ -113,7 +113,7 @@ export function prepareRun(base: Scenario, opts: SimOptions): Run {
   const tBob = Math.max(0, tEnd - t0);
   const header = journalHeader({
     start: new Date(scenario.host.start),
-    rigJson: rigJson(scenario.rig),
+    rigJson: rigJson(scenario.rigid ?? scenario.rig),
     source: `halfswing sim scenario=${scenario.name} seed=${opts.seed} (simulated rig, not a measurement)`,
     withMagic: true,
   });

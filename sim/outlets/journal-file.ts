@@ -1,11 +1,13 @@
 // Writing a simulated journal and its truth file: whole at once (temp + rename), or paced in place for followers.
-import { createWriteStream, type WriteStream } from 'node:fs';
+import { createWriteStream, existsSync, type WriteStream } from 'node:fs';
+import { join } from 'node:path';
 import { rename, rm, writeFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import type { Scenario } from '../scenario.ts';
 import { lineHostUs, paceLines, type PaceOptions } from '../pace.ts';
 import { simulateJournal, type SimOptions } from '../simulate.ts';
 import { truthJson, type Truth } from '../truth.ts';
+import { sessionRuns, type SessionSpec, type SessionTruth } from '../session.ts';
 
 /** The truth file written beside a journal. */
 export function truthPathFor(journalPath: string): string {
@@ -87,3 +89,29 @@ export async function writeScenarioJournal(scenario: Scenario, opts: JournalFile
     throw e;
   }
 }
+
+/**
+ * Writes every run of a session as `dir/<run>.journal` (each with its truth file) and the session's truth as
+ * `dir/<session>.session-truth.json`. Refuses, before writing anything, if any of those files exists.
+ */
+export async function writeSessionJournals(
+  spec: SessionSpec,
+  opts: { readonly seed: number; readonly dir: string; readonly durationS?: number; readonly signal?: AbortSignal; readonly onRun?: (path: string, i: number, n: number) => void },
+): Promise<{ paths: string[]; truthPath: string; truth: SessionTruth }> {
+  const { runs, truth } = sessionRuns(spec, opts.seed);
+  const paths = runs.map((r) => join(opts.dir, `${r.name}.journal`));
+  const truthPath = join(opts.dir, `${spec.name}.session-truth.json`);
+  const taken = [...paths.flatMap((p) => [p, truthPathFor(p)]), truthPath].find((p) => existsSync(p));
+  if (taken) throw new SessionOutputError(`${taken} exists: choose another folder (nothing was written)`);
+  for (let i = 0; i < runs.length; i++) {
+    opts.onRun?.(paths[i]!, i, runs.length);
+    await writeScenarioJournal(runs[i]!.scenario, { seed: runs[i]!.seed, durationS: opts.durationS, path: paths[i]!, signal: opts.signal });
+  }
+  const tmp = `${truthPath}.tmp-${process.pid}`;
+  await writeFile(tmp, `${JSON.stringify({ ...truth, runs: truth.runs.map((r, i) => ({ ...r, file: paths[i] })) }, null, 1)}\n`);
+  await rename(tmp, truthPath);
+  return { paths, truthPath, truth };
+}
+
+/** A session that cannot be written where asked; the message is one line. */
+export class SessionOutputError extends Error {}

@@ -18,7 +18,11 @@ import {
   type Truth,
 } from '../../../sim/index.ts';
 import { paceLines } from '../../../sim/pace.ts';
-import { truthPathFor, writeScenarioJournal } from '../../../sim/outlets/journal-file.ts';
+import { SessionOutputError, truthPathFor, writeScenarioJournal, writeSessionJournals } from '../../../sim/outlets/journal-file.ts';
+import { listSessions, loadSession } from '../../../sim/outlets/scenario-files.ts';
+import type { SessionSpec } from '../../../sim/session.ts';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
 
 /** Parses 90, 90s, 20m, 2h, 7d into seconds. */
 export function parseDuration(s: string): number {
@@ -36,6 +40,37 @@ function loadOrFail(name: string, cwd: string): Scenario {
     if (e instanceof ScenarioError) throw new UserError(`${e.message} (run 'halfswing sim --list')`);
     throw e;
   }
+}
+
+function loadSessionOrFail(name: string, cwd: string): SessionSpec {
+  try {
+    return loadSession(name, cwd);
+  } catch (e) {
+    if (e instanceof ScenarioError) throw new UserError(`${e.message} (run 'halfswing sim --list')`);
+    throw e;
+  }
+}
+
+/** Writes every run of a session into --out DIR, one status line per run on stderr. */
+async function runSession(spec: SessionSpec, args: ParsedArgs, io: CommandIo): Promise<number> {
+  const dir = optString(args, 'out');
+  if (dir === undefined) throw new UserError('sim: --session needs --out DIR (the folder for its journals)', 2);
+  if (!existsSync(resolve(io.cwd, dir))) throw new UserError(`sim: no folder ${dir}: create it first`, 2);
+  const dur = optString(args, 'duration');
+  const seed = optNumber(args, 'seed', { integer: true, min: 0, max: 1e9 }) ?? 1;
+  try {
+    const r = await writeSessionJournals(spec, {
+      seed,
+      dir: resolve(io.cwd, dir),
+      durationS: dur !== undefined ? parseDuration(dur) : undefined,
+      onRun: (p, i, n) => io.stderr.write(`halfswing sim: session ${spec.name} run ${i + 1}/${n} → ${p}\n`),
+    });
+    io.stderr.write(`halfswing sim: wrote ${r.paths.length} journals and ${r.truthPath}\n`);
+  } catch (e) {
+    if (e instanceof SessionOutputError) throw new UserError(`sim: ${e.message}`);
+    throw e;
+  }
+  return 0;
 }
 
 function simOptions(args: ParsedArgs): SimOptions {
@@ -143,7 +178,9 @@ export const command: Command = {
   usage: 'sim [--scenario NAME|FILE] [--journal FILE | --pty] [options]',
   options: {
     scenario: { type: 'string', short: 's', arg: 'NAME|FILE', description: 'scenario name (see --list) or scenario JSON file', default: DEFAULT_SCENARIO },
-    list: { type: 'boolean', description: 'list the bundled scenarios and exit' },
+    list: { type: 'boolean', description: 'list the bundled scenarios and sessions and exit' },
+    session: { type: 'string', arg: 'NAME|FILE', description: 'a session of several runs (two lengths, a reversible bar, a tuning series): one journal per run in --out DIR' },
+    out: { type: 'string', arg: 'DIR', description: 'with --session: the folder for the journals, their truth files and the session truth' },
     journal: { type: 'string', short: 'o', arg: 'FILE', description: 'write the journal to FILE, and its truth to FILE.truth.json' },
     truth: { type: 'string', arg: 'FILE', description: 'when streaming to stdout: write the truth JSON to FILE at the end' },
     pty: { type: 'boolean', description: 'serve the device on a pseudo-terminal (prints the port to open; needs socat)' },
@@ -176,8 +213,11 @@ Everything is simulated: no hardware is touched.`,
         const s = loadOrFail(name, io.cwd);
         io.stdout.write(`${name.padEnd(22)}${s.description}\n`);
       }
+      for (const name of listSessions()) io.stdout.write(`${name.padEnd(22)}session: ${loadSessionOrFail(name, io.cwd).description}\n`);
       return 0;
     }
+    const session = optString(args, 'session');
+    if (session !== undefined) return runSession(loadSessionOrFail(session, io.cwd), args, io);
     const scenario = loadOrFail(optString(args, 'scenario') ?? DEFAULT_SCENARIO, io.cwd);
     const o = simOptions(args);
     const speedS = optNumber(args, 'speed', { min: 1e-3, max: 1e6 });
