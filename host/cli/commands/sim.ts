@@ -22,7 +22,6 @@ import { SessionOutputError, truthPathFor, writeScenarioJournal, writeSessionJou
 import { listSessions, loadSession } from '../../../sim/outlets/scenario-files.ts';
 import type { SessionSpec } from '../../../sim/session.ts';
 import { existsSync } from 'node:fs';
-import { resolve } from 'node:path';
 
 /** Parses 90, 90s, 20m, 2h, 7d into seconds. */
 export function parseDuration(s: string): number {
