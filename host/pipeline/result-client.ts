@@ -17,6 +17,16 @@ export interface ResultSource {
   readonly inThread: boolean;
 }
 
+declare global {
+  interface ImportMeta {
+    /** true in the bundle (bin/build.js defines it); undefined when the sources run through tsx or vitest. */
+    readonly bundled?: boolean;
+  }
+}
+
+/** The bundle has the compiled worker beside its chunks; from source, a boot file registers tsx in the worker first. */
+const WORKER_URL = import.meta.bundled ? new URL('./result-worker.js', import.meta.url) : new URL('./result-worker-boot.js', import.meta.url);
+
 /** Entries are posted in batches of at most this many (one message per batch keeps the copying cheap). */
 const BATCH = 2000;
 
@@ -34,7 +44,7 @@ export function inThreadResultSource(opts: PipelineOptions = {}): ResultSource {
 
 /** A source backed by a worker thread; throws when the worker cannot be created. */
 export function workerResultSource(opts: PipelineOptions = {}): ResultSource {
-  const worker = new Worker(new URL('./result-worker-boot.js', import.meta.url), { workerData: opts });
+  const worker = new Worker(WORKER_URL, { workerData: opts });
   // Never the reason the process stays alive: every exit path works even if close() is missed.
   worker.unref();
   let batch: JournalEntry[] = [];
