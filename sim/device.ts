@@ -21,13 +21,18 @@ const RESET_CAUSE: Readonly<Record<string, number>> = { power: 1, external: 2, b
 /** Longest host command, in characters without the LF (COMMAND_MAX_LINE in firmware/src/command.h). */
 const MAX_COMMAND_CHARS = COMMAND_MAX_BYTES;
 const TICKS_MAX = 2 ** 48;
-/** Time from receiving a command to its reply entering the UART. */
-const REPLY_LATENCY_S = 60e-6;
+/**
+ * Time from a command's LF reaching the device to its reply's first byte in the UART: 426 µs measured on the
+ * emulated firmware (parse, format, CRC; test/firmware/firmware-model-parity.test.ts compares the lines).
+ */
+const REPLY_LATENCY_S = 426e-6;
 
 /** A record before its seq is assigned (at the moment it is sent). */
 type Body = DeviceRecord extends infer R ? (R extends DeviceRecord ? Omit<R, 'seq'> : never) : never;
 interface Pending {
   at: number;
+  /** Host time of what the line reports (a capture, a heartbeat deadline); a command can undo later ones. */
+  ev: number;
   body: Body | undefined;
   /** Set when the line was sealed early (a reboot kept it in the UART while seq restarted). */
   line: string | undefined;
@@ -165,12 +170,29 @@ export class DeviceModel {
     const v = parseInt(m[1]!, c === 'P' ? 10 : 16);
     if (c === 'P') {
       if (v < HEARTBEAT_MIN_MS || v > HEARTBEAT_MAX_MS) return err('range');
-      this.setHeartbeat(v, this.clock!.ticksAt(t));
+      this.undoLookahead(t, (b) => b.kind === 'T');
+      // The firmware restarts its heartbeat grid as it handles the command, just before the reply.
+      this.setHeartbeat(v, this.clock!.ticksAt(t + REPLY_LATENCY_S));
       return { kind: 'R', ok: true, cmd, fields: [`ms=${v}`] };
     }
     if (v >= 1 << this.cfg.channels) return err('range');
+    this.undoLookahead(t, (b) => b.kind === 'E' && !(v & (1 << b.ch)));
     this.mask = v;
     return { kind: 'R', ok: true, cmd, fields: [`mask=${v.toString(16)}`] };
+  }
+
+  /**
+   * Finding when its next line is due, the model may have run past a command's time: lines it formed for
+   * events after t that the command changes (heartbeats after a new period, edges of a channel switched off)
+   * never existed on the firmware. (Edges of a channel switched on within that look-ahead stay unreported.)
+   */
+  private undoLookahead(t: number, changed: (b: Body) => boolean): void {
+    for (let i = this.pending.length - 1; i >= 0; i--) {
+      const p = this.pending[i]!;
+      if (p.line !== undefined || p.ev <= t || !changed(p.body!)) continue;
+      this.pending.splice(i, 1);
+      if (p.body!.kind === 'E') this.o.counts.edges_captured--;
+    }
   }
 
   private hello(): Body {
@@ -192,10 +214,10 @@ export class DeviceModel {
     return line;
   }
 
-  private queue(at: number, body: Body): void {
+  private queue(at: number, body: Body, ev = at): void {
     let i = this.pending.length;
     while (i > 0 && this.pending[i - 1]!.at > at) i--;
-    this.pending.splice(i, 0, { at, body, line: undefined });
+    this.pending.splice(i, 0, { at, ev, body, line: undefined });
   }
 
   private emitLatency(): number {
@@ -360,7 +382,7 @@ export class DeviceModel {
     this.o.counts.edges_captured++;
     // Lines leave in capture order: the main loop drains the edge buffer first in, first out.
     const lastE = this.pending.length ? this.pending[this.pending.length - 1]!.at : -Infinity;
-    this.queue(Math.max(t + this.emitLatency(), lastE), body);
+    this.queue(Math.max(t + this.emitLatency(), lastE), body, t);
   }
 
   /**
@@ -379,14 +401,16 @@ export class DeviceModel {
   private setHeartbeat(ms: number, fromTicks: number): void {
     this.hbTicksPer = (this.cfg.hz * ms) / 1000;
     this.nextHbTicks = fromTicks + this.hbTicksPer;
-    this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+    this.nextHbAt = this.clock!.timeAt(this.nextHbTicks);
   }
 
   private onHeartbeat(t: number): void {
     const levels = this.levels.reduce((m, l, i) => m | (l << i), 0);
-    this.queue(Math.max(t, this.lastQueued()), { kind: 'T', ticks: Math.floor(this.clock!.ticksAt(t)) % TICKS_MAX, lost: this.lost, levels });
+    // The firmware reads the counter at the deadline itself (its compare-match alarm), then formats the line.
+    // The levels and the lost count are those at the deadline; the line follows after formatting.
+    this.queue(Math.max(t + this.emitLatency(), this.lastQueued()), { kind: 'T', ticks: Math.floor(this.nextHbTicks) % TICKS_MAX, lost: this.lost, levels }, t);
     this.nextHbTicks += this.hbTicksPer;
-    this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+    this.nextHbAt = this.clock!.timeAt(this.nextHbTicks);
   }
 
   private lastQueued(): number {
@@ -423,8 +447,10 @@ export class DeviceModel {
     const phase = this.rng.uniform();
     this.clock = new DeviceClock(this.cfg.hz, this.cfg.ppm, this.cfg.drift_ppm_per_h, t, phase);
     this.o.boots.push({ host_s: t, boot_id: this.bootId, phase_ticks: phase, cause: this.readyCause });
-    this.queue(Math.max(t + this.emitLatency(), this.lastQueued()), this.hello());
-    this.setHeartbeat(this.cfg.heartbeat_ms, phase);
+    const helloAt = Math.max(t + this.emitLatency(), this.lastQueued());
+    this.queue(helloAt, this.hello());
+    // The firmware schedules its first heartbeat one period after it has queued the hello.
+    this.setHeartbeat(this.cfg.heartbeat_ms, this.clock.ticksAt(helloAt));
     if (this.o.room) {
       // The firmware probes the sensor at boot: first reading and its state a few ms after the hello.
       this.setAir(this.o.room.interval_s, phase + 0.035 * this.cfg.hz);
@@ -447,7 +473,7 @@ export class DeviceModel {
     while (this.nextHbAt < t) {
       this.o.counts.heartbeats_skipped++;
       this.nextHbTicks += this.hbTicksPer;
-      this.nextHbAt = this.clock!.timeAt(this.nextHbTicks) + this.emitLatency();
+      this.nextHbAt = this.clock!.timeAt(this.nextHbTicks);
     }
     while (this.nextAirAt < t) {
       this.nextAirTicks += this.airTicksPer;

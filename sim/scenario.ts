@@ -151,7 +151,9 @@ const DEFAULTS = {
     baud: DEFAULT_BAUD,
     // Silicon's ch0 latency, the one the host assumes; emulator comparisons set the emulator's (0).
     capture_latency_ticks: CHANNEL_LATENCY_TICKS[0],
-    emit_latency_us: [20, 120],
+    // Capture (or heartbeat deadline) to the line's first byte in the UART, measured on the emulated firmware
+    // with the CPU otherwise idle: 230–340 µs (test/firmware/firmware-model-parity.test.ts checks it).
+    emit_latency_us: [230, 340],
     first_boot_s: 0.05,
     boot_time_s: 1.6,
     buffer_edges: EDGE_RING_CAPACITY,

@@ -8,7 +8,7 @@ import { prepareRun, type Run, type SimOptions } from '../simulate.ts';
 import type { Scenario } from '../scenario.ts';
 import { DEFAULT_BAUD, EMULATOR_CHANNEL_LATENCY_TICKS } from '../../protocol/link-defaults.ts';
 import { FirmwareProcess } from './firmware-process.ts';
-import { EMULATOR_HZ, FIRMWARE_BOOT_S } from './run-firmware.ts';
+import { EMULATOR_HZ } from './run-firmware.ts';
 import { buildEmulatorParts, missingToolchain, TOOLCHAIN_PACKAGES } from './toolchain.ts';
 
 /** The emulator toolchain is missing or the firmware would not build: the message says what to install. */
@@ -39,6 +39,12 @@ export function ensureEmulator(): void {
 }
 
 /**
+ * Emulated time from power-on to the hello's first byte: the firmware waits two 16 ms watchdog periods for
+ * its boot id first (measured 33.4 ms in simavr; on silicon the watchdog's RC oscillator makes it vary).
+ */
+const FIRMWARE_HELLO_S = 0.0332;
+
+/**
  * A run prepared for the emulated firmware: the toolchain checked and built, the truth's capture latency
  * the emulated part's (simavr models no synchroniser or noise canceller: ch0 reads 0, not 4), and the link
  * at the shipped build's baud rate, whatever the scenario's device says.
@@ -53,7 +59,7 @@ export function prepareFirmwareRun(base: Scenario, opts: SimOptions): Run {
 }
 
 /**
- * The emulated part against the run's host clock. The part powers on FIRMWARE_BOOT_S before the run's
+ * The emulated part against the run's host clock. The part powers on FIRMWARE_HELLO_S before the run's
  * first boot (scenario device.first_boot_s, where the model's device comes up), so its hello and armed
  * channels come about when the model's do. Emulated cycle c is device tick c − originCycle of a clock with
  * the scenario's ppm and drift and phase 0 at that boot: the firmware sees every edge at the tick the
@@ -77,7 +83,7 @@ export class FirmwareDevice {
     const d = run.scenario.device;
     if (d.hz !== EMULATOR_HZ) throw new EmulatorUnavailable(`the emulated part runs at ${EMULATOR_HZ} Hz; the scenario's device has hz=${d.hz}`);
     const boot = d.first_boot_s;
-    const lead = Math.min(FIRMWARE_BOOT_S, boot);
+    const lead = Math.min(FIRMWARE_HELLO_S, boot);
     this.clock = new DeviceClock(d.hz, d.ppm, d.drift_ppm_per_h, boot, 0);
     this.originCycle = Math.round(lead * EMULATOR_HZ);
     this.fw = new FirmwareProcess({ hostBaud: d.baud });
@@ -95,9 +101,14 @@ export class FirmwareDevice {
     return Math.round(this.clock.ticksAt(t)) + this.originCycle;
   }
 
-  /** A host command line (without LF) arriving at host time t; the firmware answers it in its own time. */
+  /**
+   * A host command line (without LF) whose LF reaches the device at host time t (as the model takes it); its
+   * bytes start one byte time each earlier, but not before the part's present cycle.
+   */
   command(t: number, text: string): void {
-    this.fw.send(Math.max(this.cycleOf(t), this.cycle), `${text}\n`);
+    const bytes = `${text}\n`;
+    const byteCycles = (EMULATOR_HZ * 10) / this.run.scenario.device.baud;
+    this.fw.send(Math.max(Math.round(this.cycleOf(t) - (bytes.length - 1) * byteCycles), this.cycle), bytes);
   }
 
   /** Runs the firmware to host time t; the lines it finished meanwhile, each at the host time it began. */
