@@ -10,7 +10,6 @@ export { truthJson } from './truth.ts';
 export type { TruePhysics } from './physics.ts';
 export { truePhysics } from './physics.ts';
 export { Rng } from './prng.ts';
-export { ExactPendulum, ellipK, ellipF, jacobi, agm, carlsonRF } from './elliptic.ts';
 export { paceLines, lineHostUs } from './pace.ts';
 export type { PaceOptions } from './pace.ts';
 export { writeScenarioJournal, truthPathFor } from './outlets/journal-file.ts';

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable, Writable } from 'node:stream';
 import { runCli } from '../../host/cli/main.ts';
-import { SWINGS_CSV_HEADER } from '../../host/analysis/swings-csv.ts';
+import { SWINGS_CSV_HEADER } from '../../host/output/swings-csv.ts';
 import { loadScenario, simulateJournal } from '../../sim/index.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'halfswing-analyze-cli-'));

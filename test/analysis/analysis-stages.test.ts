@@ -1,7 +1,7 @@
 // The stages of the analysis, each alone: periods, amplitudes, reduction to zero amplitude, corrections, budget, rows.
 import { describe, expect, it } from 'vitest';
 import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
-import { ellipF, ellipK } from '../../sim/elliptic.ts';
+import { ellipF, ellipK } from '../reference/elliptic.ts';
 import { PASS_STATUSES, STATUS_CODE, passStatus, type ClockApplied, type SequencedPasses } from '../../host/analysis/passes.ts';
 import { fillPeriodAmplitudes, periodAmplitude } from '../../host/analysis/stages/amplitudes.ts';
 import { uncertaintyBudget } from '../../host/analysis/stages/budget.ts';
@@ -20,7 +20,7 @@ const RIG = rigOf({ length_m: 1, flag_width_m: 0.025, bob_diameter_m: 0.025, lat
 
 /**
  * Passes of an ideal undamped-law pendulum whose amplitude falls linearly: each half-period from the exact law
- * T/T0 = 2K(m)/π, m = sin²(θ/2), at the mean amplitude of its two passes (A&S 17.3, DLMF 19.2.8, via the simulator's own elliptic functions in sim/elliptic.ts,
+ * T/T0 = 2K(m)/π, m = sin²(θ/2), at the mean amplitude of its two passes (A&S 17.3, DLMF 19.2.8, via the independent elliptic functions in test/reference/elliptic.ts,
  * independent of host/analysis), each transit the exact time between ±φb, (2/ω0)·F(asin(sin(φb/2)/k) | m).
  */
 function idealPasses(n: number, T0: number, fromDeg: number, toDeg: number, rig: Rig): { passes: SequencedPasses; theta: number[] } {

@@ -1,5 +1,5 @@
 // The human summary of `halfswing analyze`: the main figures with uncertainties, the budget, counts and warnings.
-import type { AnalysisResult } from './result.ts';
+import type { AnalysisResult } from '../analysis/result.ts';
 
 const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
 

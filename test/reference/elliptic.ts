@@ -1,4 +1,5 @@
-// Complete and incomplete elliptic integrals, Jacobi elliptic functions, and the exact undamped pendulum.
+// Test oracle: complete and incomplete elliptic integrals, Jacobi elliptic functions and the exact undamped pendulum,
+// written independently of host/analysis (which must never import this file).
 //
 // References: NIST DLMF §19.8(i) (K from the arithmetic–geometric mean), §19.16.1 and §19.25.5 (F from
 // Carlson's R_F), §19.36(i) (duplication algorithm for R_F, after B. C. Carlson, Numer. Algorithms 10, 13

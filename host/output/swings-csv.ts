@@ -1,5 +1,5 @@
 // The per-swing CSV of `analyze --csv`: one row per pass, SI units, empty cells for unknown values.
-import type { SwingRow } from './result.ts';
+import type { SwingRow } from '../analysis/result.ts';
 
 /** The CSV header line. */
 export const SWINGS_CSV_HEADER = 'index,t_s,transit_s,half_period_s,period_s,amplitude_deg,period0_s,flags';
