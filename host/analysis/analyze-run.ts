@@ -8,6 +8,7 @@ import { sensitivityAtMedian } from './stages/amplitudes.ts';
 import { uncertaintyBudget } from './stages/budget.ts';
 import { correctT0, expectedGravity } from './stages/corrections.ts';
 import { decayOf } from './stages/decay.ts';
+import { environmentOf } from './stages/environment.ts';
 import { findPeriods } from './stages/periods.ts';
 import { plotSeries } from './stages/plots.ts';
 import { reduceToZeroAmplitude } from './stages/reduction.ts';
@@ -46,6 +47,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     sensitivity: sensitivityAtMedian(passes.transit, reduction.amp, decay.median, rig, omega0),
     warnings,
     swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null),
+    environment: environmentOf(d.room, passes, periods, reduction, rig),
     plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }),
   });
 }

@@ -1,4 +1,5 @@
 // What the analysis receives: passes after sequencing, each with a named status, and the clock that timed them.
+import type { RoomReading } from './room-drift.ts';
 import type { Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult, RunCounts } from './result.ts';
 
@@ -61,6 +62,8 @@ export interface RunData {
   readonly lineRejections?: AnalysisResult['line_rejections'];
   /** Standard uncertainty of the sensor's blocking − unblocking delay difference, s (default 5 µs). */
   readonly delayDifferenceU_s?: number;
+  /** Room readings (A records) on the passes' time axis. */
+  readonly room?: readonly RoomReading[];
   /** Build the per-pass rows (default true); a summary or --json does not need them. */
   readonly rows?: boolean;
 }

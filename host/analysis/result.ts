@@ -94,6 +94,23 @@ export interface SwingRow {
   readonly flags: readonly string[];
 }
 
+/** The room as the board's sensor read it, and what it did to the length (issue contract: analyze --json key `environment`). */
+export interface EnvironmentResult {
+  /** Of the readings as sent. */
+  readonly temperature_mean_C: number;
+  readonly temperature_min_C: number;
+  readonly temperature_max_C: number;
+  readonly pressure_mean_Pa: number;
+  readonly humidity_mean_pct: number;
+  /** CIPM-2007 with x_CO2 = 0.0004, at the mean conditions. */
+  readonly air_density_kg_m3: number;
+  /** The effective length's coefficient, after the air correction when the rig gives bob_density_kg_m3. */
+  readonly length_temp_coeff_ppm_per_K: number | null;
+  readonly length_temp_coeff_u_ppm_per_K: number | null;
+  /** The mean of the readings' temperatures. */
+  readonly reference_temperature_C: number;
+}
+
 /** Damping fits of amplitude vs time. */
 export interface DampingFit {
   readonly model: 'linear' | 'quadratic' | 'constant' | 'mixed';
@@ -173,6 +190,8 @@ export interface AnalysisResult {
   readonly settings: { readonly glitch_s: number; readonly bounce_s: number };
   /** Device lines rejected by the decoder, by reason (always filled; optional so that older fixtures compile). */
   readonly line_rejections?: Readonly<Partial<Record<RejectReason, number>>>;
+  /** The room beside the swing (the journal's A records); null without them. */
+  readonly environment: EnvironmentResult | null;
   /** One row per pass (rejected ones flagged), in time order. Not part of `analyze --json`. */
   readonly swings: readonly SwingRow[];
   /** Downsampled series for plots (≤ ~2000 points each). */
@@ -244,6 +263,7 @@ export const EMPTY_RESULT: AnalysisResult = {
   L_eff_m: null,
   amplitude_sensitivity: null,
   settings: { glitch_s: 1e-4, bounce_s: 1e-4 },
+  environment: null,
   swings: [],
   plots: {
     periodVsAmplitude: { amplitude_deg: [], period_s: [] },

@@ -3,6 +3,7 @@
 // `push` is cheap and incremental (decoding, sequence tracking, edge cleaning into compact pass columns);
 // `result` runs the full analysis over everything pushed so far without changing the state, so calling it (or
 // `live`) at any moment never changes later numbers.
+import type { RoomReading } from '../analysis/room-drift.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import type { RejectReason } from '../../protocol/records.ts';
 import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
@@ -111,6 +112,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   let hzNow = 16_000_000;
   let sawHello = false;
   const hb = { boot: new I32Column(), ticks: new F64Column(), hostUs: new F64Column() };
+  const room: RoomReading[] = [];
   const pps = { boot: new I32Column(), ticks: new F64Column() };
   let builder: PassBuilder | null = null;
   let glitchS = 0;
@@ -217,6 +219,10 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         } else c.otherEdges++;
         return;
       }
+      case 'A':
+        // The room changes over minutes: the line's arrival time places the reading well enough.
+        room.push({ t_s: hostUs / 1e6, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
+        return;
       case 'T': {
         const ticks = unwrap(rec.ticks);
         if (!bootFirst[boot]) bootFirst[boot] = { hostUs, ticks };
@@ -382,6 +388,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         run: { start_iso: startIso, duration_s: lastUs / 1e6, source, firmware: hello?.fw ?? null, hz_nominal: bootHz[0] ?? (sawHello ? hzNow : null) },
         warnings: w,
         lineRejections: { ...rejections },
+        room,
         rows: ro.rows ?? true,
         settings: { glitch_s: glitchS || (opts.glitchS ?? defaultEdgeThresholdS(rig)), bounce_s: bounceS || (opts.bounceS ?? defaultEdgeThresholdS(rig)) },
         ...(opts.delayDifferenceU_s !== undefined ? { delayDifferenceU_s: opts.delayDifferenceU_s } : {}),

@@ -46,5 +46,12 @@ describe('length temperature coefficient from the period drift', () => {
     const gRatio = (lEst / lTrue) * (truthT0 / fit.T0_ref_s) ** 2;
     expect(Math.abs(gRatio - 1)).toBeLessThan(2e-5);
     expect(roomAt(sc.room!, 2 * 3600).tempC).toBeCloseTo(23, 6);
+    // The same through analyze's result (`environment`, the issue's contract keys).
+    const env = result.environment!;
+    expect(Object.keys(env).sort()).toEqual(['air_density_kg_m3', 'humidity_mean_pct', 'length_temp_coeff_ppm_per_K', 'length_temp_coeff_u_ppm_per_K', 'pressure_mean_Pa', 'reference_temperature_C', 'temperature_max_C', 'temperature_mean_C', 'temperature_min_C']);
+    expect(env.length_temp_coeff_u_ppm_per_K!).toBeLessThanOrEqual(3);
+    expect(Math.abs(env.length_temp_coeff_ppm_per_K! - ALPHA * 1e6)).toBeLessThanOrEqual(2 * env.length_temp_coeff_u_ppm_per_K!);
+    expect(env.temperature_max_C - env.temperature_min_C).toBeGreaterThan(3.9);
+    expect(env.air_density_kg_m3).toBeCloseTo(airDensityCipm2007({ tempC: env.temperature_mean_C, pressPa: env.pressure_mean_Pa, rhPct: env.humidity_mean_pct }), 12);
   }, 120_000);
 });

@@ -71,6 +71,7 @@ export function syntheticResult(over: Partial<AnalysisResult> = {}, n = 300, a0D
     L_eff_m: 1.00009,
     amplitude_sensitivity: { at_amplitude_deg: 21, per_width_deg_per_mm: 0.7, per_delay_difference_deg_per_us: 0.002 },
     settings: { glitch_s: 0.0002, bounce_s: 0.0005 },
+    environment: null,
     swings: [],
     plots: {
       periodVsAmplitude: { amplitude_deg: amp, period_s: per },

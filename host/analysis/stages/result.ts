@@ -2,7 +2,7 @@
 import type { GateOffset } from '../gate-offset.ts';
 import type { RunData } from '../passes.ts';
 import type { PeriodLawFit } from '../period-law.ts';
-import type { AmplitudeSensitivityReport, AnalysisResult, PlotSeries, SwingRow } from '../result.ts';
+import type { AmplitudeSensitivityReport, AnalysisResult, EnvironmentResult, PlotSeries, SwingRow } from '../result.ts';
 import type { Budget } from './budget.ts';
 import type { Corrected } from './corrections.ts';
 import type { Decay } from './decay.ts';
@@ -23,6 +23,7 @@ export interface ResultParts {
   readonly warnings: string[];
   readonly swings: SwingRow[];
   readonly plots: PlotSeries;
+  readonly environment: EnvironmentResult | null;
 }
 
 const finiteOrNull = (v: number | null | undefined): number | null => (v !== null && v !== undefined && Number.isFinite(v) ? v : null);
@@ -76,6 +77,7 @@ export function assembleResult(d: RunData, r: ResultParts): AnalysisResult {
     amplitude_sensitivity: r.sensitivity,
     settings: d.settings,
     line_rejections: d.lineRejections ?? {},
+    environment: r.environment,
     swings: r.swings,
     plots: r.plots,
     run: d.run,
