@@ -313,8 +313,9 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     fail('scenario.physics.cm_distance_m', 'belongs to a reversible pendulum (rig "pendulum": "reversible")');
   if (Math.abs(physics.release_deg) <= (Math.asin(Math.min(1, (rig.rig.flag_width_m / 2) / rig.rig.length_m)) * 180) / Math.PI)
     fail('scenario.physics.release_deg', 'is too small for the bob to leave the beam');
-  // A rig file that names its beams asks for the two-direction swing.
-  const plane = o.plane !== undefined || o.rig?.beams !== undefined ? { ...PLANE_DEFAULTS, ...o.plane } : undefined;
+  // Two beams, or one beam at a slant, ask for the two-direction swing; one beam at angle 0 is the planar swing.
+  const beams = rig.rig.beams;
+  const plane = o.plane !== undefined || beams.length === 2 || beams[0].angle_deg !== 0 ? { ...PLANE_DEFAULTS, ...o.plane } : undefined;
   if (plane && (physics.quadratic_per_rad || physics.coulomb_rad))
     fail('scenario.physics', 'of a two-direction (spherical) swing takes linear_q only: drop quadratic_per_rad and coulomb_rad');
   return {

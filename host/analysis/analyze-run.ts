@@ -46,7 +46,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     expected: expectedGravity(rig),
     sensitivity: sensitivityAtMedian(passes.transit, reduction.amp, decay.median, rig, omega0),
     warnings,
-    swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null),
+    swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null, d.plane),
     environment: environmentOf(d.room, passes, periods, reduction, rig),
     plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }),
   });

@@ -1,5 +1,6 @@
 // What the analysis receives: passes after sequencing, each with a named status, and the clock that timed them.
 import type { RoomReading } from './room-drift.ts';
+import type { RunPlane } from './plane-of-run.ts';
 import type { Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult, RunCounts } from './result.ts';
 
@@ -66,4 +67,6 @@ export interface RunData {
   readonly room?: readonly RoomReading[];
   /** Build the per-pass rows (default true); a summary or --json does not need them. */
   readonly rows?: boolean;
+  /** The swing plane of a two-beam run, aligned with the passes (its corrected transits already in `passes.transit`). */
+  readonly plane?: RunPlane | null;
 }

@@ -1,6 +1,7 @@
 // The analysis result: what `analyze --json` prints, what the report draws and what the live view shows.
 // SI units throughout; every `_u` is a standard uncertainty (k = 1).
 import type { RejectReason } from '../../protocol/records.ts';
+import type { PlaneSummary } from './plane-rate.ts';
 
 /** Fault and health counts of a run. */
 export interface RunCounts {
@@ -92,6 +93,9 @@ export interface SwingRow {
   readonly period0_s: number | null;
   /** Flags such as `bridged`, `rejected:<reason>`, `boot-start`. */
   readonly flags: readonly string[];
+  /** Two-beam runs: the swing's axis (° counterclockwise from above) and signed minor axis (m) at this pass. */
+  readonly azimuth_deg?: number | null;
+  readonly minor_axis_m?: number | null;
 }
 
 /** The room as the board's sensor read it, and what it did to the length (issue contract: analyze --json key `environment`). */
@@ -192,6 +196,8 @@ export interface AnalysisResult {
   readonly line_rejections?: Readonly<Partial<Record<RejectReason, number>>>;
   /** The room beside the swing (the journal's A records); null without them. */
   readonly environment: EnvironmentResult | null;
+  /** The swing plane of a two-beam run (docs/two-beam-geometry.md); null for one beam. */
+  readonly plane?: PlaneSummary | null;
   /** One row per pass (rejected ones flagged), in time order. Not part of `analyze --json`. */
   readonly swings: readonly SwingRow[];
   /** Downsampled series for plots (≤ ~2000 points each). */
@@ -264,6 +270,7 @@ export const EMPTY_RESULT: AnalysisResult = {
   amplitude_sensitivity: null,
   settings: { glitch_s: 1e-4, bounce_s: 1e-4 },
   environment: null,
+  plane: null,
   swings: [],
   plots: {
     periodVsAmplitude: { amplitude_deg: [], period_s: [] },

@@ -19,6 +19,9 @@ import { decodeDeviceLine } from './fast-decode.ts';
 import { F64Column, I32Column } from './growable.ts';
 import { RECENT_POINTS, type LiveHello, type LiveState } from './live-state.ts';
 import { PassBuilder } from './pass-builder.ts';
+import { runPlane } from '../analysis/plane-of-run.ts';
+import { oneBeamPlaneRisk, oneBeamPlaneText } from '../analysis/plane-warning.ts';
+import type { Blocked } from '../analysis/plane-passes.ts';
 import { sequencePasses, type SequencingOptions } from './pass-sequencing.ts';
 
 /** Options of a pipeline. */
@@ -65,6 +68,13 @@ const G_N = 9.80665;
 export function shortestTransitS(rig: Rig | null): number {
   if (!rig) return 5e-3;
   return rig.flag_width_m / (2 * Math.sqrt(G_N * rig.length_m) * Math.SQRT1_2);
+}
+
+/** A pass builder's closed intervals on the host-joined timebase. */
+function blockedOf(p: PassBuilder, joined: (boot: number, ticks: number) => number): Blocked[] {
+  const out: Blocked[] = [];
+  for (let i = 0; i < p.passes.length; i++) out.push({ start: joined(p.passes.boot.at(i), p.passes.start.at(i)), end: joined(p.passes.boot.at(i), p.passes.end.at(i)) });
+  return out;
 }
 
 /** Glitch/bounce default: 10 % of the shortest plausible transit (see shortestTransitS), within 20 µs–2 ms. */
@@ -115,6 +125,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   const room: RoomReading[] = [];
   const pps = { boot: new I32Column(), ticks: new F64Column() };
   let builder: PassBuilder | null = null;
+  /** The second beam's passes, when the rig has two (docs/two-beam-geometry.md). */
+  let builderB: PassBuilder | null = null;
   let glitchS = 0;
   let bounceS = 0;
   const ppsCh = opts.ppsChannel ?? 1;
@@ -161,6 +173,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       glitchS = opts.glitchS ?? defaultEdgeThresholdS(rigNow());
       bounceS = opts.bounceS ?? defaultEdgeThresholdS(rigNow());
       builder = new PassBuilder(ticksPerS, glitchS, bounceS, 4 * bounceS, onPass);
+      if (rigNow()?.beams.length === 2) builderB = new PassBuilder(ticksPerS, glitchS, bounceS, 4 * bounceS, () => undefined);
     }
     return builder;
   };
@@ -186,6 +199,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     const tr = tracker.push(rec);
     if (tr.newBoot) {
       pb.newBoot();
+      builderB?.newBoot();
       boot = tr.bootIndex;
       wrapBase = 0;
       lastRaw = -1;
@@ -196,7 +210,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     } else if (tr.lostBefore > 0) {
       c.lost += Math.max(0, tr.lostBefore - rejectedSinceGood);
       pb.linesLost();
-    } else if (rejectedSinceGood > 0) pb.linesLost();
+      builderB?.linesLost();
+    } else if (rejectedSinceGood > 0) pb.linesLost(), builderB?.linesLost();
     rejectedSinceGood = 0;
     switch (rec.kind) {
       case 'H':
@@ -213,6 +228,10 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
           const blocks = (rig?.blocked_level ?? 'low') === 'low' ? rec.edge === 'f' : rec.edge === 'r';
           if (blocks) pb.blockStart(boot, ticks);
           else pb.blockEnd(boot, ticks, hostUs);
+        } else if (builderB && rec.ch === rig!.beams[1]?.channel) {
+          const blocks = rig!.blocked_level === 'low' ? rec.edge === 'f' : rec.edge === 'r';
+          if (blocks) builderB.blockStart(boot, ticks);
+          else builderB.blockEnd(boot, ticks, hostUs);
         } else if (rec.ch === ppsCh && rec.edge === 'r' && !rig?.beams?.some((b) => b.channel === ppsCh)) {
           pps.boot.push(boot);
           pps.ticks.push(ticks);
@@ -233,6 +252,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         levels = rec.levels;
         lastBeatHostUs = hostUs;
         pb.advance(boot, ticks);
+        builderB?.advance(boot, ticks);
         return;
       }
       default:
@@ -353,24 +373,35 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       const td = new Float64Array(np);
       const transit = new Float64Array(np);
       const pBoot = new Int32Array(np);
+      // Ticks of a boot → seconds on the host-joined timebase.
+      const joined = (b: number, ticks: number): number => {
+        const tps = (bootHz[b] ?? hzNow) * k;
+        const first = bootFirst[b]!;
+        return (offsets.get(b) ?? first.hostUs / 1e6 - first.ticks / tps) + ticks / tps;
+      };
+      const blockedA: Blocked[] = [];
       for (let i = 0; i < np; i++) {
         const fromPending = i === np - 1 && pend !== null;
         const b = fromPending ? pend.boot : pb!.passes.boot.at(i);
         const s = fromPending ? pend.start : pb!.passes.start.at(i);
         const e = fromPending ? pend.end : pb!.passes.end.at(i);
         const tps = (bootHz[b] ?? hzNow) * k;
-        const first = bootFirst[b]!;
-        const off = offsets.get(b) ?? first.hostUs / 1e6 - first.ticks / tps;
         td[i] = (0.5 * (s + e)) / tps;
-        t[i] = off + td[i]!;
+        t[i] = joined(b, 0) + td[i]!;
         transit[i] = (e - s) / tps;
         pBoot[i] = b;
+        if (builderB) blockedA.push({ start: joined(b, s), end: joined(b, e) });
       }
+      const plane = rig && builderB ? runPlane(rig, blockedA, blockedOf(builderB, joined)) : null;
+      // Two beams: amplitude, damping and Q run on the transit a square crossing would have had.
+      if (plane) for (let i = 0; i < np; i++) if (Number.isFinite(plane.squareTransit[i]!)) transit[i] = plane.squareTransit[i]!;
       const seq = sequencePasses(t, transit, pBoot, opts.sequencing);
       if (seq.rejectedTransit > 0)
         w.push(`${seq.rejectedTransit} pass(es) rejected: transit time unlike the neighbours' (an object through the beam?)`);
       if (seq.rejectedTiming > 0) w.push(`${seq.rejectedTiming} pass(es) rejected: off the beat of the swing (an object through the beam?)`);
       if (seq.longGaps > 0) w.push(`${seq.longGaps} gap(s) too long to bridge: the run is analysed in ${seq.segments} segments`);
+      const risk = rig && !builderB && np > 1 ? oneBeamPlaneRisk(t[np - 1]! - t[0]!, rig.latitude_deg) : null;
+      if (risk) w.push(oneBeamPlaneText(risk));
       let unsequenced = 0;
       for (let i = 0; i < np; i++) if (seq.status[i] === STATUS_CODE.unsequenced) unsequenced++;
       if (unsequenced > 0) w.push(`${unsequenced} pass(es) left out: the swing no longer cleared the beam, or too few passes in a row to follow the beat`);
@@ -389,6 +420,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         warnings: w,
         lineRejections: { ...rejections },
         room,
+        plane,
         rows: ro.rows ?? true,
         settings: { glitch_s: glitchS || (opts.glitchS ?? defaultEdgeThresholdS(rig)), bounce_s: bounceS || (opts.bounceS ?? defaultEdgeThresholdS(rig)) },
         ...(opts.delayDifferenceU_s !== undefined ? { delayDifferenceU_s: opts.delayDifferenceU_s } : {}),

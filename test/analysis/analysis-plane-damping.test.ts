@@ -10,7 +10,7 @@ describe('damping when the swing plane turns (issue #16 done-when: Q within 5 %)
     const run = planeRun('plane-turns-40deg', 1, 3600);
     const T0 = run.truth.physics.T0_s;
     const qTrue = run.truth.physics.linear_q;
-    const passes = planePasses(run.A, run.B, run.geometry, run.periodGuess).filter((p) => !p.flag);
+    const passes = planePasses(run.A, run.B, run.geometry, run.periodGuess).passes.filter((p) => !p.flag);
     // The plane really turns by about 40° over the run.
     const turn = Math.abs(passes[passes.length - 1]!.azimuth - passes[0]!.azimuth) * (180 / Math.PI);
     expect(turn).toBeGreaterThan(35);

@@ -46,7 +46,7 @@ describe('two beams against the simulator (docs/two-beam-geometry.md)', () => {
     it(`${name}${over.ppm ? ` at ${over.ppm} ppm` : ''}: every measured pass within the limits, over 3 seeds`, () => {
       for (const seed of [1, 2, 3]) {
         const run = planeRun(name, seed, dur, over);
-        const passes = planePasses(run.A, run.B, run.geometry, run.periodGuess);
+        const passes = planePasses(run.A, run.B, run.geometry, run.periodGuess).passes;
         const tr = run.truth.plane!;
         const times = tr.t_s.map(run.deviceTime);
         let j = 0;

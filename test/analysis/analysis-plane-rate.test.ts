@@ -10,7 +10,7 @@ const rad = Math.PI / 180;
 /** The run's measured rate, and the same least-squares slope of the simulator's exact azimuths at the same passes. */
 function rates(name: string, seed: number, dur: number): { m: { rate: number; u: number }; truth: number } {
   const run = planeRun(name, seed, dur);
-  const ps = planePasses(run.A, run.B, run.geometry, run.periodGuess).filter((p) => !p.flag);
+  const ps = planePasses(run.A, run.B, run.geometry, run.periodGuess).passes.filter((p) => !p.flag);
   const tr = run.truth.plane!;
   const times = tr.t_s.map(run.deviceTime);
   let j = 0;
@@ -68,14 +68,14 @@ describe('plane summary against the simulator', () => {
   it('reads the Foucault rate on the isotropic support at 50° N, and an Airy rate that matches the turning of a pushed ellipse', () => {
     const f = planeRun('plane-foucault-50n', 1, 1800);
     const omega0 = (2 * Math.PI) / f.truth.physics.T0_s;
-    const s = summarizePlane(planePasses(f.A, f.B, f.geometry, f.periodGuess), { lengthM: f.geometry.length, omega0, latitudeDeg: 50 })!;
+    const s = summarizePlane(planePasses(f.A, f.B, f.geometry, f.periodGuess).passes, { lengthM: f.geometry.length, omega0, latitudeDeg: 50 })!;
     expect(s.foucault_deg_per_h).toBeCloseTo(-11.522, 3);
     // Released from rest in the room: the measured rate is Foucault's less Airy's 3a²/(8L²) share (< 0.5 % here).
     expect(Math.abs(s.precession_deg_per_h - s.foucault_deg_per_h!)).toBeLessThan(0.006 * 11.522);
     expect(s.minor_axis_max_m).toBeLessThan(5e-5);
 
     const p = planeRun('plane-turns-40deg', 1, 1800);
-    const sp = summarizePlane(planePasses(p.A, p.B, p.geometry, p.periodGuess), { lengthM: p.geometry.length, omega0: (2 * Math.PI) / p.truth.physics.T0_s })!;
+    const sp = summarizePlane(planePasses(p.A, p.B, p.geometry, p.periodGuess).passes, { lengthM: p.geometry.length, omega0: (2 * Math.PI) / p.truth.physics.T0_s })!;
     expect(sp.foucault_deg_per_h).toBeNull();
     // No Earth: the whole turning is Airy's (leading order in a/L: a few per cent at 12°).
     expect(Math.abs(sp.precession_deg_per_h / sp.airy_deg_per_h - 1)).toBeLessThan(0.05);

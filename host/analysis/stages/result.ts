@@ -78,6 +78,7 @@ export function assembleResult(d: RunData, r: ResultParts): AnalysisResult {
     settings: d.settings,
     line_rejections: d.lineRejections ?? {},
     environment: r.environment,
+    plane: d.plane?.summary ?? null,
     swings: r.swings,
     plots: r.plots,
     run: d.run,
