@@ -178,6 +178,43 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     return builder;
   };
 
+  /** Beam A's passes on the clock's timebase, the pending one included; with two beams, the plane and the square-crossing transits. */
+  const passColumns = (k: number, offsets: ReturnType<typeof bootOffsets>, rig: Rig | null) => {
+    // Passes, the pending one included (a snapshot, not a state change). The pass time is the middle of the
+    // blocked interval: the swing is time-symmetric about the lowest point, so for a centred beam the midpoint is
+    // the crossing time exactly; sensor delays shift every midpoint alike and cancel in intervals (DEVELOPERS.md).
+    const pb = builder;
+    const pend = pb?.pendingPass() ?? null;
+    const np = (pb?.passes.length ?? 0) + (pend ? 1 : 0);
+    const t = new Float64Array(np);
+    const td = new Float64Array(np);
+    const transit = new Float64Array(np);
+    const pBoot = new Int32Array(np);
+    // Ticks of a boot → seconds on the host-joined timebase.
+    const joined = (b: number, ticks: number): number => {
+      const tps = (bootHz[b] ?? hzNow) * k;
+      const first = bootFirst[b]!;
+      return (offsets.get(b) ?? first.hostUs / 1e6 - first.ticks / tps) + ticks / tps;
+    };
+    const blockedA: Blocked[] = [];
+    for (let i = 0; i < np; i++) {
+      const fromPending = i === np - 1 && pend !== null;
+      const b = fromPending ? pend.boot : pb!.passes.boot.at(i);
+      const s = fromPending ? pend.start : pb!.passes.start.at(i);
+      const e = fromPending ? pend.end : pb!.passes.end.at(i);
+      const tps = (bootHz[b] ?? hzNow) * k;
+      td[i] = (0.5 * (s + e)) / tps;
+      t[i] = joined(b, 0) + td[i]!;
+      transit[i] = (e - s) / tps;
+      pBoot[i] = b;
+      if (builderB) blockedA.push({ start: joined(b, s), end: joined(b, e) });
+    }
+    const plane = rig && builderB ? runPlane(rig, blockedA, blockedOf(builderB, joined)) : null;
+    // Two beams: amplitude, damping and Q run on the transit a square crossing would have had.
+    if (plane) for (let i = 0; i < np; i++) if (Number.isFinite(plane.squareTransit[i]!)) transit[i] = plane.squareTransit[i]!;
+    return { t, td, transit, pBoot, np, plane };
+  };
+
   const unwrap = (raw: number): number => {
     // 48-bit device ticks wrap after 2^48 (203 days at 16 MHz); a jump back by more than half the range is a wrap.
     if (lastRaw >= 0 && raw < lastRaw - TWO48 / 2) wrapBase += TWO48;
@@ -363,38 +400,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
       const clock = chooseClock(opts.clock, beats, pulses, bootHz[0] ?? hzNow, w);
       const offsets = bootOffsets(beats, clock.ppm);
       const k = 1 + clock.ppm * 1e-6;
-      // Passes, the pending one included (a snapshot, not a state change). The pass time is the middle of the
-      // blocked interval: the swing is time-symmetric about the lowest point, so for a centred beam the midpoint is
-      // the crossing time exactly; sensor delays shift every midpoint alike and cancel in intervals (DEVELOPERS.md).
-      const pb = builder;
-      const pend = pb?.pendingPass() ?? null;
-      const np = (pb?.passes.length ?? 0) + (pend ? 1 : 0);
-      const t = new Float64Array(np);
-      const td = new Float64Array(np);
-      const transit = new Float64Array(np);
-      const pBoot = new Int32Array(np);
-      // Ticks of a boot → seconds on the host-joined timebase.
-      const joined = (b: number, ticks: number): number => {
-        const tps = (bootHz[b] ?? hzNow) * k;
-        const first = bootFirst[b]!;
-        return (offsets.get(b) ?? first.hostUs / 1e6 - first.ticks / tps) + ticks / tps;
-      };
-      const blockedA: Blocked[] = [];
-      for (let i = 0; i < np; i++) {
-        const fromPending = i === np - 1 && pend !== null;
-        const b = fromPending ? pend.boot : pb!.passes.boot.at(i);
-        const s = fromPending ? pend.start : pb!.passes.start.at(i);
-        const e = fromPending ? pend.end : pb!.passes.end.at(i);
-        const tps = (bootHz[b] ?? hzNow) * k;
-        td[i] = (0.5 * (s + e)) / tps;
-        t[i] = joined(b, 0) + td[i]!;
-        transit[i] = (e - s) / tps;
-        pBoot[i] = b;
-        if (builderB) blockedA.push({ start: joined(b, s), end: joined(b, e) });
-      }
-      const plane = rig && builderB ? runPlane(rig, blockedA, blockedOf(builderB, joined)) : null;
-      // Two beams: amplitude, damping and Q run on the transit a square crossing would have had.
-      if (plane) for (let i = 0; i < np; i++) if (Number.isFinite(plane.squareTransit[i]!)) transit[i] = plane.squareTransit[i]!;
+      const { t, td, transit, pBoot, np, plane } = passColumns(k, offsets, rig);
       const seq = sequencePasses(t, transit, pBoot, opts.sequencing);
       if (seq.rejectedTransit > 0)
         w.push(`${seq.rejectedTransit} pass(es) rejected: transit time unlike the neighbours' (an object through the beam?)`);
