@@ -48,6 +48,6 @@ export function analyzeRun(d: RunData): AnalysisResult {
     warnings,
     swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null, d.plane),
     environment: environmentOf(d.room, passes, periods, reduction, rig),
-    plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }),
+    plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }, d.plane),
   });
 }

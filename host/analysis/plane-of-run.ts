@@ -9,6 +9,7 @@ export interface RunPlane {
   /** Per pass of beam A (NaN where unpaired or flagged): azimuth (°), signed minor axis (m), the square-crossing transit (s). */
   readonly azimuthDeg: Float64Array;
   readonly minorM: Float64Array;
+  readonly semiMajorM: Float64Array;
   readonly squareTransit: Float64Array;
 }
 
@@ -18,7 +19,8 @@ const rad = Math.PI / 180;
 export function runPlane(rig: Rig, A: readonly Blocked[], B: readonly Blocked[]): RunPlane | null {
   if (rig.beams.length !== 2) return null;
   const n = A.length;
-  const out = { azimuthDeg: new Float64Array(n).fill(NaN), minorM: new Float64Array(n).fill(NaN), squareTransit: new Float64Array(n).fill(NaN) };
+  const col = (): Float64Array => new Float64Array(n).fill(NaN);
+  const out = { azimuthDeg: col(), minorM: col(), semiMajorM: col(), squareTransit: col() };
   const geometry = { angleA: rig.beams[0].angle_deg * rad, angleB: rig.beams[1].angle_deg * rad, flagWidth: rig.flag_width_m, length: rig.length_m };
   // Any period within a factor of ~2 pairs the beams; the simple pendulum's is close enough.
   const guess = 2 * Math.PI * Math.sqrt(rig.length_m / 9.81);
@@ -27,6 +29,7 @@ export function runPlane(rig: Rig, A: readonly Blocked[], B: readonly Blocked[])
     if (p.flag) continue;
     out.azimuthDeg[p.index] = p.azimuth / rad;
     out.minorM[p.index] = p.b;
+    out.semiMajorM[p.index] = p.a;
     out.squareTransit[p.index] = p.squareTransit;
   }
   const summary = summarizePlane(passes, { lengthM: rig.length_m, omega0, ...(rig.latitude_deg !== undefined ? { latitudeDeg: rig.latitude_deg } : {}) });

@@ -136,6 +136,8 @@ export interface PlotSeries {
   readonly gRunning: { readonly t_s: number[]; readonly g: number[]; readonly g_u: number[] };
   /** Q measured in windows of the run, against the window's mean amplitude. */
   readonly qVsAmplitude: { readonly amplitude_deg: number[]; readonly Q: number[] };
+  /** Two-beam runs: the swing's axis, signed minor axis and semi-major axis per measured pass. */
+  readonly plane?: { readonly t_s: number[]; readonly azimuth_deg: number[]; readonly minor_axis_m: number[]; readonly semi_major_m: number[] };
 }
 
 /** How sensitive the amplitude is to the inputs of the transit-time solution, at the run's median amplitude. */

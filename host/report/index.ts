@@ -8,6 +8,7 @@ import { notesSection } from './notes-section.ts';
 import { amplitudePlot, qPlot } from './plots/damping-plots.ts';
 import { figure } from './plots/figure.ts';
 import { periodPlot } from './plots/period-plot.ts';
+import { planeTimePlot, planeTopView } from './plots/plane-plots.ts';
 import { alternationPlot, clockPlot, gRunningPlot } from './plots/timing-plots.ts';
 import type { ReportMeta } from './report-meta.ts';
 import { detailsTable, missingSection, resultBox } from './result-section.ts';
@@ -31,6 +32,12 @@ function plotsSection(r: AnalysisResult): string {
     figure('fig-clock', 5, 'Clock offset', `In each window of the run, the smallest host receive time minus device time of a heartbeat, about the line fitted through those minima, whose slope is the clock’s rate error. USB latency only ever adds delay, so the minima trace the lower envelope.${clock}`, clockPlot(r, s)),
     figure('fig-g', 6, 'Running estimate of g', 'g from the swings up to each time, with its expanded uncertainty band (k = 2).', gRunningPlot(r, s)),
   ];
+  if (s.plane && s.plane.t_s.length > 0) {
+    figs.push(
+      figure('fig-plane', 7, 'Swing plane', 'From the two crossed beams, at each pass: the direction of the swing’s axis and the ellipse’s signed minor axis (docs/two-beam-geometry.md). Passes within 20° of a beam line are not measured.', planeTimePlot(s.plane)),
+      figure('fig-plane-top', 8, 'Top view', 'The ellipse of a few passes spread over the run, from their measured axis, semi-major and minor axes.', planeTopView(s.plane)),
+    );
+  }
   return `<section id="plots"><h2>Plots</h2>${figs.join('')}</section>`;
 }
 

@@ -1,4 +1,5 @@
 // Stage: the downsampled series the report and the live view draw (≤ ~2000 points each), and the running g.
+import type { RunPlane } from '../plane-of-run.ts';
 import { qualityFactor } from '../damping.ts';
 import type { GateOffset } from '../gate-offset.ts';
 import type { ClockApplied, SequencedPasses } from '../passes.ts';
@@ -65,6 +66,7 @@ export function plotSeries(
   clock: ClockApplied,
   T0: number | null,
   rg: RunningGInput,
+  plane?: RunPlane | null,
 ): PlotSeries {
   const pvIdx = thin(Array.from({ length: per.ends.length }, (_, k) => k).filter((k) => Number.isFinite(red.pAmp[k]!)));
   const avIdx = thin(Array.from({ length: decay.t.length }, (_, i) => i));
@@ -80,5 +82,17 @@ export function plotSeries(
       d && T0 !== null
         ? { amplitude_deg: d.windows.map((w) => w.amplitude * DEG), Q: d.windows.map((w) => qualityFactor({ a0: w.rate, a1: 0, a2: 0 }, w.amplitude, T0)) }
         : { amplitude_deg: [], Q: [] },
+    ...(plane ? { plane: planeSeries(p, plane) } : {}),
+  };
+}
+
+/** The plane's per-pass columns at the measured passes, thinned like the other series. */
+function planeSeries(p: SequencedPasses, plane: RunPlane): NonNullable<PlotSeries['plane']> {
+  const idx = thin(Array.from({ length: p.t.length }, (_, i) => i).filter((i) => Number.isFinite(plane.azimuthDeg[i]!)));
+  return {
+    t_s: idx.map((i) => p.t[i]!),
+    azimuth_deg: idx.map((i) => plane.azimuthDeg[i]!),
+    minor_axis_m: idx.map((i) => plane.minorM[i]!),
+    semi_major_m: idx.map((i) => plane.semiMajorM[i]!),
   };
 }
