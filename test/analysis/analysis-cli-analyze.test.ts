@@ -3,8 +3,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Readable, Writable } from 'node:stream';
-import { runCli } from '../../host/cli/main.ts';
+import { cliIn } from './cli-in-dir.ts';
 import { SWINGS_CSV_HEADER } from '../../host/output/swings-csv.ts';
 import { loadScenario, simulateJournal } from '../../sim/index.ts';
 
@@ -18,13 +17,7 @@ function journal(name: string, lines: Iterable<string>): string {
 }
 const sim = (seed: number, durationS: number): Iterable<string> => simulateJournal(loadScenario('brass-1m-two-hours'), { seed, durationS }).lines;
 
-async function cli(argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const sink = (f: (s: string) => void) => new Writable({ write: (c, _e, cb) => (f(String(c)), cb()) });
-  const code = await runCli(argv, { stdout: sink((s) => (out += s)), stderr: sink((s) => (err += s)), stdin: Readable.from([]), env: {}, cwd: dir });
-  return { code, out, err };
-}
+const cli = (argv: string[]) => cliIn(dir, argv);
 
 const KEYS = ['T0_s', 'T0_u_s', 'g_m_s2', 'g_u_m_s2', 'clock_ppm', 'clock_u_ppm', 'gate_offset_m', 'B', 'B_u', 'C', 'amplitude_start_deg', 'amplitude_end_deg', 'Q', 'damping_model', 'passes', 'periods', 'counts', 'budget', 'expected_g_m_s2', 'warnings'];
 const COUNT_KEYS = ['crc_errors', 'lines_lost', 'device_lost', 'rejected_passes', 'bridged_gaps', 'reboots', 'disconnects'];

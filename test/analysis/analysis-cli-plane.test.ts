@@ -3,8 +3,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Readable, Writable } from 'node:stream';
-import { runCli } from '../../host/cli/main.ts';
+import { cliIn } from './cli-in-dir.ts';
 import { loadScenario, simulateJournal } from '../../sim/index.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'halfswing-analyze-plane-'));
@@ -16,13 +15,7 @@ function journal(name: string, scenario: string, durationS: number): string {
   return name;
 }
 
-async function cli(argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const sink = (f: (s: string) => void) => new Writable({ write: (c, _e, cb) => (f(String(c)), cb()) });
-  const code = await runCli(argv, { stdout: sink((s) => (out += s)), stderr: sink((s) => (err += s)), stdin: Readable.from([]), env: {}, cwd: dir });
-  return { code, out, err };
-}
+const cli = (argv: string[]) => cliIn(dir, argv);
 
 /** Issue #16's contract: exactly these keys. */
 const PLANE_KEYS = ['airy_deg_per_h', 'azimuth_end_deg', 'azimuth_start_deg', 'foucault_deg_per_h', 'minor_axis_max_m', 'precession_deg_per_h', 'precession_u_deg_per_h'];
@@ -60,5 +53,19 @@ describe('analyze on two beams', () => {
     expect((JSON.parse(r.out) as { plane: unknown }).plane).toBeNull();
     const oneRows = readFileSync(join(dir, 'one.csv'), 'utf8').trim().split('\n').slice(1);
     for (const l of oneRows) expect(l.endsWith(',,')).toBe(true);
+  });
+});
+
+describe('report on two beams', () => {
+  it('adds the swing-plane figure and the top view with one ellipse per chosen pass; a one-beam report has neither', async () => {
+    const two = journal('two-report.journal', 'plane-turns-40deg', 300);
+    expect((await cli(['analyze', two, '--report', 'two.html'])).code).toBe(0);
+    const html = readFileSync(join(dir, 'two.html'), 'utf8');
+    expect(html).toContain('id="fig-plane"');
+    expect(html).toContain('id="fig-plane-top"');
+    expect(html.match(/t = [\d.]+ (s|min|h)/g)!.length).toBeGreaterThanOrEqual(5);
+    const one = journal('one-report.journal', 'demo-low-q', 60);
+    expect((await cli(['analyze', one, '--report', 'one.html'])).code).toBe(0);
+    expect(readFileSync(join(dir, 'one.html'), 'utf8')).not.toContain('fig-plane');
   });
 });
