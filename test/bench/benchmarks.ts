@@ -6,5 +6,6 @@ import { handTiming } from './hand-timing.ts';
 import { ingest } from './ingest.ts';
 import { live } from './live.ts';
 import { simulatorSpeed } from './simulator-speed.ts';
+import { startup } from './startup.ts';
 
-export const BENCHMARKS: readonly Benchmark[] = [ingest, live, simulatorSpeed, firmwareTiming, estimator, handTiming];
+export const BENCHMARKS: readonly Benchmark[] = [startup, ingest, live, simulatorSpeed, firmwareTiming, estimator, handTiming];

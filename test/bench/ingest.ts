@@ -22,6 +22,10 @@ interface ChildReport {
 const TSX_RUN = join(REPO_ROOT, 'bin', 'tsx-run.js');
 const CHILD = join(REPO_ROOT, 'test', 'bench', 'ingest-child.ts');
 const CLI = join(REPO_ROOT, 'bin', 'halfswing.js');
+/** The bundle, as a user runs it (`npm run bench` builds it first), even when HALFSWING_DEV is set. */
+const BUNDLE_ENV: NodeJS.ProcessEnv = { ...process.env };
+delete BUNDLE_ENV.HALFSWING_DEV;
+const TARGET_WEEK_RSS_MIB = 250;
 
 async function child(mode: 'read' | 'analyze', file: string): Promise<ChildReport> {
   const r = await runMeasured(process.execPath, [TSX_RUN, CHILD, mode, file], { cwd: REPO_ROOT });
@@ -76,8 +80,8 @@ async function run(ctx: BenchContext): Promise<FigureResult> {
   });
 
   if (!existsSync(CLI)) throw new NotMeasured('bin/halfswing.js is missing');
-  const startup = await bestOf(repeats, () => runMeasured(process.execPath, [CLI, '--help'], { cwd: REPO_ROOT }));
-  const cli = await bestOf(repeats, () => runMeasured(process.execPath, [CLI, 'analyze', day.file, '--json'], { cwd: REPO_ROOT }));
+  const startup = await bestOf(repeats, () => runMeasured(process.execPath, [CLI, '--help'], { cwd: REPO_ROOT, env: BUNDLE_ENV }));
+  const cli = await bestOf(repeats, () => runMeasured(process.execPath, [CLI, 'analyze', day.file, '--json'], { cwd: REPO_ROOT, env: BUNDLE_ENV }));
   let cliNote = `whole process, start included; best of 5; ${Math.round(day.lines / cli.wallS)} lines/s overall`;
   if (cli.code !== 0) cliNote = `analyze exited ${cli.code}: ${cli.stderr.trim().split('\n')[0] ?? ''}`;
   rows.push({
@@ -124,6 +128,19 @@ async function run(ctx: BenchContext): Promise<FigureResult> {
     target: '≤ 1.2 (linear growth)',
     met: perLineWeek / perLineDay <= 1.2,
     note: `wall ${weekAna.wallS.toFixed(2)} s vs ${ana.wallS.toFixed(2)} s for ${(week.lines / day.lines).toFixed(2)}× the lines; peak RSS ${weekAna.maxRssMiB.toFixed(0)} MiB vs ${ana.maxRssMiB.toFixed(0)} MiB`,
+  });
+
+  const weekCli = await runMeasured(process.execPath, [CLI, 'analyze', week.file, '--json'], { cwd: REPO_ROOT, env: BUNDLE_ENV });
+  rows.push({
+    figure: `halfswing analyze peak RSS, ${wlabel}`,
+    value: weekCli.code === 0 ? weekCli.peakRssMiB : null,
+    unit: 'MiB',
+    baselineName: 'halfswing --help',
+    baseline: startup.peakRssMiB,
+    ...(weekCli.peakRssMiB !== null && startup.peakRssMiB !== null ? { ratio: weekCli.peakRssMiB / startup.peakRssMiB } : {}),
+    target: `< ${TARGET_WEEK_RSS_MIB} MiB`,
+    met: weekCli.code === 0 && weekCli.peakRssMiB !== null && weekCli.peakRssMiB < TARGET_WEEK_RSS_MIB,
+    note: weekCli.code === 0 ? `whole process, ${weekCli.wallS.toFixed(2)} s` : `analyze exited ${weekCli.code}: ${weekCli.stderr.trim().split('\n')[0] ?? ''}`,
   });
 
   return {
