@@ -201,7 +201,7 @@ export const command: Command = {
     force: { type: 'boolean', description: 'with --journal: replace an existing file (never a recorded journal)' },
   },
   details: `
-Scenarios are JSON files (rig, physics, gate, device, host, faults); see DEVELOPERS.md, "Simulator".
+Scenarios are JSON files (rig, physics, gate, device, host, faults); see sim/scenario.ts and the bundled sim/scenarios/.
 With neither --journal nor --pty the journal streams to stdout, e.g.  halfswing sim --duration 10m | halfswing analyze -
 With --firmware the scenario's edges (with its bounce and objects) drive the real firmware in simavr and
 its own serial lines are the journal; lost and corrupted lines and unplugs still come from the scenario.
