@@ -4,8 +4,9 @@ import { Box, useInput, useStdout } from 'ink';
 import type { LiveStore, StoreSnapshot } from '../live-store.ts';
 import { expectsLines, type FeedStatus } from '../feed.ts';
 import { INITIAL_UI, reduceKey, type KeyEffect, type UiState } from '../keys.ts';
-import { layoutFor } from '../layout.ts';
-import { buildViewModel } from '../view-model.ts';
+import { layoutFor, type Layout } from '../layout.ts';
+import type { ChartSpec } from '../plot/chart.ts';
+import { buildViewModel, type ViewModel } from '../view-model.ts';
 import { ChartBox } from './chart-box.tsx';
 import { Footer, HealthLine, WarningLine } from './footer.tsx';
 import { HelpPanel } from './help-panel.tsx';
@@ -24,6 +25,34 @@ export interface AppProps {
 
 /** Wall time after a line during which "now" is not advanced: a busy moment of this process is not a silent device. */
 export const ARRIVAL_GRACE_MS = 500;
+
+/** The two charts of the view: period against amplitude, and amplitude against time. */
+function chartSpecs(vm: ViewModel, L: Layout): { periodChart: ChartSpec; amplitudeChart: ChartSpec } {
+  const periodChart: ChartSpec = {
+    width: L.plotWidth,
+    height: L.chartHeight,
+    x: { label: 'amplitude θ0 (°)', tickSuffix: '°', minSpan: 2 },
+    y: { label: 'period T (s)  ⠂ data  ─ exact law', minSpan: 0.0005 },
+    series: [
+      { xs: vm.periodCurve.xs, ys: vm.periodCurve.ys, style: 'line' as const, tone: 'law' },
+      { xs: vm.periodPoints.xs, ys: vm.periodPoints.ys, style: 'dots' as const, tone: 'points' },
+    ],
+    emptyText: 'periods appear after two swings',
+  };
+  const amplitudeChart: ChartSpec = {
+    width: L.plotWidth,
+    height: L.height - L.statusLines - 3 - L.chartHeight,
+    x: { label: 'time (min)', minSpan: 0.5 },
+    y: { label: `amplitude θ0 (°)  ⠂ data  ─ ${vm.amplitudeCurve.xs.length ? 'fitted decay' : 'fit to come'}`, minSpan: 0.5 },
+    series: [
+      { xs: vm.amplitudeCurve.xs, ys: vm.amplitudeCurve.ys, style: 'line' as const, tone: 'fit' },
+      { xs: vm.amplitudePoints.xs, ys: vm.amplitudePoints.ys, style: 'dots' as const, tone: 'points' },
+    ],
+    emptyText: 'amplitudes appear after the first swing',
+  };
+
+  return { periodChart, amplitudeChart };
+}
 
 /** Host seconds now: the last line's time, advanced at the feed's speed (after a grace) while lines are still due. */
 export function estimateNow(snap: StoreSnapshot, feed: FeedStatus, nowMs: number): number {
@@ -68,28 +97,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
   });
   const L = layoutFor(stdout.columns, stdout.rows);
 
-  const periodChart = {
-    width: L.plotWidth,
-    height: L.chartHeight,
-    x: { label: 'amplitude θ0 (°)', tickSuffix: '°', minSpan: 2 },
-    y: { label: 'period T (s)  ⠂ data  ─ exact law', minSpan: 0.0005 },
-    series: [
-      { xs: vm.periodCurve.xs, ys: vm.periodCurve.ys, style: 'line' as const, tone: 'law' },
-      { xs: vm.periodPoints.xs, ys: vm.periodPoints.ys, style: 'dots' as const, tone: 'points' },
-    ],
-    emptyText: 'periods appear after two swings',
-  };
-  const amplitudeChart = {
-    width: L.plotWidth,
-    height: L.height - L.statusLines - 3 - L.chartHeight,
-    x: { label: 'time (min)', minSpan: 0.5 },
-    y: { label: `amplitude θ0 (°)  ⠂ data  ─ ${vm.amplitudeCurve.xs.length ? 'fitted decay' : 'fit to come'}`, minSpan: 0.5 },
-    series: [
-      { xs: vm.amplitudeCurve.xs, ys: vm.amplitudeCurve.ys, style: 'line' as const, tone: 'fit' },
-      { xs: vm.amplitudePoints.xs, ys: vm.amplitudePoints.ys, style: 'dots' as const, tone: 'points' },
-    ],
-    emptyText: 'amplitudes appear after the first swing',
-  };
+  const { periodChart, amplitudeChart } = chartSpecs(vm, L);
 
   return (
     <Box flexDirection="column" width={L.width}>

@@ -63,7 +63,7 @@ export function renderChart(spec: ChartSpec): ChartLine[] {
   const gutter = Math.max(1, ...yLabels.map((l) => l.length));
   const cols = width - gutter - 1;
 
-  const lines: ChartRun[][] = [];
+  const lines: ChartLine[] = [];
   lines.push([{ text: spec.y.label.slice(0, width).padEnd(width), tone: 'label' }]);
 
   const canvas = createCanvas(cols, plotRows);
@@ -109,6 +109,12 @@ export function renderChart(spec: ChartSpec): ChartLine[] {
     lines.push(out);
   }
 
+  lines.push(...xAxisLines(spec, xr, px, width, gutter, cols));
+  return lines;
+}
+
+/** The x axis with its ticks, and the line of tick values with the x title at its right end. */
+function xAxisLines(spec: ChartSpec, xr: ReturnType<typeof dataRange>, px: (x: number) => number, width: number, gutter: number, cols: number): ChartLine[] {
   const axis = ['└', ...'─'.repeat(cols)];
   // The x title sits at the right end of the tick-label line; tick values that would touch it are left out.
   const xLabel = spec.x.label.slice(0, width);
@@ -129,9 +135,10 @@ export function renderChart(spec: ChartSpec): ChartLine[] {
     }
   }
   for (let k = 0; k < xLabel.length; k++) under[labelStart + k] = xLabel[k]!;
-  lines.push([{ text: ' '.repeat(gutter), tone: 'label' }, { text: axis.join(''), tone: 'axis' }]);
-  lines.push([{ text: under.join(''), tone: 'label' }]);
-  return lines;
+  return [
+    [{ text: ' '.repeat(gutter), tone: 'label' }, { text: axis.join(''), tone: 'axis' }],
+    [{ text: under.join(''), tone: 'label' }],
+  ];
 }
 
 /** The chart as plain text (tones dropped), for tests and the plain fallback. */
