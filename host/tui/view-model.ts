@@ -141,9 +141,9 @@ function plots(result: AnalysisResult): Pick<ViewModel, 'periodPoints' | 'period
   return { periodPoints, periodCurve, amplitudePoints, amplitudeCurve };
 }
 
-/** Builds the screen's data from a snapshot. */
-export function buildViewModel(input: ViewInput): ViewModel {
-  const { feed, live, result, rig } = input;
+/** The status bar: source, speed, device, connection (line 1); clock, run time, estimates, journal (line 2). */
+function statusItems(input: ViewInput): StatusItem[] {
+  const { feed, live, result } = input;
   const hello = live.hello;
   const watching = feed.sourceKind === 'watch';
   const source = watching && feed.journal ? `${feed.sourceLabel} (${formatBytes(feed.journal.bytes)})` : feed.sourceLabel;
@@ -174,6 +174,11 @@ export function buildViewModel(input: ViewInput): ViewModel {
         : { label: 'journal', value: 'none', tone: 'muted', line: 2 },
     );
 
+  return status;
+}
+
+/** The numbers panel: the live swing, then the full result's T0, g, local g, Q, gate offset and passes. */
+function numberRows(live: ViewInput['live'], result: ViewInput['result']): NumberRow[] {
   const [h1, h2] = live.halfPeriodsS;
   const expected = result.expected_g_m_s2;
   const numbers: NumberRow[] = [
@@ -201,6 +206,15 @@ export function buildViewModel(input: ViewInput): ViewModel {
   });
   // The analysis' count of valid passes (what `analyze` reports); the live count only until the first result has any.
   numbers.push({ label: 'passes', value: String(result.passes > 0 ? result.passes : live.passes), unit: '', tone: 'normal' });
+
+  return numbers;
+}
+
+/** Builds the screen's data from a snapshot. */
+export function buildViewModel(input: ViewInput): ViewModel {
+  const { feed, live, result, rig } = input;
+  const status = statusItems(input);
+  const numbers = numberRows(live, result);
 
   // Link and device counts come fresh from the live state; pass rejections only from the full analysis.
   const c = live.counts;
