@@ -2,7 +2,7 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { NotMeasured, REPO_ROOT, type BenchContext, type Benchmark } from './benchmark.ts';
-import { runMeasured } from './child-stats.ts';
+import { runMeasured, type ChildStats } from './child-stats.ts';
 import { LONG_RUN_SCENARIO, simulatedJournal } from './journals.ts';
 import type { FigureResult, Row } from './report.ts';
 
@@ -41,6 +41,21 @@ async function bestOf<T extends { wallS: number }>(n: number, f: () => Promise<T
     if (!best || r.wallS < best.wallS) best = r;
   }
   return best!;
+}
+
+/** Peak RSS of a whole `halfswing analyze` process against `halfswing --help`. */
+function peakRssRow(figure: string, cli: ChildStats, startup: ChildStats, targetMiB: number): Row {
+  const ok = cli.code === 0 && cli.peakRssMiB !== null;
+  return {
+    figure,
+    value: ok ? cli.peakRssMiB : null,
+    unit: 'MiB',
+    baselineName: 'halfswing --help',
+    baseline: startup.peakRssMiB,
+    ...(ok && startup.peakRssMiB !== null ? { ratio: cli.peakRssMiB! / startup.peakRssMiB } : {}),
+    target: `< ${targetMiB} MiB`,
+    met: ok && cli.peakRssMiB! < targetMiB,
+  };
 }
 
 async function run(ctx: BenchContext): Promise<FigureResult> {
@@ -95,16 +110,7 @@ async function run(ctx: BenchContext): Promise<FigureResult> {
     met: cli.code === 0 && cli.wallS < TARGET_ANALYZE_WALL_S,
     note: cliNote,
   });
-  rows.push({
-    figure: `halfswing analyze peak RSS, ${label}`,
-    value: cli.code === 0 ? cli.peakRssMiB : null,
-    unit: 'MiB',
-    baselineName: 'halfswing --help',
-    baseline: startup.peakRssMiB,
-    ...(cli.peakRssMiB !== null && startup.peakRssMiB !== null ? { ratio: cli.peakRssMiB / startup.peakRssMiB } : {}),
-    target: `< ${TARGET_RSS_MIB} MiB`,
-    met: cli.code === 0 && cli.peakRssMiB !== null && cli.peakRssMiB < TARGET_RSS_MIB,
-  });
+  rows.push(peakRssRow(`halfswing analyze peak RSS, ${label}`, cli, startup, TARGET_RSS_MIB));
 
   const week = await simulatedJournal(ctx, LONG_RUN_SCENARIO, weekS);
   ctx.progress(`${week.lines} lines; analysing it`);
@@ -132,14 +138,7 @@ async function run(ctx: BenchContext): Promise<FigureResult> {
 
   const weekCli = await runMeasured(process.execPath, [CLI, 'analyze', week.file, '--json'], { cwd: REPO_ROOT, env: BUNDLE_ENV });
   rows.push({
-    figure: `halfswing analyze peak RSS, ${wlabel}`,
-    value: weekCli.code === 0 ? weekCli.peakRssMiB : null,
-    unit: 'MiB',
-    baselineName: 'halfswing --help',
-    baseline: startup.peakRssMiB,
-    ...(weekCli.peakRssMiB !== null && startup.peakRssMiB !== null ? { ratio: weekCli.peakRssMiB / startup.peakRssMiB } : {}),
-    target: `< ${TARGET_WEEK_RSS_MIB} MiB`,
-    met: weekCli.code === 0 && weekCli.peakRssMiB !== null && weekCli.peakRssMiB < TARGET_WEEK_RSS_MIB,
+    ...peakRssRow(`halfswing analyze peak RSS, ${wlabel}`, weekCli, startup, TARGET_WEEK_RSS_MIB),
     note: weekCli.code === 0 ? `whole process, ${weekCli.wallS.toFixed(2)} s` : `analyze exited ${weekCli.code}: ${weekCli.stderr.trim().split('\n')[0] ?? ''}`,
   });
 
