@@ -2,12 +2,12 @@
 import React from 'react';
 import { render } from 'ink';
 import type { JournalEntry } from '../../protocol/journal.ts';
-import { createLiveStore, type PipelineLike, type Timers } from './live-store.ts';
+import { createLiveStore, type LiveStore, type PipelineLike, type StoreSnapshot, type Timers } from './live-store.ts';
 import type { ResultSource } from '../pipeline/result-client.ts';
 import type { Feed, FeedStatus } from './feed.ts';
 import type { KeyEffect } from './keys.ts';
 import { App, estimateNow } from './components/app.tsx';
-import { buildViewModel } from './view-model.ts';
+import { buildViewModel, type ViewModel } from './view-model.ts';
 import { plainStatusLine } from './plain-status.ts';
 
 type Stream = NodeJS.WritableStream & { isTTY?: boolean; columns?: number; rows?: number };
@@ -39,6 +39,34 @@ async function pump(entries: AsyncIterable<JournalEntry>, push: (e: JournalEntry
     // A fast replay hands over entries without waiting; let timers (render, keys) run now and then.
     if (++n % yieldEvery === 0) await new Promise((r) => setTimeout(r, 0));
   }
+}
+
+/** The screen's data now, from a store snapshot and the feed's status. */
+function viewModelNow(snap: StoreSnapshot, feed: FeedStatus, nowMs: number): ViewModel {
+  return buildViewModel({
+    feed,
+    live: snap.live,
+    result: snap.result,
+    rig: snap.rig,
+    now_s: estimateNow(snap, feed, nowMs),
+    since_s: snap.firstHost_s ?? 0,
+    heartbeatInterval_s: snap.heartbeatInterval_s,
+    restartedAt_s: snap.restartedAt_s,
+    paused: false,
+  });
+}
+
+/** Renders the ink view on the terminal; returns how to take it down. */
+function mountInk(opts: RunViewOptions, store: LiveStore, status: () => FeedStatus, onEffect: (e: KeyEffect) => void): () => void {
+  const ink = render(<App store={store} status={status} nowMs={opts.nowMs} onEffect={onEffect} interactive />, {
+    stdout: opts.stdout as NodeJS.WriteStream,
+    stderr: opts.stderr as NodeJS.WriteStream,
+    stdin: opts.stdin as NodeJS.ReadStream,
+    exitOnCtrlC: false,
+    patchConsole: false,
+    maxFps: 10,
+  });
+  return () => ink.unmount();
 }
 
 /** Runs the view until the user quits, a signal arrives, or (without a terminal) the feed ends; resolves to the exit code. */
@@ -115,34 +143,10 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
     if (!outputGone) opts.stdout.write(`${plainStatusLine(vmNow())}\n`);
   };
 
-  const vmNow = () => {
-    const snap = store.getSnapshot();
-    const feed = status();
-    return buildViewModel({
-      feed,
-      live: snap.live,
-      result: snap.result,
-      rig: snap.rig,
-      now_s: estimateNow(snap, feed, opts.nowMs()),
-      since_s: snap.firstHost_s ?? 0,
-      heartbeatInterval_s: snap.heartbeatInterval_s,
-      restartedAt_s: snap.restartedAt_s,
-      paused: false,
-    });
-  };
+  const vmNow = (): ViewModel => viewModelNow(store.getSnapshot(), status(), opts.nowMs());
 
   if (interactive) {
-    const ink = render(<App store={store} status={status} nowMs={opts.nowMs} onEffect={onEffect} interactive />, {
-      stdout: opts.stdout as NodeJS.WriteStream,
-      stderr: opts.stderr as NodeJS.WriteStream,
-      stdin: opts.stdin as NodeJS.ReadStream,
-      exitOnCtrlC: false,
-      patchConsole: false,
-      maxFps: 10,
-    });
-    unmount = () => {
-      ink.unmount();
-    };
+    unmount = mountInk(opts, store, status, onEffect);
   } else {
     plainTimer = opts.timers.setInterval(() => writePlain(), (opts.plainEvery_s ?? 5) * 1000);
   }
