@@ -249,3 +249,14 @@ export function assumedNote(rig: AnyRig): string | null {
   const what = a.map((k) => `${k} (${ASSUMED_VALUES[k] * 1000} mm assumed)`).join(' and ');
   return `the rig gives no ${what}; the uncertainty of g rests on ${a.length > 1 ? 'these guesses' : 'this guess'}: measure and write ${a.length > 1 ? 'them' : 'it'} in the rig file`;
 }
+
+/**
+ * What the timing analysis of one journal needs of a rig, in the ordinary rig's shape: for a reversible pendulum the
+ * flag's radius stands for the length (the amplitude is solved there) and there is no bob or string to correct for.
+ */
+export function swingView(rig: AnyRig): Rig {
+  if (isSimpleRig(rig)) return rig;
+  const { name, flag_width_m, flag_width_u_m, blocked_level, beams, air_density_kg_m3, latitude_deg, elevation_m } = rig;
+  const view: Rig = { flag_width_m, flag_width_u_m, blocked_level, beams, air_density_kg_m3, length_m: rig.flag_radius_m, length_u_m: 0 };
+  return { ...view, ...(name !== undefined ? { name } : {}), ...(latitude_deg !== undefined ? { latitude_deg } : {}), ...(elevation_m !== undefined ? { elevation_m } : {}) };
+}

@@ -6,7 +6,7 @@
 import type { RoomReading } from '../analysis/room-drift.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import type { RejectReason } from '../../protocol/records.ts';
-import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
+import { parseRig, swingView, type AnyRig, type Rig } from '../../protocol/rig.ts';
 import { SequenceTracker } from '../../protocol/sequence.ts';
 import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
 import { analyzeRun } from '../analysis/analyze-run.ts';
@@ -54,8 +54,10 @@ export interface RunPipeline {
   result(opts?: { rows?: boolean }): AnalysisResult;
   /** Restarts the live running estimates (mean period) from `hostUs` on; the batch result is unaffected. */
   restartEstimates(hostUs: number): void;
-  /** The rig in use (given, or from the journal), if any. */
+  /** The rig in use (given, or from the journal), if any; a reversible pendulum's as its swingView. */
   rig(): Rig | null;
+  /** The journal's own #rig as its file gives it (a reversible pendulum included), if it had a usable one. */
+  journalRig(): AnyRig | null;
 }
 
 const TWO48 = 2 ** 48;
@@ -102,6 +104,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   const tracker = new SequenceTracker();
   const warnings: string[] = [];
   let journalRig: Rig | null = null;
+  let journalFileRig: AnyRig | null = null;
   const rigNow = (): Rig | null => opts.rig ?? journalRig;
   let startIso: string | null = null;
   let source: string | null = null;
@@ -339,8 +342,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
           return;
         case 'rig':
           if (!opts.rig && !journalRig) {
-            const r = parseSimpleRig(entry.json);
-            if (r.ok) journalRig = r.rig;
+            const r = parseRig(entry.json);
+            if (r.ok) (journalRig = swingView(r.rig)), (journalFileRig = r.rig);
             else warnings.push(`the journal's #rig line is not usable (${r.error}); give --rig FILE`);
           }
           return;
@@ -440,5 +443,6 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     },
 
     rig: rigNow,
+    journalRig: () => journalFileRig,
   };
 }

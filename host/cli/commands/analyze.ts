@@ -2,7 +2,8 @@
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { basename, dirname, relative, resolve, sep } from 'node:path';
-import { assumedNote, isSimpleRig } from '../../../protocol/rig.ts';
+import { assumedNote, isSimpleRig, swingView } from '../../../protocol/rig.ts';
+import { reversibleRunResult } from '../../analysis/reversible-result.ts';
 import { formatSummary } from '../../output/format-summary.ts';
 import { swingsCsvChunks } from '../../output/swings-csv.ts';
 import { analyzeJournalFile } from '../../pipeline/analyze-entries.ts';
@@ -71,13 +72,14 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const rigPath = optString(args, 'rig');
     // The note on assumed uncertainties comes once, below, for the rig actually used (file or journal).
     const rig = rigPath !== undefined ? loadRigFile(rigPath, io.cwd, () => {}) : undefined;
-    if (rig && !isSimpleRig(rig)) throw new UserError(`rig file ${rigPath}: analyze handles the ordinary pendulum only so far, not "reversible"`);
     const csvPath = optString(args, 'csv');
     const reportPath = optString(args, 'report');
     await guardAnalyzeOutputs(io.cwd, fromStdin ? null : journal, rigPath, csvPath, reportPath);
     const stdinHash = createHash('sha256');
     const input = fromStdin ? hashed(io.stdin as AsyncIterable<string | Buffer>, stdinHash) : undefined;
-    const { pipeline, result } = await analyzeJournalFile(journal, { ...(rig ? { rig } : {}), clock, rows: csvPath !== undefined }, input);
+    const { pipeline, result: full } = await analyzeJournalFile(journal, { ...(rig ? { rig: swingView(rig) } : {}), clock, rows: csvPath !== undefined }, input);
+    const fileRig = rig ?? pipeline.journalRig();
+    const result = fileRig && !isSimpleRig(fileRig) ? reversibleRunResult(full, fileRig) : full;
     if (result.passes + result.counts.rejected_passes + (result.counts.unsequenced_passes ?? 0) === 0)
       throw new UserError(`${args.positionals[0]} has no passes of the pendulum (is the gate on channel ${pipeline.rig()?.beams[0].channel ?? 0}, and did the bob swing?)`);
     const name = fromStdin ? 'standard input' : basename(journal);
