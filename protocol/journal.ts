@@ -4,7 +4,7 @@
 export const JOURNAL_MAGIC = '#halfswing-journal 1';
 
 /** Annotation words the recorder writes; readers accept any word. */
-export type AnnotationWord = 'connect' | 'disconnect' | 'note' | 'error' | (string & {});
+export type AnnotationWord = 'connect' | 'disconnect' | 'stop' | 'prehello' | 'note' | 'error' | (string & {});
 
 /** One parsed journal line. */
 export type JournalEntry =

@@ -80,7 +80,7 @@ export interface DeviceLink extends AsyncIterable<LinkEvent> {
   hello(): HelloRecord | undefined;
   /**
    * Stops intake, passes on a last line whose LF was lost if it decodes, closes the port and, if connected,
-   * reports a `disconnect` with `reason` (default 'shutdown'). Idempotent.
+   * reports a `stop` with `reason` (default 'shutdown'). Idempotent.
    */
   close(reason?: string): Promise<void>;
 }
@@ -190,7 +190,8 @@ class Link implements DeviceLink {
       await s.close();
       this.framer.flush((line) => this.onLine(line, this.now()));
     }
-    if (this.connected) this.annotate('disconnect', reason);
+    // A stop the host asked for is not a lost link: it gets its own word, so it is not counted as a disconnect.
+    if (this.connected) this.annotate('stop', reason);
     this.connected = false;
     if (!this.everConnected) this.rejectReady(new UserError('link closed before the board said hello'));
     this.emit({ type: 'state', hostUs: this.now(), state: 'closed' });

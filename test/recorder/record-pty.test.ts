@@ -64,14 +64,15 @@ describe.skipIf(!enabled)('record over a pty', () => {
     ac.abort();
     await following;
     expect(followed).toEqual(es);
-    expect(words(es)).toEqual(['connect', 'disconnect']);
-    expect(es.find((e) => e.kind === 'annotation' && e.word === 'disconnect')).toMatchObject({ text: 'shutdown (SIGTERM)' });
+    // A clean SIGTERM stop is a stop, not a disconnect (#14 item 11), and is not counted as one.
+    expect(words(es)).toEqual(['connect', 'stop']);
+    expect(es.find((e) => e.kind === 'annotation' && e.word === 'stop')).toMatchObject({ text: 'shutdown (SIGTERM)' });
     // host_us never decreases within the section (JOURNAL.md, data lines).
     const us = es.flatMap((e) => (e.kind === 'data' || e.kind === 'annotation' ? [e.hostUs] : []));
     expect(us).toEqual([...us].sort((a, b) => a - b));
     const r = analyze(es);
     withinThreeSigma(r, CLEAN.physics.g_m_s2);
-    expect(r.counts).toMatchObject({ crc_errors: 0, bad_lines: 0, lines_lost: 0, reboots: 0 });
+    expect(r.counts).toMatchObject({ crc_errors: 0, bad_lines: 0, lines_lost: 0, reboots: 0, disconnects: 0 });
     // The status file is whole JSON and says the run stopped.
     const st = JSON.parse(readFileSync(status, 'utf8'));
     expect(st).toMatchObject({ state: 'stopped', lines: board.sent.length, line_errors: 0, reconnects: 0 });
@@ -99,7 +100,7 @@ describe.skipIf(!enabled)('record over a pty', () => {
     rec.proc.kill('SIGTERM');
     expect(await rec.exited).toBe(0);
     const es = await journalEntries(journal);
-    expect(words(es)).toEqual(['connect', 'disconnect', 'connect', 'disconnect']);
+    expect(words(es)).toEqual(['connect', 'disconnect', 'connect', 'stop']);
     expect(data(es)).toEqual(board.sent);
     expect(board.sent.length).toBeGreaterThan(before + 100);
     const r = analyze(es);
@@ -121,7 +122,7 @@ describe.skipIf(!enabled)('record over a pty', () => {
     expect(es.filter((e) => e.kind === 'start')).toHaveLength(1);
     const boots = new Set(data(es).flatMap((l) => (l.startsWith('H ') ? [/boot=([0-9a-f]{4})/.exec(l)![1]] : [])));
     expect(boots.size).toBe(2);
-    expect(words(es)).toEqual(['connect', 'disconnect']);
+    expect(words(es)).toEqual(['connect', 'stop']);
     const r = analyze(es);
     expect(r.counts.reboots).toBe(1);
     withinThreeSigma(r, sc.physics.g_m_s2);

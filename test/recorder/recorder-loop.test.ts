@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { JournalFullError, openJournalWriter, type WriterIo } from '../../host/journal/journal-writer.ts';
-import { runRecorder } from '../../host/journal/recorder.ts';
+import { runRecorder } from '../../host/session/recorder.ts';
 import { openDeviceLink } from '../../host/link/device-link.ts';
 import { monotonicClock } from '../../host/link/monotonic-clock.ts';
 import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';

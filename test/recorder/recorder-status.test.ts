@@ -2,7 +2,7 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { buildStatus, statusLine } from '../../host/journal/recorder-status.ts';
+import { buildStatus, statusLine } from '../../host/session/recorder-status.ts';
 import { writeStatusFile } from '../../host/journal/status-file.ts';
 
 let dir: string;

@@ -2,6 +2,7 @@
 import { resolve } from 'node:path';
 import type { Command } from '../command.ts';
 import { optString } from '../command.ts';
+import { LINK_OPTIONS, linkSettings } from '../link-options.ts';
 import { UserError } from '../../errors.ts';
 import { processViewIo } from './view-process.ts';
 
@@ -14,10 +15,11 @@ export function defaultJournalName(start: Date): string {
 export const command: Command = {
   name: 'live',
   summary: 'record from a board and show the swing live',
-  usage: 'live --port P|auto --rig FILE [--journal FILE]',
+  usage: 'live --port P|auto --rig FILE [--journal FILE] [--baud N] [--hello-timeout S] [--keep-dtr]',
   options: {
     port: { type: 'string', short: 'p', arg: 'P|auto', description: 'serial port of the board, or auto to pick the one likely board' },
     rig: { type: 'string', short: 'r', arg: 'FILE', description: 'rig description (JSON): length, flag width, ...' },
+    ...LINK_OPTIONS,
     journal: { type: 'string', short: 'o', arg: 'FILE', description: 'journal to write (appended to if it exists; default halfswing-<date>-<time>.journal here)' },
   },
   details: `
@@ -33,6 +35,7 @@ estimates from now, ? help. For long unattended runs use 'halfswing record' and 
     const { loadRigFile } = await import('../rig-file.ts');
     const rig = loadRigFile(rigPath, io.cwd, (line) => void io.stderr.write(`${line}\n`));
 
+    const settings = linkSettings(args);
     const start = new Date();
     const journalPath = resolve(io.cwd, optString(args, 'journal') ?? defaultJournalName(start));
     const { openJournalWriter } = await import('../../journal/journal-writer.ts');
@@ -45,7 +48,7 @@ estimates from now, ? help. For long unattended runs use 'halfswing record' and 
     const { createRunPipeline } = await import('../../pipeline/run-pipeline.ts');
     // No await between opening the link and subscribing to it: its first events must not be missed.
     const nowUs = monotonicClock();
-    const link = openDeviceLink({ port, now: nowUs });
+    const link = openDeviceLink({ port, now: nowUs, ...settings });
     const feed = deviceFeed({ link, writer, nowUs, start, source: `halfswing live, port ${port}`, rigJson: rigJson(rig), portLabel: port });
     return runLiveView({ feed, createPipeline: () => createRunPipeline(isSimpleRig(rig) ? { rig } : {}), ...processViewIo(io) });
   },

@@ -1,9 +1,9 @@
 // `halfswing probe`: checks a board: hello, reply to '?', heartbeat regularity, line errors, present gate levels.
-import { DEFAULT_BAUD } from '../../../protocol/link-defaults.ts';
 import { openDeviceLink } from '../../link/device-link.ts';
 import { monotonicClock } from '../../link/monotonic-clock.ts';
 import { formatProbe, probeBoard } from '../../link/probe-report.ts';
 import { optNumber, optString, type Command } from '../command.ts';
+import { LINK_OPTIONS, linkSettings } from '../link-options.ts';
 import { loadRigFile } from '../rig-file.ts';
 
 export const command: Command = {
@@ -12,10 +12,9 @@ export const command: Command = {
   usage: 'probe [--port P|auto] [options]',
   options: {
     port: { type: 'string', arg: 'P', description: "serial port, or 'auto' for the one board attached", default: 'auto' },
-    baud: { type: 'string', arg: 'N', description: 'serial speed; must match the firmware', default: String(DEFAULT_BAUD) },
+    ...LINK_OPTIONS,
     seconds: { type: 'string', arg: 'S', description: 'how long to listen to heartbeats', default: '5' },
     rig: { type: 'string', arg: 'FILE', description: "rig file, to say whether the pendulum's beam is blocked now" },
-    'hello-timeout': { type: 'string', arg: 'S', description: 'seconds to wait for the board to say hello', default: '5' },
     json: { type: 'boolean', description: 'print the report as JSON' },
   },
   details: `
@@ -24,12 +23,12 @@ Block and unblock the beam by hand during the probe and run it again to see the 
 Exit status 0 when the board looks healthy, 1 when the report lists problems.`,
   async run(args, io) {
     const rigPath = optString(args, 'rig');
-    const rig = rigPath ? loadRigFile(rigPath, io.cwd, (line) => void io.stderr.write(`${line}\n`)) : undefined;
+    // Only the beams and the blocked level matter here: no note on assumed uncertainties.
+    const rig = rigPath ? loadRigFile(rigPath, io.cwd, () => {}) : undefined;
     const now = monotonicClock();
     const link = openDeviceLink({
       port: optString(args, 'port') ?? 'auto',
-      baud: optNumber(args, 'baud', { min: 300, max: 4_000_000, integer: true })!,
-      helloTimeoutMs: optNumber(args, 'hello-timeout', { min: 0.1, max: 600 })! * 1000,
+      ...linkSettings(args),
       now,
     });
     try {

@@ -1,11 +1,10 @@
 // `halfswing record`: records a board unattended into an append-only journal, for hours or days.
 import { isSimpleRig, rigJson } from '../../../protocol/rig.ts';
 import { openJournalWriter } from '../../journal/journal-writer.ts';
-import { runRecorder } from '../../journal/recorder.ts';
-import { statusLine, type RecorderStatus } from '../../journal/recorder-status.ts';
+import { runRecorder } from '../../session/recorder.ts';
+import { statusLine, type RecorderStatus } from '../../session/recorder-status.ts';
 import { writeStatusFile } from '../../journal/status-file.ts';
 import { resolve } from 'node:path';
-import { DEFAULT_BAUD } from '../../../protocol/link-defaults.ts';
 import { openDeviceLink } from '../../link/device-link.ts';
 import { monotonicClock } from '../../link/monotonic-clock.ts';
 import { holdSleepInhibitor } from '../../link/sleep-inhibitor.ts';
@@ -13,6 +12,7 @@ import { autosuspendWarning } from '../../link/usb-power.ts';
 import { createRunPipeline } from '../../pipeline/run-pipeline.ts';
 import { optNumber, optString, type Command } from '../command.ts';
 import { UserError } from '../../errors.ts';
+import { LINK_OPTIONS, linkSettings } from '../link-options.ts';
 import { loadRigFile } from '../rig-file.ts';
 
 const SIGNALS = ['SIGINT', 'SIGTERM', 'SIGHUP'] as const;
@@ -28,9 +28,7 @@ export const command: Command = {
     status: { type: 'string', arg: 'FILE', description: 'also keep a JSON status file, rewritten atomically' },
     interval: { type: 'string', arg: 'S', description: 'seconds between status lines', default: '10' },
     quiet: { type: 'boolean', description: 'no status lines on stderr (warnings and errors still show)' },
-    baud: { type: 'string', arg: 'N', description: 'serial speed; must match the firmware', default: String(DEFAULT_BAUD) },
-    'hello-timeout': { type: 'string', arg: 'S', description: 'seconds to wait for the board to say hello', default: '5' },
-    'keep-dtr': { type: 'boolean', description: 'leave DTR up when the port closes, so a re-open does not reset the board' },
+    ...LINK_OPTIONS,
     flood: { type: 'string', arg: 'N', description: 'warn (and note in the journal) above N lines/s; 0: never', default: '500' },
     'stop-timeout': { type: 'string', arg: 'S', description: 'hard limit for a clean shutdown after a signal', default: '5' },
   },
@@ -46,9 +44,8 @@ a new device segment in the same section. Running again with the same --journal 
     if (!rigPath) throw new UserError('record: --rig FILE is required (the rig description, see hardware-notes)', 2);
     if (!journalPath) throw new UserError('record: --journal FILE is required', 2);
     const port = optString(args, 'port') ?? 'auto';
-    const baud = optNumber(args, 'baud', { min: 300, max: 4_000_000, integer: true })!;
+    const settings = linkSettings(args);
     const intervalS = optNumber(args, 'interval', { min: 0.1, max: 86_400 })!;
-    const helloS = optNumber(args, 'hello-timeout', { min: 0.1, max: 600 })!;
     const stopS = optNumber(args, 'stop-timeout', { min: 0.1, max: 600 })!;
     const flood = optNumber(args, 'flood', { min: 0 })!;
     const statusPath = optString(args, 'status');
@@ -84,7 +81,7 @@ a new device segment in the same section. Running again with the same --journal 
 
     const now = monotonicClock();
     const start = new Date();
-    const link = openDeviceLink({ port, baud, now, helloTimeoutMs: helloS * 1000, ...(args.values['keep-dtr'] ? { hupcl: false } : {}) });
+    const link = openDeviceLink({ port, now, ...settings });
     link.ready.then(
       (h) => {
         const path = link.path() ?? port;
@@ -112,7 +109,7 @@ a new device segment in the same section. Running again with the same --journal 
       summary = await runRecorder({
         link,
         writer,
-        header: { start, source: `halfswing 0.1.0 record --port ${port} (${baud} baud)`, rigJson: rigJson(rig) },
+        header: { start, source: `halfswing 0.1.0 record --port ${port} (${settings.baud} baud)`, rigJson: rigJson(rig) },
         pipeline: createRunPipeline(isSimpleRig(rig) ? { rig } : {}),
         now,
         statusEveryMs: intervalS * 1000,

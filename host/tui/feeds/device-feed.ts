@@ -1,7 +1,8 @@
 // The live feed: a board's link journaled as it arrives (the journal never waits for the screen), shown as entries.
-import { journalHeader, parseJournalLine, type JournalEntry } from '../../../protocol/journal.ts';
-import type { DeviceLink, LinkEvent } from '../../link/device-link.ts';
+import type { JournalEntry } from '../../../protocol/journal.ts';
+import type { DeviceLink } from '../../link/device-link.ts';
 import type { JournalWriter } from '../../journal/journal-writer.ts';
+import { startRecording } from '../../session/recording-session.ts';
 import type { ConnectionState, Feed, FeedStatus } from '../feed.ts';
 
 /** The part of the device link the feed uses. */
@@ -18,24 +19,11 @@ export interface DeviceFeedOptions {
   readonly portLabel: string;
 }
 
-/** Annotation entries and data entries exactly as the journal gets them. */
-function toEntry(e: LinkEvent): JournalEntry | null {
-  if (e.type === 'line') return { kind: 'data', hostUs: e.hostUs, line: e.line };
-  if (e.type === 'annotation') return { kind: 'annotation', hostUs: e.hostUs, word: e.word, text: e.text };
-  return null;
-}
-
 /** Journals the link's lines and annotations as they arrive; the entries follow for the view. */
 export function deviceFeed(opts: DeviceFeedOptions): Feed {
   const { link, writer } = opts;
   const header = { start: opts.start, source: opts.source, ...(opts.rigJson !== undefined ? { rigJson: opts.rigJson } : {}) };
-  // The block header goes in with the first line, so a board that never answers leaves no journal behind.
-  let started = false;
-  const ensureBlock = (): void => {
-    if (!started) writer.startBlock(header);
-    started = true;
-  };
-  const queue: JournalEntry[] = journalHeader({ ...header, withMagic: true }).map(parseJournalLine);
+  const queue: JournalEntry[] = [];
   let wake: (() => void) | null = null;
   let connection: ConnectionState = { kind: 'opening' };
   let closed = false;
@@ -51,8 +39,13 @@ export function deviceFeed(opts: DeviceFeedOptions): Feed {
     void close();
   };
 
-  link.onEvent((e) => {
-    if (e.type === 'state') {
+  // The same recording session as `record`: the block starts at the hello; the view sees what the journal gets.
+  const session = startRecording({
+    link,
+    writer,
+    header,
+    onEntry: enqueue,
+    onState: (e) => {
       if (e.state === 'opening') connection = { kind: 'opening' };
       else if (e.state === 'waiting-hello') connection = { kind: 'waiting-hello' };
       else if (e.state === 'connected') connection = { kind: 'connected' };
@@ -62,18 +55,8 @@ export function deviceFeed(opts: DeviceFeedOptions): Feed {
         connection = { kind: 'ended', why: failure ? failure.message : 'port closed' };
         wake?.();
       }
-      return;
-    }
-    const entry = toEntry(e);
-    if (!entry) return;
-    try {
-      ensureBlock();
-      if (e.type === 'line') writer.data(e.hostUs, e.line);
-      else if (e.type === 'annotation') writer.annotate(e.hostUs, e.word, e.text);
-    } catch (err) {
-      fail(err);
-    }
-    enqueue(entry);
+    },
+    onWriteError: fail,
   });
   // No hello at all: the link gives up with a message that says what to check.
   link.ready.catch(fail);
@@ -107,10 +90,7 @@ export function deviceFeed(opts: DeviceFeedOptions): Feed {
       writesJournal: !closed,
     }),
     async note(text) {
-      const hostUs = opts.nowUs();
-      ensureBlock();
-      writer.annotate(hostUs, 'note', text);
-      enqueue({ kind: 'annotation', hostUs, word: 'note', text });
+      session.note(opts.nowUs(), text);
     },
     close,
   };

@@ -1,10 +1,11 @@
 // The recording loop: link events → journal (and the pipeline), status snapshots, one shutdown path.
-import { journalHeader, parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
-import type { DeviceLink, LinkEvent } from '../link/device-link.ts';
+import type { JournalEntry } from '../../protocol/journal.ts';
+import type { DeviceLink } from '../link/device-link.ts';
 import type { MicrosClock } from '../link/monotonic-clock.ts';
 import type { RunPipeline } from '../pipeline/run-pipeline.ts';
 import { createResultSource, type ResultSource } from '../pipeline/result-client.ts';
-import type { BlockHeader, JournalWriter } from './journal-writer.ts';
+import type { BlockHeader, JournalWriter } from '../journal/journal-writer.ts';
+import { startRecording } from './recording-session.ts';
 import { buildStatus, type RecorderStatus } from './recorder-status.ts';
 
 export interface RecorderOptions {
@@ -50,9 +51,7 @@ export interface RecorderSummary {
 export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> {
   const wallNow = o.wallNow ?? (() => new Date());
   const flood = o.floodLinesPerS ?? 500;
-  let started = false;
   let state: RecorderStatus['state'] = 'waiting-hello';
-  let pending: LinkEvent[] = [];
   let error: Error | undefined;
   let g: { value: number | null; u: number | null } = { value: null, u: null };
   let gDueUs = 0;
@@ -92,22 +91,25 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
     o.pipeline?.push(e);
     results?.push(e);
   };
-  const write = (e: LinkEvent): void => {
-    if (e.type === 'line') {
-      o.writer.data(e.hostUs, e.line);
-      feed({ kind: 'data', hostUs: e.hostUs, line: e.line });
-    } else if (e.type === 'annotation') {
-      o.writer.annotate(e.hostUs, e.word, e.text);
-      feed({ kind: 'annotation', hostUs: e.hostUs, word: e.word, text: e.text });
-    }
-  };
-  const begin = (): void => {
-    o.writer.startBlock(o.header);
-    for (const line of journalHeader({ ...o.header, withMagic: false })) feed(parseJournalLine(line));
-    started = true;
-    for (const p of pending) write(p);
-    pending = [];
-  };
+  let closed!: () => void;
+  const linkClosed = new Promise<void>((r) => (closed = r));
+  const session = startRecording({
+    link: o.link,
+    writer: o.writer,
+    header: o.header,
+    onEntry: feed,
+    onState: (e) => {
+      if (e.state === 'connected') state = 'connected';
+      else if (e.state === 'reconnecting') state = 'reconnecting';
+      else if (e.state === 'waiting-hello' && session.started()) state = 'reconnecting';
+      else if (e.state === 'closed') closed();
+    },
+    onWriteError: (e) => {
+      error ??= e;
+      void o.link.close('journal write failed');
+    },
+  });
+  const started = (): boolean => session.started();
 
   const snapshot = (): RecorderStatus => {
     const t = o.now();
@@ -117,17 +119,11 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
     const warnings = [...(o.warnings?.() ?? [])];
     if (rate.perS > flood) {
       warnings.push(`device is flooding: ${Math.round(rate.perS)} lines/s (check the gate for noise or bounce)`);
-      if (!flooding && started && !error) {
-        try {
-          o.writer.annotate(t, 'note', `device flooding: ${Math.round(rate.perS)} lines/s`);
-        } catch (e) {
-          error ??= e as Error;
-        }
-      }
+      if (!flooding && started() && !error) session.note(t, `device flooding: ${Math.round(rate.perS)} lines/s`);
       flooding = true;
     } else flooding = false;
     // g comes from the last finished analysis; a new one starts when due (it lands in a later status).
-    if (o.pipeline && started && t >= gDueUs && !inFlight && state !== 'stopped') {
+    if (o.pipeline && started() && t >= gDueUs && !inFlight && state !== 'stopped') {
       inFlight = refreshG(t).finally(() => (inFlight = null));
     }
     return buildStatus({
@@ -151,28 +147,12 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
   if (o.signal.aborted) stop();
   else o.signal.addEventListener('abort', stop, { once: true });
   try {
-    for await (const e of o.link) {
-      if (e.type === 'state') {
-        if (e.state === 'connected') state = 'connected';
-        else if (e.state === 'reconnecting') state = 'reconnecting';
-        else if (e.state === 'waiting-hello' && started) state = 'reconnecting';
-        if (e.state === 'connected' && !started) begin();
-        continue;
-      }
-      if (!started) {
-        pending.push(e);
-        continue;
-      }
-      write(e);
-    }
-  } catch (e) {
-    error = e as Error;
-    await o.link.close('journal write failed');
+    await linkClosed;
   } finally {
     clearInterval(tick);
     o.signal.removeEventListener('abort', stop);
   }
-  if (!started && !error) {
+  if (!started() && !error) {
     await results?.close().catch(() => {});
     // Throws the reason the board never answered; nothing was written.
     await o.link.ready;
@@ -185,7 +165,7 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
   state = 'stopped';
   // The last status carries g of every line written.
   await inFlight;
-  if (started) await refreshG(o.now());
+  if (started()) await refreshG(o.now());
   await results?.close().catch(() => {});
   const status = snapshot();
   o.onStatus?.(status);
