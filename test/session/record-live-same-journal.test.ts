@@ -40,7 +40,14 @@ interface Script {
 function nonResettingBoard(opts: { answers: boolean }): Script {
   const d = new DeviceLines(0x2b2b);
   const binding = new FakeBinding();
-  binding.add('/dev/ttyX', {}, (cmd) => (cmd === '?' && opts.answers ? [d.hello()] : []));
+  // The board answers the first `?` asked once the script says so (the link asks again until then), so the
+  // hello lands at the same host time in every run.
+  let mayAnswer = false;
+  binding.add('/dev/ttyX', {}, (cmd) => {
+    if (cmd !== '?' || !mayAnswer) return [];
+    mayAnswer = false;
+    return [d.hello()];
+  });
   const s: Script = {
     binding,
     now: 0,
@@ -53,6 +60,7 @@ function nonResettingBoard(opts: { answers: boolean }): Script {
       await until(() => link.stats().lines >= before + 3, 'pre-hello lines read');
       if (!opts.answers) return;
       s.now = 2000;
+      mayAnswer = true;
       await link.ready;
       for (let k = 0; k < 4; k++) {
         s.now = 3000 + k * 1000;
