@@ -1,5 +1,6 @@
 // The human summary of `halfswing analyze`: the main figures with uncertainties, the budget, counts and warnings.
 import type { AnalysisResult } from '../analysis/result.ts';
+import { duration } from '../report/format.ts';
 
 const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
 
@@ -15,7 +16,7 @@ export function plusMinus(v: number | null, u: number | null, unit = ''): string
 export function formatSummary(r: AnalysisResult, journalName: string): string {
   const L: string[] = [];
   L.push(`halfswing analysis of ${journalName}`);
-  L.push(`  run              ${r.run.start_iso ?? 'start unknown'}, ${(r.run.duration_s / 3600).toFixed(2)} h, firmware ${r.run.firmware ?? '?'}`);
+  L.push(`  run              ${r.run.start_iso ?? 'start unknown'}, ${r.run.duration_s >= 3600 ? `${(r.run.duration_s / 3600).toFixed(2)} h` : duration(r.run.duration_s)}, firmware ${r.run.firmware ?? '?'}`);
   L.push(`  passes           ${r.passes} valid, ${r.periods} full periods`);
   L.push(`  T0               ${plusMinus(r.T0_s, r.T0_u_s, ' s')}   (zero amplitude, exact law 2K/π)`);
   L.push(`  g                ${plusMinus(r.g_m_s2, r.g_u_m_s2, ' m/s²')}   (k = 1; expanded k = 2: ± ${fix(r.g_u_m_s2 !== null ? 2 * r.g_u_m_s2 : null, 5)})`);

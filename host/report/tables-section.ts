@@ -60,7 +60,7 @@ const COUNT_LABELS: Record<keyof RunCounts, string> = {
   glitches: 'glitches dropped',
   bounces: 'bounces merged',
   edge_resyncs: 'edge sequences resynchronised',
-  unsequenced_passes: 'passes too few to start a beat',
+  unsequenced_passes: 'passes left out: too few in a row to tell one swing from the next, or the bob no longer cleared the beam',
   long_gaps: 'gaps too long to bridge',
   malformed_journal_lines: 'malformed journal lines',
 };

@@ -1,5 +1,6 @@
 // Stage: what the analysis warns about, from the outputs of the other stages, in a fixed order.
 import type { Rig } from '../../../protocol/rig.ts';
+import { decayBound } from '../decay-bound.ts';
 import type { GateOffset } from '../gate-offset.ts';
 import type { ClockApplied, SequencedPasses } from '../passes.ts';
 import type { PeriodLawFit } from '../period-law.ts';
@@ -50,10 +51,19 @@ function passWarnings(w: WarningInput): string[] {
   return out;
 }
 
+/** Why there is no damping fit: too few amplitudes, or (with enough) no measurable decay, with the Q it rules out. */
+function noDampingWarning(t: readonly number[], a: readonly number[], T0: number): string {
+  const bound = a.length >= 40 ? decayBound(t, a, T0) : null;
+  if (!bound) return `too few swings to fit the damping (needs ≥ 40 passes with an amplitude, had ${a.length})`;
+  const deg = (x: number): string => ((x * 180) / Math.PI).toFixed(2);
+  const q = Number.isFinite(bound.qLower) ? `Q > ${bound.qLower.toPrecision(2)} (two standard uncertainties)` : 'Q unbounded';
+  return `no measurable decay over the run (amplitude ${deg(bound.aMin)}° to ${deg(bound.aMax)}°): ${q}; a longer run shows the damping`;
+}
+
 function fitWarnings(w: WarningInput): string[] {
   const { rig, T0, law, gate } = w;
   const out: string[] = [];
-  if (T0 !== null && rig && !w.decay.damping) out.push('too few swings, or too little decay, to fit the damping (needs ≥ 40 passes)');
+  if (T0 !== null && rig && !w.decay.damping) out.push(noDampingWarning(w.decay.t, w.decay.amplitude, T0));
   if (T0 !== null && rig && !law) out.push('too few periods or too narrow an amplitude range to fit T = T0(1 + Bθ0² + Cθ0⁴) (B would be uncertain by > 30 %)');
   else if (law && law.C === null) out.push('C is held at 11/3072: the amplitudes do not reach 20°, or do not pin C down (θ0⁴ cannot be told from θ0² there)');
   if (gate && gate.alignedSegments > 0) out.push(`gate offset: the side of ${gate.alignedSegments} later segment(s) was matched to the first (passes between segments are not known)`);
