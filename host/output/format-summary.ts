@@ -1,16 +1,9 @@
 // The human summary of `halfswing analyze`: the main figures with uncertainties, the budget, counts and warnings.
 import type { AnalysisResult } from '../analysis/result.ts';
 import { duration } from '../report/format.ts';
+import { plusMinus } from './value-u.ts';
 
 const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
-
-/** Value ± standard uncertainty with a sensible number of digits (two significant digits of the uncertainty). */
-export function plusMinus(v: number | null, u: number | null, unit = ''): string {
-  if (v === null) return '—';
-  if (u === null || !(u > 0)) return `${v.toPrecision(8)}${unit}`;
-  const d = Math.max(0, Math.min(12, 1 - Math.floor(Math.log10(u))));
-  return `${v.toFixed(d)} ± ${u.toFixed(d)}${unit}`;
-}
 
 /** Plain-text summary, one fact per line. */
 export function formatSummary(r: AnalysisResult, journalName: string): string {

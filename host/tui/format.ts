@@ -1,17 +1,11 @@
 // Number formatting for the live view: values with their uncertainty, durations, sizes, signed offsets.
+import { plusMinus } from '../output/value-u.ts';
 
-/** Decimals that show `u` with two significant digits (at least `min`, at most `max`). */
-export function decimalsForU(u: number, min = 0, max = 9): number {
-  if (!(u > 0) || !Number.isFinite(u)) return min;
-  return Math.min(max, Math.max(min, 1 - Math.floor(Math.log10(u))));
-}
-
-/** `value ± u` with u to two significant digits and the value to the same decimals; `—` when unknown. */
+/** `value ± u` by the one rule of host/output/value-u.ts; without u the value to `fallbackDecimals`; `—` when unknown. */
 export function formatWithU(value: number | null | undefined, u: number | null | undefined, fallbackDecimals = 4): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
   if (u === null || u === undefined || !(u > 0) || !Number.isFinite(u)) return value.toFixed(fallbackDecimals);
-  const d = decimalsForU(u);
-  return `${value.toFixed(d)} ± ${u.toFixed(d)}`;
+  return plusMinus(value, u);
 }
 
 /** A fixed-decimals number or `—`. */

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { decimalsFor, duration, sig, valueU } from '../../host/report/format.ts';
+import { duration, sig, valueU } from '../../host/report/format.ts';
+import { decimalsForU as decimalsFor } from '../../host/output/value-u.ts';
 import { parseShown } from './report-numbers.ts';
 
 const num = (s: string): number => Number(s.replace('\u2212', '-'));

@@ -1,6 +1,7 @@
 // Formatting of values with uncertainty, durations, sizes and speeds for the live view.
 import { describe, expect, it } from 'vitest';
-import { decimalsForU, formatBytes, formatDuration, formatFixed, formatSpeed, formatWithU } from '../../host/tui/format.ts';
+import { formatBytes, formatDuration, formatFixed, formatSpeed, formatWithU } from '../../host/tui/format.ts';
+import { decimalsForU } from '../../host/output/value-u.ts';
 
 describe('formatWithU', () => {
   // Two significant digits on the uncertainty and the value rounded to the same place: common practice
