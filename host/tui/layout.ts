@@ -28,6 +28,28 @@ export function layoutFor(columns: number | undefined, rows: number | undefined)
   return { width, height, numbersWidth, plotWidth, chartHeight, statusLines: 2 };
 }
 
+/** True when a terminal of this size cannot hold the frame (an unknown size is taken as large enough). */
+export function tooSmall(columns: number | undefined, rows: number | undefined): boolean {
+  return (columns !== undefined && columns < MIN_WIDTH) || (rows !== undefined && rows < MIN_HEIGHT);
+}
+
+/**
+ * The one line shown instead of the frame in a terminal that cannot hold it: a frame wider or taller than the
+ * terminal wraps and scrolls into an unreadable screen. The longest wording that fits the width.
+ */
+export function tooSmallLine(columns: number | undefined, rows: number | undefined): string {
+  const size = `${columns ?? '?'}×${rows ?? '?'}`;
+  const need = `${MIN_WIDTH}×${MIN_HEIGHT}`;
+  const wordings = [
+    `terminal ${size} is too small: the live view needs at least ${need} (enlarge it, or q to quit)`,
+    `terminal ${size} too small: needs ${need}`,
+    `too small: needs ${need}`,
+    `needs ${need}`,
+  ];
+  const w = columns ?? MIN_WIDTH;
+  return wordings.find((t) => [...t].length <= w) ?? wordings[wordings.length - 1]!.slice(0, Math.max(1, w));
+}
+
 /** Width of `label value` items joined by ` · `. */
 function itemsWidth(items: readonly { label: string; value: string }[]): number {
   return items.reduce((w, it, i) => w + (i ? 3 : 0) + it.label.length + 1 + [...it.value].length, 0);

@@ -10,8 +10,8 @@ import { demoStatus, fixedStore, loadRecorded, tick } from './snapshots.ts';
 class FakeTerminal extends EventEmitter {
   last = '';
   constructor(
-    readonly columns: number,
-    readonly rows: number,
+    public columns: number,
+    public rows: number,
   ) {
     super();
   }
@@ -21,7 +21,7 @@ class FakeTerminal extends EventEmitter {
   };
 }
 
-async function frameAt(columns: number, rows: number): Promise<string[]> {
+async function frameAt(columns: number, rows: number, resizeTo?: [number, number]): Promise<string[]> {
   const rec = loadRecorded('snapshot-night-reboot');
   const out = new FakeTerminal(columns, rows);
   const inst = render(<App store={fixedStore(rec.snapshot)} status={() => demoStatus()} nowMs={() => 0} onEffect={() => {}} interactive={false} />, {
@@ -30,6 +30,11 @@ async function frameAt(columns: number, rows: number): Promise<string[]> {
     patchConsole: false,
   });
   await tick(50);
+  if (resizeTo) {
+    [out.columns, out.rows] = resizeTo;
+    out.emit('resize');
+    await tick(50);
+  }
   // Read before unmounting: in CI mode ink writes a bare last frame of its own on unmount.
   const frame = out.last;
   inst.unmount();
@@ -54,5 +59,32 @@ describe('frame size', () => {
     expect(big.length).toBeLessThanOrEqual(39);
     expect(Math.max(...big.map(cols))).toBeGreaterThan(120);
     for (const l of big) expect(cols(l)).toBeLessThanOrEqual(140);
+  });
+});
+
+// #14: a 40×12 terminal got the 80-column frame, which wrapped into an unreadable screen with no message.
+describe('a terminal smaller than 80×24', () => {
+  it('shows one line that says so and names the size needed, within the width', async () => {
+    for (const [c, r] of [
+      [40, 12],
+      [79, 40],
+      [120, 23],
+      [20, 5],
+    ] as const) {
+      const lines = await frameAt(c, r);
+      expect(lines).toHaveLength(1);
+      expect(cols(lines[0]!)).toBeLessThanOrEqual(c);
+      expect(lines[0]).toContain('80×24');
+    }
+    expect((await frameAt(40, 12))[0]).toBe('terminal 40×12 too small: needs 80×24');
+    expect((await frameAt(100, 12))[0]).toBe('terminal 100×12 is too small: the live view needs at least 80×24 (enlarge it, or q to quit)');
+  });
+
+  it('draws the frame again when the terminal grows, and the line when it shrinks', async () => {
+    const grown = await frameAt(40, 12, [80, 24]);
+    expect(grown.length).toBeGreaterThanOrEqual(20);
+    expect(grown.join('\n')).not.toContain('too small');
+    const shrunk = await frameAt(80, 24, [60, 20]);
+    expect(shrunk).toEqual(['terminal 60×20 too small: needs 80×24']);
   });
 });

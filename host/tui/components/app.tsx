@@ -1,10 +1,10 @@
 // The live view: subscribes to the store's snapshots, lays out the panels, and turns keys into effects.
-import React, { useRef, useState, useSyncExternalStore } from 'react';
-import { Box, useInput, useStdout } from 'ink';
+import React, { useEffect, useReducer, useRef, useState, useSyncExternalStore } from 'react';
+import { Box, Text, useInput, useStdout } from 'ink';
 import type { LiveStore, StoreSnapshot } from '../live-store.ts';
 import { expectsLines, type FeedStatus } from '../feed.ts';
 import { INITIAL_UI, reduceKey, type KeyEffect, type UiState } from '../keys.ts';
-import { layoutFor, type Layout } from '../layout.ts';
+import { layoutFor, tooSmall, tooSmallLine, type Layout } from '../layout.ts';
 import type { ChartSpec } from '../plot/chart.ts';
 import { buildViewModel, type ViewModel } from '../view-model.ts';
 import { ChartBox } from './chart-box.tsx';
@@ -67,6 +67,12 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
   const frozen = useRef<StoreSnapshot | null>(null);
   const { stdout } = useStdout();
   const feed = status();
+  // Ink redraws its last frame on a resize but does not render again: the layout must follow the new size.
+  const [, onResize] = useReducer((n: number) => n + 1, 0);
+  useEffect(() => {
+    stdout.on('resize', onResize);
+    return () => void stdout.off('resize', onResize);
+  }, [stdout]);
 
   // Keys can arrive faster than frames: the reducer reads the latest state, not the one of the last render.
   const uiRef = useRef<UiState>(INITIAL_UI);
@@ -81,6 +87,9 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
     },
     { isActive: interactive },
   );
+
+  // Keys stay live (q still quits); only the drawing is replaced by one line until the terminal grows.
+  if (tooSmall(stdout.columns, stdout.rows)) return <Text color="yellow">{tooSmallLine(stdout.columns, stdout.rows)}</Text>;
 
   const snap = ui.paused && frozen.current ? frozen.current : live;
   const now = estimateNow(snap, feed, ui.paused ? (snap.lastArrivalMs ?? 0) : nowMs());
