@@ -49,6 +49,12 @@ export interface ClockApplied {
   readonly drift_ppm_per_h: number | null;
   readonly span_s: number | null;
   readonly residuals: { readonly host_s: number[]; readonly residual_s: number[] };
+  /**
+   * Set when the device's ticks ran at a rate no oscillator has against the host clock (a simulator faster than
+   * real time, a wrong tick rate in the hello): the device seconds per host second. Times then stay on the device
+   * clock, each boot anchored at its first line, not joined on the host clock.
+   */
+  readonly foreign_rate?: number;
 }
 
 /** Everything the analysis needs. */

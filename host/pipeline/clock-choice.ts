@@ -13,6 +13,15 @@ export const MIN_HOST_SPAN_S = 300;
  */
 export const NOMINAL_CLOCK_U_PPM = 5000 / Math.sqrt(3);
 
+/**
+ * Largest rate error of a board's clock against the host: a 16 MHz ceramic resonator is ±0.5 % initially and ±0.2 %
+ * over temperature (docs/references.md#ref-clock-sources); 2 % leaves a wide margin. A host fit beyond it is
+ * no clock error: device and host count different seconds (a simulator on a pty at --speed 5 runs 5 device
+ * seconds per host second), and the lower envelope of host − device time, which joins boots on the host clock,
+ * then sits at the run's last heartbeat: pass times came out minutes before the start.
+ */
+export const MAX_CLOCK_ERROR_PPM = 20_000;
+
 const none = { host_s: [] as number[], residual_s: [] as number[] };
 
 /** Chooses and computes the clock correction; warnings explain fallbacks. */
@@ -33,6 +42,13 @@ export function chooseClock(
     if (option === 'pps') warnings.push(`--clock pps: no usable 1 PPS input (${pulses} pulses); using the host clock instead`);
   }
   const h = clockRateFromHost(beats);
+  if (h && Math.abs(h.ppm) > MAX_CLOCK_ERROR_PPM) {
+    const ratio = 1 + h.ppm * 1e-6;
+    warnings.push(
+      `the device's clock ran ${ratio.toFixed(2)} times as fast as the host's, beyond any board oscillator (a simulator faster than real time, or a wrong tick rate in the hello?): times and periods are on the device clock at its nominal rate`,
+    );
+    return { ...nominal(), foreign_rate: ratio };
+  }
   if (!h) {
     warnings.push('too few heartbeats to calibrate the device clock against the host: using the nominal rate');
     return nominal();

@@ -401,7 +401,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         pulses.push({ boot: b, ticks: pt });
       }
       const clock = chooseClock(opts.clock, beats, pulses, bootHz[0] ?? hzNow, w);
-      const offsets = bootOffsets(beats, clock.ppm);
+      // A foreign timebase is not joined on the host clock: each boot starts at its first line (passColumns' fallback).
+      const offsets = clock.foreign_rate === undefined ? bootOffsets(beats, clock.ppm) : new Map<number, number>();
       const k = 1 + clock.ppm * 1e-6;
       const { t, td, transit, pBoot, np, plane } = passColumns(k, offsets, rig);
       const seq = sequencePasses(t, transit, pBoot, opts.sequencing);
