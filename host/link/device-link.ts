@@ -10,6 +10,7 @@ import { monotonicClock, type MicrosClock } from './monotonic-clock.ts';
 import { openErrorMessage } from './open-errors.ts';
 import { findByIdentity, identityOf, listPorts, pickAutoPort, type PortIdentity } from './port-list.ts';
 import { openSession, type SerialSession } from './serial-session.ts';
+import { systemTimers, type Timers } from './timers.ts';
 
 /** What the link is doing. */
 export type LinkState =
@@ -50,6 +51,8 @@ export interface DeviceLinkOptions {
   readonly binding?: BindingInterface;
   /** µs since the journal block's `#start`; monotonic. Defaults to a monotonic clock started now. */
   readonly now?: MicrosClock;
+  /** Timers for the hello wait, the nudges, the heartbeat watch and the reconnect backoff (tests drive them by hand). */
+  readonly timers?: Pick<Timers, 'setTimeout' | 'clearTimeout'>;
   /** Give up waiting for the first hello after this long (ms). */
   readonly helloTimeoutMs?: number;
   /** Send `?` if no hello came this long after opening (ms; default the lesser of 1.5 s and a quarter of the timeout): the open may not have reset the board. */
@@ -120,7 +123,8 @@ class Link implements DeviceLink {
   private connected = false;
   private lastHello: HelloRecord | undefined;
   private lastBeatUs = 0;
-  private timers = new Set<NodeJS.Timeout>();
+  private readonly clock: Pick<Timers, 'setTimeout' | 'clearTimeout'>;
+  private timers = new Set<unknown>();
   private listeners: ((e: LinkEvent) => void)[] = [];
   /** Events not yet taken by the iterator: `queue[head..]` (a head index, so taking one is O(1)). */
   private queue: LinkEvent[] = [];
@@ -134,6 +138,7 @@ class Link implements DeviceLink {
 
   constructor(private readonly opts: DeviceLinkOptions) {
     this.now = opts.now ?? monotonicClock();
+    this.clock = opts.timers ?? systemTimers;
     this.baud = opts.baud ?? DEFAULT_BAUD;
     this.helloTimeoutMs = opts.helloTimeoutMs ?? 5000;
     this.helloNudgeMs = opts.helloNudgeMs ?? Math.min(1500, this.helloTimeoutMs / 4);
@@ -242,17 +247,16 @@ class Link implements DeviceLink {
     this.emit({ type: 'annotation', hostUs: this.now(), word, text });
   }
 
-  private timer(ms: number, fn: () => void): NodeJS.Timeout {
-    const t = setTimeout(() => {
+  private timer(ms: number, fn: () => void): void {
+    const t = this.clock.setTimeout(() => {
       this.timers.delete(t);
       fn();
     }, ms);
     this.timers.add(t);
-    return t;
   }
 
   private clearTimers(): void {
-    for (const t of this.timers) clearTimeout(t);
+    for (const t of this.timers) this.clock.clearTimeout(t);
     this.timers.clear();
   }
 

@@ -4,6 +4,8 @@ import type { DeviceLink } from '../link/device-link.ts';
 import type { MicrosClock } from '../link/monotonic-clock.ts';
 import type { RunPipeline } from '../pipeline/run-pipeline.ts';
 import { createResultSource, type ResultSource } from '../pipeline/result-client.ts';
+import { workerWithFallback, type WorkerWithFallback } from '../pipeline/result-fallback.ts';
+import { systemTimers, type Timers } from '../link/timers.ts';
 import type { BlockHeader, JournalWriter } from '../journal/journal-writer.ts';
 import { startRecording } from './recording-session.ts';
 import { buildStatus, type RecorderStatus } from './recorder-status.ts';
@@ -22,8 +24,10 @@ export interface RecorderOptions {
   readonly createResults?: () => ResultSource;
   /** One line for the user (the worker fell back to in-thread); default stderr. */
   readonly warn?: (line: string) => void;
-  /** The link's clock (µs since the block's `#start`). */
+  /** The link's clock (µs since the block's `#start`); also times the analysis, to pace it. */
   readonly now: MicrosClock;
+  /** The status timer; this process's by default (tests drive it by hand). */
+  readonly timers?: Pick<Timers, 'setInterval' | 'clearInterval'>;
   readonly wallNow?: () => Date;
   readonly statusEveryMs: number;
   readonly onStatus?: (s: RecorderStatus) => void;
@@ -44,60 +48,94 @@ export interface RecorderSummary {
   readonly error?: Error;
 }
 
+type G = { readonly value: number | null; readonly u: number | null };
+
+/** g of every entry fed so far, recomputed no more often than it stays cheap; from the worker when there is one. */
+function gRefresher(o: RecorderOptions, results: WorkerWithFallback) {
+  let g: G = { value: null, u: null };
+  let dueUs = 0;
+  let inFlight: Promise<void> | null = null;
+  const refresh = async (t: number): Promise<void> => {
+    if (!o.pipeline) return;
+    const t0 = o.now();
+    const fromWorker = await results.result({ rows: false });
+    const r = fromWorker ?? o.pipeline.result({ rows: false });
+    g = { value: r.g_m_s2, u: r.g_u_m_s2 };
+    // The full analysis grows with the run: in-thread, redo g at most as often as it stays under a tenth of
+    // the time; in the worker, under about a quarter of a core.
+    const costUs = o.now() - t0;
+    dueUs = t + Math.max(o.statusEveryMs * 1000, (fromWorker ? 4 : 10) * costUs);
+  };
+  return {
+    g: (): G => g,
+    /** Starts a fresh g when one is due (it lands in a later status). */
+    maybeStart(t: number): void {
+      if (o.pipeline && t >= dueUs && !inFlight) inFlight = refresh(t).finally(() => (inFlight = null));
+    },
+    /** Waits for the one in flight, then computes g of everything written. */
+    async final(): Promise<void> {
+      await inFlight;
+      await refresh(o.now());
+    },
+  };
+}
+
+/** Lines per second over the last half second or more, and whether that is a flood (noted once per flood). */
+function floodWatch(o: RecorderOptions) {
+  const flood = o.floodLinesPerS ?? 500;
+  let rate = { atUs: o.now(), lines: 0, perS: 0 };
+  let flooding = false;
+  return (t: number, lines: number, note: (text: string) => void): { perS: number; warning?: string } => {
+    const dt = (t - rate.atUs) / 1e6;
+    if (dt >= 0.5) rate = { atUs: t, lines, perS: (lines - rate.lines) / dt };
+    if (rate.perS <= flood) {
+      flooding = false;
+      return { perS: rate.perS };
+    }
+    if (!flooding) note(`device flooding: ${Math.round(rate.perS)} lines/s`);
+    flooding = true;
+    return { perS: rate.perS, warning: `device is flooding: ${Math.round(rate.perS)} lines/s (check the gate for noise or bounce)` };
+  };
+}
+
+/** Resolves when the link has closed, after the signal aborted it (or it gave up by itself). */
+async function untilClosed(o: RecorderOptions, closed: Promise<void>, onStatus: () => void): Promise<void> {
+  const timers = o.timers ?? systemTimers;
+  const tick = timers.setInterval(onStatus, o.statusEveryMs);
+  const stop = (): void => void o.link.close(o.stopReason?.() ?? 'shutdown');
+  if (o.signal.aborted) stop();
+  else o.signal.addEventListener('abort', stop, { once: true });
+  try {
+    await closed;
+  } finally {
+    timers.clearInterval(tick);
+    o.signal.removeEventListener('abort', stop);
+  }
+}
+
 /**
  * Runs until the signal aborts or the journal fails. Nothing is written before the board's first hello:
  * if it never comes, the link's `ready` error is thrown and the journal is left as it was.
  */
 export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> {
   const wallNow = o.wallNow ?? (() => new Date());
-  const flood = o.floodLinesPerS ?? 500;
+  const warn = o.warn ?? ((line: string) => void process.stderr.write(`halfswing: ${line}\n`));
   let state: RecorderStatus['state'] = 'waiting-hello';
   let error: Error | undefined;
-  let g: { value: number | null; u: number | null } = { value: null, u: null };
-  let gDueUs = 0;
-  let rate = { atUs: o.now(), lines: 0, perS: 0 };
-  let flooding = false;
-  const warn = o.warn ?? ((line: string) => void process.stderr.write(`halfswing: ${line}\n`));
-  let results: ResultSource | null = o.pipeline ? (o.createResults?.() ?? createResultSource({}, warn)) : null;
-  let inFlight: Promise<void> | null = null;
-  const dropWorker = (e: unknown): void => {
-    if (!results) return;
-    void results.close().catch(() => {});
-    results = null;
-    warn(`g is now computed on the main thread (result worker failed: ${(e as Error).message})`);
-  };
-  /** A fresh g of every entry fed so far: from the worker when there is one, else in-thread. */
-  const refreshG = async (t: number): Promise<void> => {
-    if (!o.pipeline) return;
-    const t0 = performance.now();
-    let r;
-    if (results) {
-      try {
-        r = await results.result({ rows: false });
-      } catch (e) {
-        dropWorker(e);
-      }
-    }
-    const inThread = r === undefined;
-    r ??= o.pipeline.result({ rows: false });
-    g = { value: r.g_m_s2, u: r.g_u_m_s2 };
-    // The full analysis grows with the run: in-thread, redo g at most as often as it stays under a tenth of
-    // the time; in the worker, under about a quarter of a core.
-    const gCostUs = (performance.now() - t0) * 1000;
-    gDueUs = t + Math.max(o.statusEveryMs * 1000, (inThread ? 10 : 4) * gCostUs);
-  };
+  const results = workerWithFallback(o.pipeline ? (o.createResults?.() ?? createResultSource({}, warn)) : null, warn);
+  const g = gRefresher(o, results);
+  const rate = floodWatch(o);
 
-  const feed = (e: JournalEntry): void => {
-    o.pipeline?.push(e);
-    results?.push(e);
-  };
   let closed!: () => void;
   const linkClosed = new Promise<void>((r) => (closed = r));
   const session = startRecording({
     link: o.link,
     writer: o.writer,
     header: o.header,
-    onEntry: feed,
+    onEntry: (e: JournalEntry) => {
+      o.pipeline?.push(e);
+      results.push(e);
+    },
     onState: (e) => {
       if (e.state === 'connected') state = 'connected';
       else if (e.state === 'reconnecting') state = 'reconnecting';
@@ -109,23 +147,12 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
       void o.link.close('journal write failed');
     },
   });
-  const started = (): boolean => session.started();
 
   const snapshot = (): RecorderStatus => {
     const t = o.now();
     const stats = o.link.stats();
-    const dt = (t - rate.atUs) / 1e6;
-    if (dt >= 0.5) rate = { atUs: t, lines: stats.lines, perS: (stats.lines - rate.lines) / dt };
-    const warnings = [...(o.warnings?.() ?? [])];
-    if (rate.perS > flood) {
-      warnings.push(`device is flooding: ${Math.round(rate.perS)} lines/s (check the gate for noise or bounce)`);
-      if (!flooding && started() && !error) session.note(t, `device flooding: ${Math.round(rate.perS)} lines/s`);
-      flooding = true;
-    } else flooding = false;
-    // g comes from the last finished analysis; a new one starts when due (it lands in a later status).
-    if (o.pipeline && started() && t >= gDueUs && !inFlight && state !== 'stopped') {
-      inFlight = refreshG(t).finally(() => (inFlight = null));
-    }
+    const flood = rate(t, stats.lines, (text) => session.started() && !error && session.note(t, text));
+    if (session.started() && state !== 'stopped') g.maybeStart(t);
     return buildStatus({
       wall: wallNow(),
       pid: o.pid ?? process.pid,
@@ -134,26 +161,17 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
       journal: o.writer.path,
       journalBytes: o.writer.size(),
       hostUs: t,
-      linesPerS: rate.perS,
+      linesPerS: flood.perS,
       link: stats,
       live: o.pipeline?.live(t),
-      g,
-      warnings,
+      g: g.g(),
+      warnings: [...(o.warnings?.() ?? []), ...(flood.warning ? [flood.warning] : [])],
     });
   };
 
-  const tick = setInterval(() => o.onStatus?.(snapshot()), o.statusEveryMs);
-  const stop = (): void => void o.link.close(o.stopReason?.() ?? 'shutdown');
-  if (o.signal.aborted) stop();
-  else o.signal.addEventListener('abort', stop, { once: true });
-  try {
-    await linkClosed;
-  } finally {
-    clearInterval(tick);
-    o.signal.removeEventListener('abort', stop);
-  }
-  if (!started() && !error) {
-    await results?.close().catch(() => {});
+  await untilClosed(o, linkClosed, () => o.onStatus?.(snapshot()));
+  if (!session.started() && !error) {
+    await results.close();
     // Throws the reason the board never answered; nothing was written.
     await o.link.ready;
   }
@@ -164,9 +182,8 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
   }
   state = 'stopped';
   // The last status carries g of every line written.
-  await inFlight;
-  if (started()) await refreshG(o.now());
-  await results?.close().catch(() => {});
+  if (session.started()) await g.final();
+  await results.close();
   const status = snapshot();
   o.onStatus?.(status);
   return error ? { status, error } : { status };

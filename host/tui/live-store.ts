@@ -5,6 +5,7 @@ import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
 import type { ResultSource } from '../pipeline/result-client.ts';
+import { workerWithFallback } from '../pipeline/result-fallback.ts';
 
 /** The part of the run pipeline (`createRunPipeline`) the store drives. */
 export interface PipelineLike {
@@ -158,19 +159,12 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
     version: 0,
   };
   const listeners = new Set<() => void>();
-  let results: ResultSource | null = opts.createResults?.() ?? null;
+  const fallback = workerWithFallback(opts.createResults?.() ?? null, (line) => opts.warn?.(line));
   // Bumped on restart, so an answer about the entries before it is dropped.
   let generation = 0;
   let inFlight = false;
   let stopped = false;
 
-  const dropWorker = (e: unknown): void => {
-    if (!results) return;
-    const r = results;
-    results = null;
-    void r.close().catch(() => {});
-    opts.warn?.(`full analysis now runs on the main thread (result worker failed: ${(e as Error).message})`);
-  };
   /** Asks the worker for the full result of everything pushed so far; resolves once it is shown. */
   const request = async (r: ResultSource): Promise<void> => {
     const gen = generation;
@@ -186,6 +180,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
 
   const publish = (forceResult: boolean): void => {
     const now = opts.nowMs();
+    const results = fallback.worker;
     if (results) {
       if (!inFlight && (forceResult || (resultStale && now - lastResultMs >= resultGapMs))) {
         inFlight = true;
@@ -195,7 +190,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
           (e: unknown) => {
             inFlight = false;
             if (!stopped) {
-              dropWorker(e);
+              fallback.fail(e);
               publish(true);
             }
           },
@@ -250,7 +245,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       }
       whole.push(entry);
       since?.push(entry);
-      results?.push(entry);
+      fallback.push(entry);
       entries++;
       if (entry.kind === 'data' || entry.kind === 'annotation') {
         lastHost = entry.hostUs / 1e6;
@@ -269,6 +264,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       since = opts.createPipeline();
       const again = lastHello ? [...header, lastHello] : [...header];
       for (const e of again) since.push(e);
+      const results = fallback.worker;
       if (results) {
         generation++;
         inFlight = false;
@@ -280,13 +276,13 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       publish(true);
     },
     async flush() {
-      const r = results;
+      const r = fallback.worker;
       if (!r) return publish(true);
       try {
         await request(r);
       } catch (e) {
         if (stopped) return;
-        dropWorker(e);
+        fallback.fail(e);
         publish(true);
       }
     },
@@ -294,7 +290,7 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       stopped = true;
       opts.timers.clearInterval(timer);
       listeners.clear();
-      void results?.close().catch(() => {});
+      void fallback.close();
     },
   };
 }

@@ -5,6 +5,7 @@ import { openDeviceLink, type DeviceLink, type DeviceLinkOptions, type LinkEvent
 import { encodeRecord } from '../../protocol/encode.ts';
 import { DeviceLines } from './helpers/device-lines.ts';
 import { FakeBinding } from './helpers/fake-binding.ts';
+import { ManualTime, settle, until } from './helpers/manual-time.ts';
 
 /** Collects events until `stop` matches (or the link closes). */
 async function collect(link: DeviceLink, stop: (all: LinkEvent[]) => boolean): Promise<LinkEvent[]> {
@@ -19,12 +20,6 @@ async function collect(link: DeviceLink, stop: (all: LinkEvent[]) => boolean): P
 const states = (evs: LinkEvent[]): string[] => evs.flatMap((e) => (e.type === 'state' ? [e.state] : []));
 const lines = (evs: LinkEvent[]): string[] => evs.flatMap((e) => (e.type === 'line' ? [e.line] : []));
 const notes = (evs: LinkEvent[]): string[] => evs.flatMap((e) => (e.type === 'annotation' ? [e.word] : []));
-const tick = (ms = 5): Promise<void> => new Promise((r) => setTimeout(r, ms));
-
-async function until(pred: () => boolean, what: string): Promise<void> {
-  for (let i = 0; i < 2000 && !pred(); i++) await tick();
-  if (!pred()) throw new Error(`timed out waiting for ${what}`);
-}
 
 /** The ESM MockBinding handed to the link as is (SerialPortMock.binding would be the CJS copy: another registry). */
 type MockPort = { emitData(d: Buffer | string): void; recording: Buffer; isOpen: boolean };
@@ -112,9 +107,13 @@ describe('device link: hello timeout tells what the far end did', () => {
     it(name, async () => {
       const b = new FakeBinding();
       b.add('/dev/ttyX');
-      const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 200, helloNudgeMs: 50 });
+      const m = new ManualTime();
+      const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 200, helloNudgeMs: 50, now: m.nowUs, timers: m.timers });
       await until(() => b.isOpen('/dev/ttyX'), 'open');
       if (bytes.length > 0) b.port('/dev/ttyX').emit(bytes);
+      await m.advance(199);
+      expect(b.isOpen('/dev/ttyX')).toBe(true);
+      await m.advance(1);
       await expect(link.ready).rejects.toThrow(want);
       expect(b.isOpen('/dev/ttyX')).toBe(false);
     });
@@ -124,7 +123,12 @@ describe('device link: hello timeout tells what the far end did', () => {
     const b = new FakeBinding();
     const d = new DeviceLines();
     b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 2000, helloNudgeMs: 30 });
+    const m = new ManualTime();
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloTimeoutMs: 2000, helloNudgeMs: 30, now: m.nowUs, timers: m.timers });
+    await until(() => b.isOpen('/dev/ttyX'), 'open');
+    await m.advance(29);
+    expect(b.port('/dev/ttyX').written).toBe('');
+    await m.advance(1);
     expect((await link.ready).boot).toBe(d.boot);
     await link.close();
   });
@@ -136,7 +140,9 @@ describe('device link: a hello of another protocol version', () => {
     b.add('/dev/ttyX', {}, (cmd) =>
       cmd === '?' ? [encodeRecord({ kind: 'H', seq: 0, proto: 2, fw: '9.0.0', mcu: 'm328p', hz: 16e6, ch: 2, boot: 1, extra: {} })] : [],
     );
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloNudgeMs: 5 });
+    const m = new ManualTime();
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloNudgeMs: 5, now: m.nowUs, timers: m.timers });
+    await m.advance(5);
     await expect(link.ready).rejects.toThrow(/speaks protocol 2; this halfswing reads protocol 1: update halfswing/);
     expect(b.isOpen('/dev/ttyX')).toBe(false);
   });
@@ -170,19 +176,26 @@ describe('device link: open failures become one clear line', () => {
   });
 });
 
-describe('device link: unplug, replug and reboot (fake binding)', () => {
+describe('device link: unplug, replug and reboot (fake binding, time driven by hand)', () => {
   const fast = { helloTimeoutMs: 500, helloNudgeMs: 20, heartbeatMs: 40, backoffMs: { first: 10, max: 40 }, sysRoot: '/nonexistent' };
+
+  /** A link on a hand-moved clock, recording every event; connected once `m` has reached the first nudge. */
+  async function linked(b: FakeBinding, port: string, extra: Partial<DeviceLinkOptions> = {}) {
+    const m = new ManualTime();
+    const link = openDeviceLink({ port, binding: b, ...fast, now: m.nowUs, timers: m.timers, ...extra });
+    const all: LinkEvent[] = [];
+    link.onEvent((e) => all.push(e));
+    await m.advanceUntil(() => states(all).includes('connected'), 'first connect');
+    await link.ready;
+    return { m, link, all };
+  }
 
   /** A fake board at /dev/ttyX that answers '?', a link to it recording every event, connected. */
   async function connected(extra: Partial<DeviceLinkOptions> = {}) {
     const b = new FakeBinding();
     const d = new DeviceLines();
     b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, ...fast, ...extra });
-    const all: LinkEvent[] = [];
-    link.onEvent((e) => all.push(e));
-    await link.ready;
-    return { b, d, link, all };
+    return { b, d, ...(await linked(b, '/dev/ttyX', extra)) };
   }
 
   it('journals one disconnect and one connect, and finds the board under its new path by serial number', async () => {
@@ -190,27 +203,27 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
     const d = new DeviceLines();
     const answer = (cmd: string): string[] => (cmd === '?' ? [d.hello()] : []);
     b.add('/dev/ttyACM0', { serialNumber: 'A1B2C3', vendorId: '2341', productId: '0043' }, answer);
-    const link = openDeviceLink({ port: '/dev/ttyACM0', binding: b, ...fast });
-    const all: LinkEvent[] = [];
-    link.onEvent((e) => all.push(e));
-    await link.ready;
+    const { m, link, all } = await linked(b, '/dev/ttyACM0');
     b.port('/dev/ttyACM0').emit(`${d.beat(16e6)}\n${d.edge(16.5e6, 'f')}\n`);
     await until(() => lines(all).length === 3, 'lines before unplug');
-    await tick(20); // the identity is learnt from list() after the hello
+    // The identity is learnt from list() after the hello, and the stream re-arms its read: let both happen.
+    await settle();
     const unplugged = b.unplug('/dev/ttyACM0');
     await until(() => states(all).includes('reconnecting'), 'reconnecting');
-    await tick(50);
+    // Away for 50 ms: the retries back off (10, 20, 40 ms).
+    await m.advance(50);
     b.replug(unplugged, '/dev/ttyACM1');
-    await until(() => states(all).filter((s) => s === 'connected').length === 2, 'second connect');
+    await m.advanceUntil(() => states(all).filter((s) => s === 'connected').length === 2, 'second connect');
     b.port('/dev/ttyACM1').emit(`${d.beat(32e6)}\n`);
     await until(() => lines(all).length === 5, 'lines after replug');
     expect(notes(all)).toEqual(['connect', 'disconnect', 'connect']);
+    // Found by the failed read (the port's close event), not by the heartbeat watch: no time passed before it.
+    const disc = all.find((e) => e.type === 'annotation' && e.word === 'disconnect');
+    expect(disc && disc.type === 'annotation' && disc.text).toMatch(/^disconnected: ENXIO/);
     expect(link.path()).toBe('/dev/ttyACM1');
     expect(link.stats().reconnects).toBe(1);
-    // Backoff grows while the board is away.
     const delays = all.flatMap((e) => (e.type === 'state' && e.state === 'reconnecting' ? [e.delayMs] : []));
-    expect(delays.length).toBeGreaterThan(1);
-    expect(delays[1]!).toBeGreaterThan(delays[0]!);
+    expect(delays.slice(0, 3)).toEqual([10, 20, 40]);
     await link.close();
     // A close asked for by the host is a stop, not a lost link (#14 item 11).
     expect(notes(all).at(-1)).toBe('stop');
@@ -218,14 +231,29 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
   });
 
   it('declares the link lost when heartbeats stop for 3 periods, and recovers', async () => {
-    const { link, all } = await connected();
-    // No heartbeat at all after the hello: silent for > 3 × 40 ms.
-    await until(() => notes(all).includes('disconnect'), 'silence detected');
+    const { m, link, all } = await connected();
+    const helloAtMs = m.nowMs;
+    // No heartbeat at all after the hello: silent for > 3 × 40 ms, checked every 20 ms.
+    await m.advance(120);
+    expect(notes(all)).toEqual(['connect']);
+    await m.advance(20);
     expect(notes(all)).toEqual(['connect', 'disconnect']);
     const disc = all.find((e) => e.type === 'annotation' && e.word === 'disconnect');
-    expect(disc && disc.type === 'annotation' && disc.text).toMatch(/no heartbeat for/);
-    await until(() => notes(all).length === 3, 'reconnected');
+    expect(disc && disc.type === 'annotation' && disc.text).toMatch(/no heartbeat for 0\.1 s/);
+    expect(disc!.hostUs).toBe((helloAtMs + 140) * 1000);
+    await m.advanceUntil(() => notes(all).length === 3, 'reconnected');
     expect(notes(all)[2]).toBe('connect');
+    await link.close();
+  });
+
+  it('heartbeats keep the link up however long it runs', async () => {
+    const { b, d, m, link, all } = await connected();
+    for (let k = 1; k <= 100; k++) {
+      await m.advance(30);
+      b.port('/dev/ttyX').emit(`${d.beat(k * 16e6)}\n`);
+    }
+    await until(() => lines(all).length === 101, 'heartbeats');
+    expect(notes(all)).toEqual(['connect']);
     await link.close();
   });
 
@@ -241,7 +269,6 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
 
   it('close() passes on a last line whose LF never came, if it decodes', async () => {
     const { b, d, link, all } = await connected({ heartbeatMs: 1000 });
-    await tick(50);
     const before = link.stats().bytes;
     const last = d.beat(16e6);
     b.port('/dev/ttyX').emit(last);
@@ -257,7 +284,7 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
     const got: string[] = [];
     for await (const e of link) {
       if (e.type === 'line' && e.line.startsWith('E')) got.push(e.line);
-      if (got.length % 100 === 0) await tick(1);
+      if (got.length % 100 === 0) await settle(1);
       if (got.length === sent.length) break;
     }
     expect(got).toEqual(sent);
@@ -268,14 +295,11 @@ describe('device link: unplug, replug and reboot (fake binding)', () => {
     const b = new FakeBinding();
     const d = new DeviceLines();
     b.add('/dev/ttyACM0', { serialNumber: 'MINE', vendorId: '2341', productId: '0043' }, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: 'auto', binding: b, ...fast });
-    const all: LinkEvent[] = [];
-    link.onEvent((e) => all.push(e));
-    await link.ready;
-    await tick(20);
+    const { m, link, all } = await linked(b, 'auto');
+    await settle();
     b.unplug('/dev/ttyACM0');
     b.add('/dev/ttyACM1', { serialNumber: 'OTHER', vendorId: '2341', productId: '0043' }, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    await until(() => states(all).filter((s) => s === 'reconnecting').length >= 3, 'retries');
+    await m.advanceUntil(() => states(all).filter((s) => s === 'reconnecting').length >= 3, 'retries');
     expect(b.isOpen('/dev/ttyACM1')).toBe(false);
     const why = all.flatMap((e) => (e.type === 'state' && e.state === 'reconnecting' ? [e.reason] : [])).at(-1);
     expect(why).toMatch(/the board \(serial number MINE\) is not attached/);

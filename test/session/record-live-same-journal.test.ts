@@ -8,11 +8,13 @@ import { openJournalWriter } from '../../host/journal/journal-writer.ts';
 import { openDeviceLink, type DeviceLink } from '../../host/link/device-link.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';
+import { inThreadResultSource } from '../../host/pipeline/result-client.ts';
 import { runRecorder } from '../../host/session/recorder.ts';
 import { deviceFeed } from '../../host/tui/feeds/device-feed.ts';
 import { parseJournalLine } from '../../protocol/journal.ts';
 import { DeviceLines } from '../link/helpers/device-lines.ts';
 import { FakeBinding } from '../link/helpers/fake-binding.ts';
+import { ManualTime, until } from '../link/helpers/manual-time.ts';
 
 let dir: string;
 beforeEach(() => (dir = mkdtempSync(join(tmpdir(), 'halfswing-same-'))));
@@ -20,69 +22,61 @@ afterEach(() => rmSync(dir, { recursive: true, force: true }));
 
 const header = { start: new Date('2026-03-01T12:00:00.000Z'), source: 'test board', rigJson: '{"length_m":1,"flag_width_m":0.02}' };
 
-async function until(cond: () => boolean, what: string): Promise<void> {
-  for (let i = 0; i < 400; i++) {
-    if (cond()) return;
-    await new Promise((r) => setTimeout(r, 5));
-  }
-  throw new Error(`timed out: ${what}`);
-}
-
 /**
  * A board that keeps running when the port opens (no reset): it is mid-run, sends edges and heartbeats before
- * anyone asks, and says hello only when asked with `?`. Host time is a hand-set clock, so both runs stamp alike.
+ * anyone asks, and says hello only when asked with `?`. Time is moved by hand, so both runs stamp alike.
  */
 interface Script {
   readonly binding: FakeBinding;
-  now: number;
+  readonly time: ManualTime;
   play(link: DeviceLink): Promise<void>;
 }
 function nonResettingBoard(opts: { answers: boolean }): Script {
   const d = new DeviceLines(0x2b2b);
   const binding = new FakeBinding();
-  // The board answers the first `?` asked once the script says so (the link asks again until then), so the
-  // hello lands at the same host time in every run.
+  const time = new ManualTime();
+  // The board answers only once the script lets it (the link asks at 20 ms, then every 250 ms).
   let mayAnswer = false;
-  binding.add('/dev/ttyX', {}, (cmd) => {
-    if (cmd !== '?' || !mayAnswer) return [];
-    mayAnswer = false;
-    return [d.hello()];
-  });
-  const s: Script = {
+  let asked = 0;
+  binding.add('/dev/ttyX', {}, (cmd) => (cmd === '?' && asked++ >= 0 && mayAnswer ? [d.hello()] : []));
+  const linesRead = async (link: DeviceLink, n: number): Promise<void> => until(() => link.stats().lines >= n, `${n} lines read`);
+  return {
     binding,
-    now: 0,
+    time,
     async play(link) {
       await until(() => binding.isOpen('/dev/ttyX'), 'port open');
       const port = binding.port('/dev/ttyX');
-      const before = link.stats().lines;
-      s.now = 1000;
+      await time.advance(1);
       port.emit(`${d.edge(0x1000, 'f')}\n${d.beat(0x2000)}\n${d.edge(0x3000, 'r')}\n`);
-      await until(() => link.stats().lines >= before + 3, 'pre-hello lines read');
+      await linesRead(link, 3);
+      // The first nudge (20 ms) goes unanswered, the second (270 ms) is answered.
+      await time.advance(40);
+      expect(asked).toBe(1);
       if (!opts.answers) return;
-      s.now = 2000;
       mayAnswer = true;
-      await link.ready;
+      await time.advance(230);
+      expect(asked).toBe(2);
+      expect(link.hello()?.boot).toBe(0x2b2b);
       for (let k = 0; k < 4; k++) {
-        s.now = 3000 + k * 1000;
+        await time.advance(1000);
         const n = link.stats().lines;
         port.emit(`${d.edge(0x10000 + k * 0x8000, 'f')}\n${d.edge(0x10400 + k * 0x8000, 'r')}\n${d.beat(0x11000 + k * 0x8000)}\n`);
-        await until(() => link.stats().lines >= n + 3, 'lines read');
+        await linesRead(link, n + 3);
       }
-      s.now = 9000;
+      await time.advance(1000);
     },
   };
-  return s;
 }
 
 const linkFor = (s: Script): DeviceLink =>
-  openDeviceLink({ port: '/dev/ttyX', binding: s.binding, now: () => s.now, helloNudgeMs: 20, helloTimeoutMs: 2000, heartbeatMs: 60_000 });
+  openDeviceLink({ port: '/dev/ttyX', binding: s.binding, now: s.time.nowUs, timers: s.time.timers, helloNudgeMs: 20, helloTimeoutMs: 2000, heartbeatMs: 60_000 });
 
 async function viaRecord(path: string, answers = true): Promise<void> {
   const s = nonResettingBoard({ answers });
   const writer = openJournalWriter(path);
   const link = linkFor(s);
   const ac = new AbortController();
-  const run = runRecorder({ link, writer, header, now: () => s.now, pipeline: createRunPipeline(), createResults: undefined, statusEveryMs: 60_000, signal: ac.signal, warn: () => {} });
+  const run = runRecorder({ link, writer, header, now: s.time.nowUs, timers: s.time.timers, pipeline: createRunPipeline(), createResults: () => inThreadResultSource(), statusEveryMs: 60_000, signal: ac.signal });
   await s.play(link);
   ac.abort();
   await run.catch(() => {});
@@ -93,7 +87,7 @@ async function viaLive(path: string, answers = true): Promise<void> {
   const s = nonResettingBoard({ answers });
   const writer = openJournalWriter(path);
   const link = linkFor(s);
-  const feed = deviceFeed({ link, writer, nowUs: () => s.now, start: header.start, source: header.source, rigJson: header.rigJson, portLabel: '/dev/ttyX' });
+  const feed = deviceFeed({ link, writer, nowUs: s.time.nowUs, start: header.start, source: header.source, rigJson: header.rigJson, portLabel: '/dev/ttyX' });
   await s.play(link);
   await feed.close();
 }

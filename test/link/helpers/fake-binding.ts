@@ -69,6 +69,7 @@ export class FakePort {
   readonly openOptions: Required<BindingOpenOptions>;
   written = '';
   private data = Buffer.alloc(0);
+  private gone: Error | undefined;
   private pending: { resolve: () => void; reject: (e: Error) => void } | undefined;
 
   constructor(
@@ -87,16 +88,18 @@ export class FakePort {
     p?.resolve();
   }
 
+  /** The device is gone: reads fail with `e` until the host closes the port (as bindings-cpp does on unplug). */
   fail(e: Error): void {
+    this.gone = e;
     const p = this.pending;
     this.pending = undefined;
-    this.isOpen = false;
     p?.reject(e);
   }
 
   async read(buffer: Buffer, offset: number, length: number): Promise<{ buffer: Buffer; bytesRead: number }> {
     while (this.data.length === 0) {
       if (!this.isOpen) throw Object.assign(new Error('port is closed'), { canceled: true });
+      if (this.gone) throw this.gone;
       await new Promise<void>((resolve, reject) => (this.pending = { resolve, reject }));
     }
     const n = Math.min(length, this.data.length);
