@@ -64,3 +64,21 @@ export function chooseClock(
     warnings.push(`the device clock drifted ${h.drift_ppm_per_h.toFixed(2)} ppm/h during the run (temperature?); the mean rate is used`);
   return { source: 'host', ppm: h.ppm, u_ppm: h.u_ppm, measured: true, drift_ppm_per_h: h.drift_ppm_per_h, span_s: h.span_s, residuals: h.residuals };
 }
+
+/**
+ * When the automatic choice moves (or moved) from the nominal rate to the host-clock fit: the host time (s) at
+ * which the heartbeats span MIN_HOST_SPAN_S, the way `chooseClock` measures the span (device seconds, summed over
+ * boots). While they span less, the time is projected from the last heartbeat (one device second per host second).
+ * Null without heartbeats.
+ */
+export function hostCalibrationStart(beats: readonly BootHeartbeats[]): number | null {
+  let span = 0;
+  let lastHost: number | null = null;
+  for (const b of beats) {
+    const n = b.deviceS.length;
+    for (let i = 1; i < n; i++) if (span + b.deviceS[i]! - b.deviceS[0]! >= MIN_HOST_SPAN_S) return b.hostS[i]!;
+    if (n > 1) span += b.deviceS[n - 1]! - b.deviceS[0]!;
+    if (n > 0) lastHost = b.hostS[n - 1]!;
+  }
+  return lastHost === null ? null : lastHost + (MIN_HOST_SPAN_S - span);
+}

@@ -1,6 +1,7 @@
-// What the live view reads ten times a second: the latest swing, link health and recent points, cheap to build.
+// What the live view reads several times a second: the latest swing, the clock, link health and recent points.
 import type { RejectReason } from '../../protocol/records.ts';
-import type { RunCounts } from '../analysis/result.ts';
+import type { PassStatus } from '../analysis/passes.ts';
+import type { AnalysisResult, RunCounts } from '../analysis/result.ts';
 
 /** The device as it introduced itself in its last hello. */
 export interface LiveHello {
@@ -13,20 +14,37 @@ export interface LiveHello {
   readonly boot: string;
 }
 
-/** Recent swings for the live plots, oldest first, parallel arrays (at most `RECENT_POINTS`). */
+/** The newest valid passes, oldest first, parallel arrays, as the full analysis' rows of those passes show them. */
 export interface LiveRecent {
-  /** Pass time, seconds since the journal's start (host clock, nominal device rate within a boot). */
+  /** Pass time, seconds since the journal's start (the clock of `LiveState.clock`, boots joined on the host clock). */
   readonly t_s: readonly number[];
-  /** Full period ending at that pass (null while unknown). */
+  /** Full period ending at that pass (null where the analysis has none, e.g. a barely clearing pass). */
   readonly period_s: readonly (number | null)[];
   readonly amplitude_deg: readonly (number | null)[];
   readonly transit_s: readonly number[];
 }
 
-/** How many recent swings `LiveState.recent` keeps. */
-export const RECENT_POINTS = 600;
+/** The newest pass and what the sequencing made of it (`unsequenced` when the swing no longer clears the beam). */
+export interface LivePass {
+  readonly t_s: number;
+  readonly status: PassStatus;
+}
 
-/** A cheap snapshot of the pipeline for live views; values use the device's nominal clock (or a given ppm). */
+/** The device clock the live figures (and the full result of the same moment) are timed with. */
+export interface LiveClock {
+  readonly source: AnalysisResult['clock_source'];
+  /** Rate error applied (ppm) and its standard uncertainty (nominal: the resonator tolerance, 2887 ppm). */
+  readonly ppm: number;
+  readonly u_ppm: number;
+  /**
+   * The automatic choice's switch from the nominal rate to the host-clock fit (host s since `#start`): when it
+   * happened (source `host`) or, while nominal, when the heartbeats will span long enough (projected). Null when
+   * it does not apply (a clock given or forced, a 1 PPS input) or before the first heartbeat.
+   */
+  readonly hostCalibrationFrom_s: number | null;
+}
+
+/** A snapshot of the pipeline for live views: the batch stages on the newest passes, with the current clock. */
 export interface LiveState {
   readonly hello: LiveHello | null;
   /** 0 for the first boot seen, +1 per reboot; −1 before any device line. */
@@ -39,16 +57,16 @@ export interface LiveState {
   readonly levels: number | null;
   /** True while the beam is blocked, from the last edge of the pendulum channel. */
   readonly blocked: boolean;
-  /** Valid passes so far (before the batch analysis' neighbour checks). */
+  /** Passes so far (blocked intervals of beam A, before sequencing). */
   readonly passes: number;
-  /** The last two half-periods, older first. */
+  /** The latest valid swing (host/pipeline/live-estimator.ts): the half-periods of its period, older first. */
   readonly halfPeriodsS: readonly [number | null, number | null];
   readonly periodS: number | null;
   readonly transitS: number | null;
   readonly amplitudeDeg: number | null;
-  /** Mean full period and its count since the start or the last `restartEstimates`. */
-  readonly meanPeriodS: number | null;
-  readonly meanPeriodCount: number;
+  /** The newest pass, valid or not. */
+  readonly lastPass: LivePass | null;
+  readonly clock: LiveClock;
   readonly counts: RunCounts;
   /** Device lines rejected by the decoder, by reason. */
   readonly lineRejections: Readonly<Partial<Record<RejectReason, number>>>;

@@ -57,8 +57,6 @@ export class PassBuilder {
     private readonly bounceS: number,
     /** Chatter ending within this time of the first unblocking edge keeps that edge as the end (s). */
     private readonly chainS: number,
-    /** Called with the index of each pass as it becomes final. */
-    private readonly onPass: (index: number) => void = () => {},
   ) {}
 
   /** A block start at `ticks` of `boot`. */
@@ -135,7 +133,6 @@ export class PassBuilder {
     this.passes.start.push(p.start);
     this.passes.end.push(p.end);
     this.passes.hostUs.push(p.hostUs);
-    this.onPass(this.passes.length - 1);
   }
 
   /** The pending interval if it would become a pass, without changing state (for a snapshot at end of data). */

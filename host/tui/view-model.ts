@@ -1,6 +1,6 @@
 // The live screen as data: every label, value and warning formatted from one snapshot (pure, no React).
 import type { AnalysisResult } from '../analysis/result.ts';
-import type { LiveState } from '../pipeline/live-state.ts';
+import type { LiveClock, LiveState } from '../pipeline/live-state.ts';
 import type { Rig } from '../../protocol/rig.ts';
 import { periodRatio } from '../analysis/elliptic.ts';
 import { lossRate } from '../analysis/damping.ts';
@@ -141,6 +141,19 @@ function plots(result: AnalysisResult): Pick<ViewModel, 'periodPoints' | 'period
   return { periodPoints, periodCurve, amplitudePoints, amplitudeCurve };
 }
 
+/**
+ * The clock the figures are timed with: nominal with its uncertainty and when the host-clock fit will take over,
+ * or the fitted rate and since when (the live g jumps there).
+ */
+function clockItem(c: LiveClock): StatusItem {
+  const from = c.hostCalibrationFrom_s !== null ? formatDuration(c.hostCalibrationFrom_s) : null;
+  const value =
+    c.source === 'nominal'
+      ? `nominal (±${formatFixed(c.u_ppm, 0)} ppm)${from ? `, host fit at ${from}` : ''}`
+      : `${formatWithU(c.ppm, c.u_ppm, 1).replace(/^(?=\d)/, '+')} ppm (${c.source}${c.source === 'host' && from ? ` since ${from}` : ''})`;
+  return { label: 'clock', value, tone: c.source === 'nominal' ? 'muted' : 'normal', line: 2 };
+}
+
 /** The status bar: source, speed, device, connection (line 1); clock, run time, estimates, journal (line 2). */
 function statusItems(input: ViewInput): StatusItem[] {
   const { feed, live, result } = input;
@@ -154,17 +167,7 @@ function statusItems(input: ViewInput): StatusItem[] {
   if (hello) status.push({ label: 'fw', value: hello.fw, tone: 'normal', line: 1 }, { label: 'protocol', value: String(hello.proto), tone: 'normal', line: 1 });
   else status.push({ label: 'device', value: 'no hello yet', tone: 'muted', line: 1 });
   status.push(connectionItem(feed));
-  status.push({
-    label: 'clock',
-    value:
-      result.clock_ppm === null
-        ? 'not fitted yet'
-        : result.clock_source === 'nominal'
-          ? `nominal (±${formatFixed(result.clock_u_ppm, 0)} ppm)`
-          : `${formatWithU(result.clock_ppm, result.clock_u_ppm, 1).replace(/^(?=\d)/, '+')} ppm (${result.clock_source})`,
-    tone: result.clock_ppm !== null ? 'normal' : 'muted',
-    line: 2,
-  });
+  status.push(clockItem(live.clock));
   status.push({ label: 'run', value: formatDuration(input.now_s), tone: 'normal', line: 2 });
   if (input.restartedAt_s !== null) status.push({ label: 'estimates since', value: formatDuration(input.restartedAt_s), tone: 'accent', line: 2 });
   if (!watching)
@@ -186,7 +189,14 @@ function numberRows(live: ViewInput['live'], result: ViewInput['result']): Numbe
     { label: 'period', value: formatFixed(live.periodS, 5), unit: 's', tone: 'normal' },
     { label: 'amplitude', value: formatFixed(live.amplitudeDeg, 2), unit: '°', tone: 'normal' },
     { label: 'T0', value: formatWithU(result.T0_s, result.T0_u_s, 5), unit: 's', tone: result.T0_s !== null ? 'accent' : 'muted' },
-    { label: 'g', value: formatWithU(result.g_m_s2, result.g_u_m_s2, 4), unit: 'm/s²', tone: result.g_m_s2 !== null ? 'accent' : 'muted' },
+    {
+      label: 'g',
+      value: formatWithU(result.g_m_s2, result.g_u_m_s2, 4),
+      unit: 'm/s²',
+      // Until the host-clock fit starts, g carries the nominal clock's ±2887 ppm, and it moves when the fit starts.
+      note: result.clock_source === 'nominal' && live.clock.source === 'nominal' && live.clock.hostCalibrationFrom_s !== null ? `nominal clock until ${formatDuration(live.clock.hostCalibrationFrom_s)}` : undefined,
+      tone: result.g_m_s2 !== null ? 'accent' : 'muted',
+    },
   ];
   if (expected !== null)
     numbers.push({
@@ -196,7 +206,9 @@ function numberRows(live: ViewInput['live'], result: ViewInput['result']): Numbe
       note: result.g_diff_sigma !== null ? `${formatFixed(result.g_diff_sigma, 1, true)}σ` : undefined,
       tone: result.g_diff_sigma !== null && Math.abs(result.g_diff_sigma) > 2 ? 'bad' : 'normal',
     });
-  numbers.push({ label: 'Q', value: formatWithU(result.Q, result.Q_u, 0), unit: '', tone: 'normal' });
+  // Q changes with the amplitude (a quadratic or mixed loss law): it is quoted at the run's median amplitude.
+  const qAt = result.Q !== null && result.median_amplitude_deg !== null ? `at ${formatFixed(result.median_amplitude_deg, 1)}°` : undefined;
+  numbers.push({ label: 'Q', value: formatWithU(result.Q, result.Q_u, 0), unit: '', note: qAt, tone: 'normal' });
   numbers.push({
     label: 'gate offset',
     value: result.gate_offset_m !== null ? formatFixed(result.gate_offset_m * 1000, 1, true) : '—',
@@ -240,7 +252,8 @@ export function buildViewModel(input: ViewInput): ViewModel {
     heartbeatInterval_s: input.heartbeatInterval_s,
     expectingLines: expectsLines(feed.connection),
     disconnected: feed.connection.kind === 'reconnecting',
-    blocked: live.blocked,
+    // A bob still passing through without clearing the beam (the newest pass left out) is not resting in it.
+    blocked: live.blocked && live.lastPass?.status !== 'unsequenced',
     lastAmplitude_deg: live.amplitudeDeg,
     beamHalfAngle_deg: rig ? Math.asin(Math.min(1, rig.flag_width_m / 2 / rig.length_m)) / RAD : null,
   });

@@ -33,7 +33,7 @@ describe('live and batch give the same numbers', () => {
     expect(p.result()).toEqual(analyzeEntries(entries.slice(0, cut)));
   });
 
-  it('live() reports the latest swing cheaply and restartEstimates restarts the running mean', () => {
+  it('live() reports the latest swing and the heartbeat age at a given moment', () => {
     const sc = loadScenario('demo-low-q');
     const { entries, result } = simAndAnalyze(sc, { seed: 2, durationS: 200 });
     const p = createRunPipeline();
@@ -44,9 +44,6 @@ describe('live and batch give the same numbers', () => {
     expect(l.periodS!).toBeCloseTo(l.halfPeriodsS[0]! + l.halfPeriodsS[1]!, 12);
     expect(Math.abs(l.periodS! / result.swings.at(-1)!.period_s! - 1)).toBeLessThan(1e-3);
     expect(l.recent.t_s.length).toBeGreaterThan(50);
-    expect(l.meanPeriodCount).toBeGreaterThan(100);
-    p.restartEstimates(l.lastHostUs!);
-    expect(p.live().meanPeriodCount).toBe(0);
     expect(p.live(l.lastHostUs! + 5e6).heartbeatAgeS!).toBeGreaterThan(4);
   });
 });

@@ -1,0 +1,87 @@
+// Device lines → state: decoded and tracked records feed the boots' timebase, the beams' passes, the clock inputs and the room.
+import type { EdgeRecord, HeartbeatRecord } from '../../protocol/records.ts';
+import type { Rig } from '../../protocol/rig.ts';
+import type { RoomReading } from '../analysis/room-drift.ts';
+import { Beams, type EdgeThresholds } from './beams.ts';
+import { BootTimebase } from './boot-timebase.ts';
+import { ClockInputs } from './clock-inputs.ts';
+import { LinkHealth } from './link-health.ts';
+import type { LiveHello } from './live-state.ts';
+
+/** Options of the intake. */
+export interface IntakeOptions extends EdgeThresholds {
+  /** Channel of a 1 PPS reference (ignored when it is one of the rig's beams). */
+  readonly ppsChannel: number;
+  /** A rate error given by the user (ppm): the pass builders time their thresholds with it. */
+  readonly givenPpm: number;
+}
+
+/** Everything the device lines of a run leave behind. */
+export class DeviceIntake {
+  readonly timebase = new BootTimebase();
+  readonly health = new LinkHealth();
+  readonly clockInputs = new ClockInputs();
+  readonly beams: Beams;
+  /** A readings, placed by their arrival time (the room changes over minutes). */
+  readonly room: RoomReading[] = [];
+  hello: LiveHello | null = null;
+  /** Input levels bitmask and host time of the last heartbeat. */
+  levels: number | null = null;
+  lastBeatHostUs: number | null = null;
+
+  constructor(
+    private readonly opts: IntakeOptions,
+    private readonly rig: () => Rig | null,
+    /** The pipeline's warnings, in order of arrival: a boot without a hello adds one. */
+    private readonly warnings: string[],
+  ) {
+    this.beams = new Beams(opts, (b) => this.timebase.hz(b) * (1 + opts.givenPpm * 1e-6));
+  }
+
+  /** One device line received at `hostUs`. */
+  data(hostUs: number, line: string): void {
+    this.beams.ensure(this.rig());
+    const rec = this.health.decode(line);
+    if (!rec) return;
+    const tr = this.health.track(rec);
+    if (tr.newBoot) {
+      this.beams.each((p) => p.newBoot());
+      const w = this.timebase.newBoot(tr.bootIndex, rec.kind === 'H' ? rec : null);
+      if (w) this.warnings.push(w);
+    } else if (tr.gap) this.beams.each((p) => p.linesLost());
+    switch (rec.kind) {
+      case 'H':
+        this.timebase.hello(rec.hz);
+        this.hello = { fw: rec.fw, mcu: rec.mcu, hz: rec.hz, ch: rec.ch, proto: rec.proto, boot: rec.boot.toString(16).padStart(4, '0') };
+        return;
+      case 'E':
+        return this.edge(hostUs, rec);
+      case 'A':
+        this.room.push({ t_s: hostUs / 1e6, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
+        return;
+      case 'T':
+        return this.heartbeat(hostUs, rec);
+      default:
+        return;
+    }
+  }
+
+  private edge(hostUs: number, rec: EdgeRecord): void {
+    const ticks = this.timebase.timed(hostUs, rec.ticks);
+    const rig = this.rig();
+    const boot = this.timebase.boot;
+    if (this.beams.edge(rig, rec, boot, ticks, hostUs)) return;
+    const ch = this.opts.ppsChannel;
+    if (rec.ch === ch && rec.edge === 'r' && !rig?.beams.some((b) => b.channel === ch)) this.clockInputs.pulse(boot, ticks);
+  }
+
+  private heartbeat(hostUs: number, rec: HeartbeatRecord): void {
+    const ticks = this.timebase.timed(hostUs, rec.ticks);
+    const boot = this.timebase.boot;
+    this.clockInputs.beat(boot, ticks, hostUs);
+    this.health.deviceLost(boot, rec.lost);
+    this.levels = rec.levels;
+    this.lastBeatHostUs = hostUs;
+    this.beams.each((p) => p.advance(boot, ticks));
+  }
+}
