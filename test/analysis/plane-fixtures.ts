@@ -1,7 +1,8 @@
 // Simulated two-beam runs reduced to each channel's blocked intervals, with the truth matched pass by pass.
 import { loadScenario, simulateEntries, type Truth } from '../../sim/index.ts';
-import type { Blocked } from '../../host/analysis/plane-passes.ts';
-import type { TwoBeamGeometry } from '../../host/analysis/two-beam-geometry.ts';
+import { planePasses, type Blocked } from '../../host/analysis/plane-passes.ts';
+import { azimuthRate } from '../../host/analysis/plane-rate.ts';
+import { foldAxis, type TwoBeamGeometry } from '../../host/analysis/two-beam-geometry.ts';
 
 export interface PlaneRun {
   readonly A: Blocked[];
@@ -44,5 +45,26 @@ export function planeRun(name: string, seed: number, durationS: number, override
     geometry: { angleA: beams[0]!.angle_deg * rad, angleB: beams[1]!.angle_deg * rad, flagWidth: sc.rig.flag_width_m, length: sc.rig.length_m },
     deviceTime: (t) => ((t + truth.release_host_s - boot.host_s) * rate + boot.phase_ticks) / truth.clock.hz,
     periodGuess: truth.physics.T0_s,
+  };
+}
+
+/** The run's measured rate, and the same least-squares slope of the simulator's exact azimuths at the same passes. */
+export function planeRates(name: string, seed: number, dur: number): { m: { rate: number; u: number }; truth: number } {
+  const run = planeRun(name, seed, dur);
+  const ps = planePasses(run.A, run.B, run.geometry, run.periodGuess).passes.filter((p) => !p.flag);
+  const tr = run.truth.plane!;
+  const times = tr.t_s.map(run.deviceTime);
+  let j = 0;
+  const trueAz = ps.map((p) => {
+    while (j + 1 < times.length && Math.abs(times[j + 1]! - p.t) < Math.abs(times[j]! - p.t)) j++;
+    return foldAxis(tr.azimuth_deg[j]! * (Math.PI / 180), { ...run.geometry, omega0: 1 });
+  });
+  const t = ps.map((p) => p.t);
+  return {
+    m: azimuthRate(
+      t,
+      ps.map((p) => p.azimuth),
+    )!,
+    truth: azimuthRate(t, trueAz)!.rate,
   };
 }
