@@ -1,6 +1,6 @@
 // The rig file's schema (zod): every key with its type, plausible range and meaning. protocol/rig.ts turns
 // its issues into one-line messages; the same schema is shipped as JSON Schema (protocol/rig.schema.json).
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** A likely unit mistake: when `when(v)` holds and v·factor lands in range, the message suggests v·factor. */
 export interface UnitHint {

@@ -8,7 +8,6 @@ import { formatSummary } from '../../output/format-summary.ts';
 import { swingsCsvChunks } from '../../output/swings-csv.ts';
 import { analyzeJournalFile } from '../../pipeline/analyze-entries.ts';
 import type { ClockOption } from '../../pipeline/clock-choice.ts';
-import { renderReport } from '../../report/index.ts';
 import { optString, type Command } from '../command.ts';
 import { UserError } from '../../errors.ts';
 import { loadRigFile } from '../rig-file.ts';
@@ -88,6 +87,8 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     if (reportPath !== undefined) {
       const journalSha256 = fromStdin ? stdinHash.digest('hex') : await sha256(journal);
       const csvName = csvPath !== undefined ? csvLinkFrom(resolve(io.cwd, reportPath), resolve(io.cwd, csvPath)) : null;
+      // Loaded only when asked for: the report's code is a third of what `analyze --json` would otherwise load.
+      const { renderReport } = await import('../../report/index.ts');
       files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, { journalName: name, journalSha256, rig: pipeline.rig(), csvName })] });
     }
     await writeWhole(files);
