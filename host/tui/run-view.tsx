@@ -69,6 +69,61 @@ function mountInk(opts: RunViewOptions, store: LiveStore, status: () => FeedStat
   return () => ink.unmount();
 }
 
+/** What the run has learnt so far: how the feed ended (if it did), and the first failure to report. */
+interface RunState {
+  ended: FeedStatus['connection'] | null;
+  failure: unknown;
+}
+
+/** The screen parts to take down at shutdown (set once they are up). */
+interface Screen {
+  unmount: (() => void) | null;
+  plainTimer: unknown;
+}
+
+/**
+ * The one way down: stop intake and flush the journal (at most `closeTimeoutMs`), then stop the store, then take
+ * the screen down; `done` resolves to the exit code.
+ */
+function shutdownSequence(opts: RunViewOptions, store: LiveStore, state: RunState, screen: Screen) {
+  let finish!: (code: number) => void;
+  const done = new Promise<number>((r) => (finish = r));
+  let shuttingDown = false;
+  const shutdown = async (code: number): Promise<void> => {
+    if (shuttingDown) return;
+    shuttingDown = true;
+    const closing = opts.feed.close().catch((e: unknown) => {
+      state.failure ??= e;
+    });
+    let hard: unknown = null;
+    await Promise.race([closing, new Promise<void>((r) => (hard = opts.timers.setTimeout(r, opts.closeTimeoutMs ?? 5000)))]);
+    opts.timers.clearTimeout(hard);
+    store.stop();
+    if (screen.plainTimer !== null) opts.timers.clearInterval(screen.plainTimer);
+    screen.unmount?.();
+    finish(code);
+  };
+  return { shutdown, done };
+}
+
+/** Feeds the store until the feed ends: then the screen shows the final result (and, without a terminal, the run ends). */
+function pumpFeed(opts: RunViewOptions, store: LiveStore, state: RunState, interactive: boolean, shutdown: (code: number) => Promise<void>): void {
+  void pump(opts.feed.entries, (e) => store.push(e)).then(
+    async () => {
+      state.ended = { kind: 'ended', why: 'end of input' };
+      await store.flush();
+      if (!interactive) void shutdown(0);
+    },
+    async (e: unknown) => {
+      state.failure = e;
+      state.ended = { kind: 'ended', why: (e as Error).message ?? 'failed' };
+      await store.flush();
+      // A failed source (no hello, a full disk) ends the view with its message rather than a frozen screen.
+      void shutdown(1);
+    },
+  );
+}
+
 /** Runs the view until the user quits, a signal arrives, or (without a terminal) the feed ends; resolves to the exit code. */
 export async function runLiveView(opts: RunViewOptions): Promise<number> {
   const warn = (line: string): void => void opts.stderr.write(`halfswing: ${line}\n`);
@@ -80,81 +135,39 @@ export async function runLiveView(opts: RunViewOptions): Promise<number> {
     ...(opts.createResults ? { createResults: () => opts.createResults!(warn) } : {}),
   });
   const interactive = Boolean(opts.stdout.isTTY && opts.stdin.isTTY);
-  let ended: FeedStatus['connection'] | null = null;
-  let failure: unknown = null;
+  const state: RunState = { ended: null, failure: null };
+  const screen: Screen = { unmount: null, plainTimer: null };
   const status = (): FeedStatus => {
     const s = opts.feed.status();
-    return ended && s.connection.kind !== 'ended' ? { ...s, connection: ended } : s;
+    return state.ended && s.connection.kind !== 'ended' ? { ...s, connection: state.ended } : s;
   };
-
-  let finish!: (code: number) => void;
-  const done = new Promise<number>((r) => (finish = r));
-  let shuttingDown = false;
-  let unmount: (() => void) | null = null;
-  let plainTimer: unknown = null;
-
-  const shutdown = async (code: number): Promise<void> => {
-    if (shuttingDown) return;
-    shuttingDown = true;
-    // Order: stop intake and flush the journal, then take the screen down, then exit.
-    const closing = opts.feed.close().catch((e: unknown) => {
-      failure ??= e;
-    });
-    let hard: unknown = null;
-    await Promise.race([closing, new Promise<void>((r) => (hard = opts.timers.setTimeout(r, opts.closeTimeoutMs ?? 5000)))]);
-    opts.timers.clearTimeout(hard);
-    store.stop();
-    if (plainTimer !== null) opts.timers.clearInterval(plainTimer);
-    unmount?.();
-    finish(code);
-  };
+  const { shutdown, done } = shutdownSequence(opts, store, state, screen);
   const offSignal = opts.onSignal(() => void shutdown(0));
-
   const onEffect = (e: KeyEffect): void => {
     if (e.kind === 'quit') void shutdown(0);
     else if (e.kind === 'restart') store.restart();
     else if (e.kind === 'note') opts.feed.note?.(e.text).catch((err: unknown) => opts.stderr.write(`halfswing: note not written: ${(err as Error).message}\n`));
   };
-
-  void pump(opts.feed.entries, (e) => store.push(e)).then(
-    async () => {
-      ended = { kind: 'ended', why: 'end of input' };
-      await store.flush();
-      if (!interactive) void shutdown(0);
-    },
-    async (e: unknown) => {
-      failure = e;
-      ended = { kind: 'ended', why: (e as Error).message ?? 'failed' };
-      await store.flush();
-      // A failed source (no hello, a full disk) ends the view with its message rather than a frozen screen.
-      void shutdown(1);
-    },
-  );
+  pumpFeed(opts, store, state, interactive, shutdown);
 
   // A reader that goes away (`halfswing demo | head`) is the end of the run, not a crash.
   let outputGone = false;
   const onOutputError = (e: NodeJS.ErrnoException): void => {
     outputGone = true;
-    if (e.code !== 'EPIPE') failure ??= e;
+    if (e.code !== 'EPIPE') state.failure ??= e;
     void shutdown(e.code === 'EPIPE' ? 0 : 1);
   };
   opts.stdout.on?.('error', onOutputError);
   const writePlain = (): void => {
-    if (!outputGone) opts.stdout.write(`${plainStatusLine(vmNow())}\n`);
+    if (!outputGone) opts.stdout.write(`${plainStatusLine(viewModelNow(store.getSnapshot(), status(), opts.nowMs()))}\n`);
   };
-
-  const vmNow = (): ViewModel => viewModelNow(store.getSnapshot(), status(), opts.nowMs());
-
-  if (interactive) {
-    unmount = mountInk(opts, store, status, onEffect);
-  } else {
-    plainTimer = opts.timers.setInterval(() => writePlain(), (opts.plainEvery_s ?? 5) * 1000);
-  }
+  if (interactive) screen.unmount = mountInk(opts, store, status, onEffect);
+  else screen.plainTimer = opts.timers.setInterval(() => writePlain(), (opts.plainEvery_s ?? 5) * 1000);
 
   const code = await done;
   offSignal();
   if (!interactive) writePlain();
   opts.stdout.off?.('error', onOutputError);
-  if (failure) throw failure;
+  if (state.failure) throw state.failure;
   return code;
 }

@@ -2,7 +2,7 @@
 import type { JournalEntry } from '../../../protocol/journal.ts';
 import type { DeviceLink } from '../../link/device-link.ts';
 import type { JournalWriter } from '../../journal/journal-writer.ts';
-import { startRecording } from '../../session/recording-session.ts';
+import { startRecording, type StateEvent } from '../../session/recording-session.ts';
 import type { ConnectionState, Feed, FeedStatus } from '../feed.ts';
 
 /** The part of the device link the feed uses. */
@@ -17,6 +17,13 @@ export interface DeviceFeedOptions {
   readonly source: string;
   readonly rigJson?: string;
   readonly portLabel: string;
+}
+
+/** The view's words for a state of the link (a closed link ends the feed, with the failure that closed it). */
+function connectionOf(e: StateEvent, failure: Error | null): ConnectionState {
+  if (e.state === 'reconnecting') return { kind: 'reconnecting', retries: e.attempt };
+  if (e.state === 'closed') return { kind: 'ended', why: failure ? failure.message : 'port closed' };
+  return { kind: e.state };
 }
 
 /** Journals the link's lines and annotations as they arrive; the entries follow for the view. */
@@ -46,15 +53,10 @@ export function deviceFeed(opts: DeviceFeedOptions): Feed {
     header,
     onEntry: enqueue,
     onState: (e) => {
-      if (e.state === 'opening') connection = { kind: 'opening' };
-      else if (e.state === 'waiting-hello') connection = { kind: 'waiting-hello' };
-      else if (e.state === 'connected') connection = { kind: 'connected' };
-      else if (e.state === 'reconnecting') connection = { kind: 'reconnecting', retries: e.attempt };
-      else {
-        closed = true;
-        connection = { kind: 'ended', why: failure ? failure.message : 'port closed' };
-        wake?.();
-      }
+      connection = connectionOf(e, failure);
+      if (e.state !== 'closed') return;
+      closed = true;
+      wake?.();
     },
     onWriteError: fail,
   });
