@@ -148,13 +148,15 @@ describe.skipIf(!enabled)('record over a pty', () => {
   });
 
   it('a reader that stalls (SIGSTOP) while the board sends at full speed loses no line', async () => {
-    const { journal, rec, board } = await rig(CLEAN, Infinity);
+    const { journal, cable, rec, board } = await rig(CLEAN, Infinity);
     board.pause();
     rec.proc.kill('SIGSTOP');
     board.resume();
     // The pty and pipe fill up, then the board is held back by the pty: flow control, not loss.
+    // Stopped until the pty holds the board back, or until the board has sent the whole run into the buffers.
+    const held = cable.whenHeldBack();
     const running = board.run();
-    await new Promise((r) => setTimeout(r, 1500));
+    await Promise.race([held, running]);
     rec.proc.kill('SIGCONT');
     await running;
     await waitFor(() => journalDataLines(journal).length === board.sent.length, 'all lines after the stall');

@@ -36,6 +36,7 @@ export class PtyCable {
 
   private buffered = '';
   private commandFn: ((cmd: string) => void) | undefined;
+  private heldBack: (() => void)[] = [];
 
   static async plug(path: string): Promise<PtyCable> {
     // A SIGKILLed socat leaves its link behind; a new one could not create it.
@@ -62,7 +63,14 @@ export class PtyCable {
     const stdin = this.proc.stdin!;
     if (!stdin.writable) return;
     // once() rejects on 'error': an EPIPE while waiting means socat is gone, i.e. the cable is pulled.
-    if (!stdin.write(text)) await Promise.race([once(stdin, 'drain'), once(this.proc, 'exit')]).catch(() => undefined);
+    if (stdin.write(text)) return;
+    for (const f of this.heldBack.splice(0)) f();
+    await Promise.race([once(stdin, 'drain'), once(this.proc, 'exit')]).catch(() => undefined);
+  }
+
+  /** Resolves the next time a write has to wait: the pty is full, so its reader has stopped taking lines. */
+  whenHeldBack(): Promise<void> {
+    return new Promise((r) => this.heldBack.push(r));
   }
 
   get alive(): boolean {
