@@ -41,7 +41,7 @@ export class LinkHealth {
       gap = true;
     } else gap = this.rejectedSinceGood > 0;
     this.rejectedSinceGood = 0;
-    return { ...tr, gap };
+    return { record: tr.record, lostBefore: tr.lostBefore, newBoot: tr.newBoot, bootIndex: tr.bootIndex, gap };
   }
 
   /** A heartbeat's count of edges the device dropped in boot `b` (cumulative within the boot). */
