@@ -6,7 +6,7 @@ import { DeviceClock } from './device-clock.ts';
 import type { FaultSchedule, Window } from './fault-schedule.ts';
 import type { PinEdge } from './optics.ts';
 import type { Rng } from './prng.ts';
-import { roomAt, type RoomSetup } from './room.ts';
+import { clockExcursion, roomAt, type RoomSetup } from './room.ts';
 import type { Scenario } from './scenario.ts';
 import type { BootTruth, FaultCounts } from './truth.ts';
 
@@ -445,7 +445,7 @@ export class DeviceModel {
     this.mask = (1 << this.cfg.channels) - 1;
     this.bootId = this.rng.nextU32() & 0xffff;
     const phase = this.rng.uniform();
-    this.clock = new DeviceClock(this.cfg.hz, this.cfg.ppm, this.cfg.drift_ppm_per_h, t, phase);
+    this.clock = new DeviceClock(this.cfg.hz, this.cfg.ppm, this.cfg.drift_ppm_per_h, t, phase, this.o.room && clockExcursion(this.o.room));
     this.o.boots.push({ host_s: t, boot_id: this.bootId, phase_ticks: phase, cause: this.readyCause });
     const helloAt = Math.max(t + this.emitLatency(), this.lastQueued());
     this.queue(helloAt, this.hello());

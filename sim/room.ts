@@ -1,6 +1,7 @@
 // The room around a simulated rig: a day's temperature cycle, a pressure front and humidity, the string's
 // length following the temperature, and air density (CIPM-2007) in buoyancy and added mass.
 import { airDensityCipm2007 } from '../host/analysis/air-density.ts';
+import type { RateExcursion } from './device-clock.ts';
 import { truePhysics, type TruePhysics } from './physics.ts';
 import type { Scenario } from './scenario.ts';
 
@@ -22,6 +23,11 @@ export interface RoomSetup {
   readonly length_temp_C: number;
   /** The device's room reading interval (s). */
   readonly interval_s: number;
+  /**
+   * The device clock's rate against the board's temperature (ppm/K, about the cycle's mean), the board at the
+   * room's temperature: a 16 MHz ceramic resonator moves about 10 ppm/K (docs/references.md#ref-clock-sources).
+   */
+  readonly clock_tempco_ppm_per_K: number;
 }
 
 export interface RoomConditions {
@@ -38,6 +44,14 @@ export function roomAt(r: RoomSetup, t_s: number): RoomConditions {
     pressPa: r.press_Pa + (r.front_Pa / 2) * (1 + Math.tanh((t_s / 3600 - r.front_at_h) / r.front_width_h)),
     rhPct: r.rh_mean_pct - r.rh_amp_pct * Math.sin(w),
   };
+}
+
+/** The device clock's rate excursion in this room: tempco·(T(t) − T_mean), and its integral in closed form. */
+export function clockExcursion(r: RoomSetup): RateExcursion | undefined {
+  if (r.clock_tempco_ppm_per_K === 0 || r.temp_amp_K === 0) return undefined;
+  const w = (2 * Math.PI) / (r.temp_period_h * 3600);
+  const a = r.clock_tempco_ppm_per_K * 1e-6 * r.temp_amp_K;
+  return { rate: (t) => a * Math.sin(w * t), integral: (t) => (a * (1 - Math.cos(w * t))) / w };
 }
 
 /** The scenario's true physics in these conditions: length at this temperature, air density by CIPM-2007. */

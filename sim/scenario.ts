@@ -289,6 +289,7 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
           expansion_per_K: num(-1e-3, 1e-3),
           length_temp_C: num(-40, 85),
           interval_s: num(1, 3600),
+          clock_tempco_ppm_per_K: num(-1000, 1000),
         },
         [],
       ),
@@ -348,6 +349,7 @@ const ROOM_DEFAULTS: RoomSetup = {
   expansion_per_K: 18e-6,
   length_temp_C: 21,
   interval_s: 10,
+  clock_tempco_ppm_per_K: 0,
 };
 
 const PLANE_DEFAULTS: PlaneSetup = { azimuth_deg: 0, transverse_m_s: 0, stiff_axis_deg: 0, frequency_split: 0, earth_rotation: true };

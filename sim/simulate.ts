@@ -69,7 +69,7 @@ export function prepareRun(base: Scenario, opts: SimOptions): Run {
       drift_ppm_per_h: scenario.device.drift_ppm_per_h,
       capture_latency_ticks: scenario.device.capture_latency_ticks,
       model:
-        'ticks = floor(hz·((t−b)(1 + ppm·1e-6) + drift·1e-6·(t² − b²)/7200) + phase) + capture_latency_ticks; t, b = host s since #start, b = boot host_s',
+        'ticks = floor(hz·((t−b)(1 + ppm·1e-6) + drift·1e-6·(t² − b²)/7200) + phase) + capture_latency_ticks; t, b = host s since #start, b = boot host_s; with a room, + hz·∫_b^t clock_tempco·1e-6·(T − temp_mean_C)',
       boots: [],
     },
     swings: { stride, t_s: [], theta_rad: [] },

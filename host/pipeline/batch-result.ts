@@ -38,7 +38,8 @@ export function batchResult(b: BatchInputs): AnalysisResult {
   const w = [...b.warnings];
   if (intake.health.malformedLines > 0) w.push(`${intake.health.malformedLines} journal line(s) were not in journal format and were skipped`);
   const rc = intake.clockInputs.choose(b.clock, tb.count, (x) => tb.hz(x), tb.hz(0), w);
-  const cols = intake.beams.columns(0, tb.joiner(rc.k, rc.offsets), (x) => tb.hz(x) * rc.k, rig);
+  const joined = tb.joiner(rc.k, rc.offsets);
+  const cols = intake.beams.columns(0, joined, (x) => tb.hz(x) * rc.k, rig);
   const { t, td, transit, plane } = cols;
   const np = t.length;
   const seq = sequencePasses(t, transit, cols.boot, b.sequencing);
@@ -61,7 +62,7 @@ export function batchResult(b: BatchInputs): AnalysisResult {
     run: { start_iso: b.startIso, duration_s: (b.lastHostUs ?? 0) / 1e6, source: b.source, firmware: intake.hello?.fw ?? null, hz_nominal: tb.nominalHz() },
     warnings: w,
     lineRejections: intake.health.lineRejections(),
-    room: intake.room,
+    room: intake.roomOn(joined),
     plane,
     rows: b.rows,
     settings: intake.beams.settings(rig),

@@ -22,8 +22,8 @@ export class DeviceIntake {
   readonly health = new LinkHealth();
   readonly clockInputs = new ClockInputs();
   readonly beams: Beams;
-  /** A readings, placed by their arrival time (the room changes over minutes). */
-  readonly room: RoomReading[] = [];
+  /** A readings with the boot and ticks at which the sensor was read (placed on the passes' timebase by `roomOn`). */
+  readonly room: (Omit<RoomReading, 't_s'> & { readonly boot: number; readonly ticks: number })[] = [];
   hello: LiveHello | null = null;
   /** Input levels bitmask and host time of the last heartbeat. */
   levels: number | null = null;
@@ -56,14 +56,21 @@ export class DeviceIntake {
         return;
       case 'E':
         return this.edge(hostUs, rec);
-      case 'A':
-        this.room.push({ t_s: hostUs / 1e6, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
+      case 'A': {
+        const ticks = this.timebase.timed(hostUs, rec.ticks);
+        this.room.push({ boot: this.timebase.boot, ticks, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
         return;
+      }
       case 'T':
         return this.heartbeat(hostUs, rec);
       default:
         return;
     }
+  }
+
+  /** The readings on a timebase (ticks of a boot → s): the contract's `ticks` is when the reading was taken. */
+  roomOn(joined: (b: number, ticks: number) => number): RoomReading[] {
+    return this.room.map(({ boot, ticks, ...r }) => ({ ...r, t_s: joined(boot, ticks) }));
   }
 
   private edge(hostUs: number, rec: EdgeRecord): void {

@@ -2,9 +2,12 @@
 // room with a ±2 K cycle and a brass-ish string: the simulator's truth against the fit, through the pipeline.
 import { describe, expect, it } from 'vitest';
 import { decodeLine } from '../../protocol/decode.ts';
+import { encodeRecord } from '../../protocol/encode.ts';
+import type { AirRecord } from '../../protocol/records.ts';
 import { airDensityCipm2007 } from '../../host/analysis/air-density.ts';
 import { airPeriodFactor, fitLengthDrift, lengthAt, roomAtTime, type RoomReading } from '../../host/analysis/room-drift.ts';
 import { physicsIn, roomAt } from '../../sim/room.ts';
+import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { scenario, simAndAnalyze } from '../pipeline/sim-run.ts';
 
 const ALPHA = 18e-6; // brass-ish (docs/references.md#ref-air-density, handbook value from memory)
@@ -54,4 +57,33 @@ describe('length temperature coefficient from the period drift', () => {
     expect(env.temperature_max_C - env.temperature_min_C).toBeGreaterThan(3.9);
     expect(env.air_density_kg_m3).toBeCloseTo(airDensityCipm2007({ tempC: env.temperature_mean_C, pressPa: env.pressure_mean_Pa, rhPct: env.humidity_mean_pct }), 12);
   }, 120_000);
+
+  it('A readings are placed by their ticks (when the sensor was read), not by when their lines arrived', () => {
+    // A 6-minute cycle and a large coefficient, so that a minute of misplacement would halve the coefficient
+    // (cos 60°). Each reading's line then carries the ticks and values of the reading six before it: a board
+    // that sent its readings 60 s after taking them (the lines keep their order and sequence numbers).
+    const sc = scenario({
+      name: 'room-fast',
+      rig: { length_m: 1, flag_width_m: 0.0254, bob_diameter_m: 0.0254, bob_density_kg_m3: 8400 },
+      duration_s: 1500,
+      physics: { g_m_s2: 9.80665, release_deg: 6, linear_q: 40000 },
+      gate: { jitter_us: 2 },
+      room: { temp_period_h: 0.1, temp_amp_K: 2, expansion_per_K: 1e-4, front_Pa: 0 },
+    });
+    const { entries, result } = simAndAnalyze(sc, { seed: 2 });
+    const taken: AirRecord[] = [];
+    const late = entries.flatMap((e) => {
+      const d = e.kind === 'data' ? decodeLine(e.line) : null;
+      if (!d?.ok || d.record.kind !== 'A') return [e];
+      taken.push(d.record);
+      const held = taken.at(-7);
+      return held ? [{ ...e, line: encodeRecord({ ...held, seq: d.record.seq }) }] : [];
+    });
+    for (const r of [result, analyzeEntries(late)]) {
+      const env = r.environment!;
+      // Placed by arrival, the late run gave 51 ± 36 ppm/K (the misplaced readings' scatter about the line).
+      expect(Math.abs(env.length_temp_coeff_ppm_per_K! - 100)).toBeLessThan(1);
+      expect(env.length_temp_coeff_u_ppm_per_K!).toBeLessThan(1);
+    }
+  }, 60_000);
 });

@@ -1,7 +1,8 @@
 // The simulated room: readings as the firmware sends them, and a pendulum whose length and air follow the room.
 import { describe, expect, it } from 'vitest';
-import type { AirRecord, SensorRecord } from '../../protocol/records.ts';
-import { physicsIn, roomAt } from '../../sim/room.ts';
+import type { AirRecord, EdgeRecord, SensorRecord } from '../../protocol/records.ts';
+import { DeviceClock } from '../../sim/device-clock.ts';
+import { clockExcursion, physicsIn, roomAt } from '../../sim/room.ts';
 import { decodeRun, testScenario } from './sim-fixtures.ts';
 
 // A fast cycle (6 min) so that a short run sees it; a large coefficient so that a few minutes resolve it.
@@ -51,5 +52,28 @@ describe('simulated room', () => {
     expect(mean - 1).toBeCloseTo((5 * Math.PI / 180) ** 2 / 16, 5);
     const t0s = enter.map((_, k) => physicsIn(sc, sc.room!, roomAt(sc.room!, t0 + mid(k))).T0_s);
     expect(Math.max(...t0s) / Math.min(...t0s) - 1).toBeGreaterThan(1.5e-4);
+  });
+
+  it('a device clock with a temperature coefficient: ticks are the integral of the rate, and the edges map back through it', () => {
+    // 10 ppm/K, a 16 MHz ceramic resonator's order (docs/references.md#ref-clock-sources): ±20 ppm over this room.
+    const warm = testScenario({ room: { ...room, clock_tempco_ppm_per_K: 10 }, rig: sc.rig, duration_s: 400, physics: { g_m_s2: 9.80665, release_deg: 5 } });
+    const ex = clockExcursion(warm.room!)!;
+    const clock = new DeviceClock(16e6, 300, 0, 2, 0.25, ex);
+    // The integral by the midpoint rule against the closed form, and the inverse.
+    let sum = 0;
+    const n = 20000;
+    for (let i = 0; i < n; i++) sum += 1 + 300e-6 + ex.rate(2 + (i + 0.5) * (360 / n));
+    expect(clock.ticksAt(362)).toBeCloseTo(16e6 * sum * (360 / n) + 0.25, 1);
+    expect(clock.timeAt(clock.ticksAt(123.456))).toBeCloseTo(123.456, 9);
+    expect(ex.rate(90) / 1e-6).toBeCloseTo(10 * (roomAt(warm.room!, 90).tempC - 21), 9);
+    const r = decodeRun(warm, 3);
+    const boot = r.truth.clock.boots[0]!;
+    const truthTimes = r.truth.passes.enter_s.flatMap((s, i) => [s, r.truth.passes.exit_s[i]!]).map((s) => s + r.truth.release_host_s);
+    const e = r.records.filter((x) => x.record.kind === 'E').map((x) => x.record as EdgeRecord);
+    const worst = (c: DeviceClock): number =>
+      Math.max(...e.map((x, i) => Math.abs(c.timeAt(x.ticks - r.truth.clock.capture_latency_ticks + 0.5) - truthTimes[i]! - (x.edge === 'f' ? 2e-6 : 8e-6))));
+    // Through the warm clock: the gate's 2 µs jitter (5σ) and half a tick; without the excursion: off by ~1 ms.
+    expect(worst(new DeviceClock(16e6, 0, 0, boot.host_s, boot.phase_ticks, ex))).toBeLessThan(10e-6 + 31.25e-9);
+    expect(worst(new DeviceClock(16e6, 0, 0, boot.host_s, boot.phase_ticks))).toBeGreaterThan(5e-4);
   });
 });

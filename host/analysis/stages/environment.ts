@@ -21,8 +21,10 @@ export function environmentOf(room: readonly RoomReading[] | undefined, passes: 
     points.push({ t_s: Number(passes.t[periods.ends[i]!]) - periods.P[i]! / 2, T0_s: reduction.P0[i]!, amplitude_rad: reduction.pAmp[i]! });
   }
   const sorted = [...room].sort((a, b) => a.t_s - b.t_s);
+  // Only periods between the first and last readings: outside them the temperature is not known.
+  const inside = points.filter((p) => p.t_s >= sorted[0]!.t_s && p.t_s <= sorted.at(-1)!.t_s);
   const spread = Math.max(...temps) - Math.min(...temps) > 0.1;
-  const fit = spread ? fitLengthDrift(points, sorted, rig?.bob_density_kg_m3 !== undefined ? { bobDensity: rig.bob_density_kg_m3 } : {}) : null;
+  const fit = spread ? fitLengthDrift(inside, sorted, rig?.bob_density_kg_m3 !== undefined ? { bobDensity: rig.bob_density_kg_m3 } : {}) : null;
   return {
     temperature_mean_C: conditions.tempC,
     temperature_min_C: Math.min(...temps),
