@@ -4,8 +4,7 @@ import { describeLevels, formatProbe, probeBoard } from '../../host/link/probe-r
 import { parseSimpleRig } from '../../protocol/rig.ts';
 import { DeviceLines } from './helpers/device-lines.ts';
 import { FakeBinding } from './helpers/fake-binding.ts';
-
-const tick = (): Promise<void> => new Promise((r) => setTimeout(r, 2));
+import { ManualTime, settle } from './helpers/manual-time.ts';
 
 describe('probe', () => {
   it('reports the hello, the reply to ?, heartbeat intervals from arrival times, errors and levels', async () => {
@@ -13,7 +12,8 @@ describe('probe', () => {
     const d = new DeviceLines();
     b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
     let t = 0;
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, now: () => t, helloNudgeMs: 5 });
+    const m = new ManualTime();
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, now: () => t, timers: m.timers, helloNudgeMs: 5 });
     // Heartbeats 1000, 1010, 990, 1000 ms apart on the host clock; one damaged line; gate 0 high.
     const gaps = [1000, 1010, 990, 1000];
     let ticks = 0;
@@ -22,10 +22,12 @@ describe('probe', () => {
         t += g * 1000;
         ticks += 16_000_000;
         b.port('/dev/ttyX').emit(`${d.beat(ticks, 0b01)}\n${i === 2 ? 'T 9 zz *00\n' : ''}`);
-        for (let k = 0; k < 20; k++) await tick();
+        await settle();
       }
     };
-    const r = await probeBoard({ link, seconds: 5, now: () => t, sleep });
+    const probing = probeBoard({ link, seconds: 5, now: () => t, sleep });
+    await m.advance(5);
+    const r = await probing;
     await link.close();
     expect(r.helloReplyMs).not.toBeNull();
     expect(r.heartbeats).toBe(5);
@@ -53,8 +55,11 @@ describe('probe', () => {
     const b = new FakeBinding();
     const d = new DeviceLines();
     b.add('/dev/ttyX', {}, (cmd) => (cmd === '?' ? [d.hello()] : []));
-    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, helloNudgeMs: 5, heartbeatMs: 60_000 });
-    const r = await probeBoard({ link, seconds: 0.05, now: () => 0 });
+    const m = new ManualTime();
+    const link = openDeviceLink({ port: '/dev/ttyX', binding: b, timers: m.timers, helloNudgeMs: 5, heartbeatMs: 60_000 });
+    const probing = probeBoard({ link, seconds: 0.05, now: () => 0, sleep: (ms) => m.advance(ms) });
+    await m.advance(5);
+    const r = await probing;
     await link.close();
     expect(r.problems.join()).toMatch(/no heartbeat in 0.05 s/);
   });

@@ -10,18 +10,25 @@ beforeEach(() => (dir = mkdtempSync(join(tmpdir(), 'halfswing-follow-'))));
 afterEach(() => rmSync(dir, { recursive: true, force: true }));
 
 const HEAD = '#halfswing-journal 1\n#start 2026-03-01T12:00:00.000Z\n#source test\n';
-const tick = (ms = 5): Promise<void> => new Promise((r) => setTimeout(r, ms));
-
-/** Starts following and returns the growing list of entries plus a stop function. */
-function start(path: string, opts: Parameters<typeof followJournal>[1] = {}): { got: JournalEntry[]; stop: () => Promise<void>; resets: string[] } {
+/**
+ * Starts following and returns the growing list of entries, the count of polls so far, and a stop function. Each
+ * poll interval is one event-loop turn (the follower's sleep is injected), so tests count polls, not milliseconds.
+ */
+function start(path: string, opts: Parameters<typeof followJournal>[1] = {}): { got: JournalEntry[]; polls: () => number; stop: () => Promise<void>; resets: string[] } {
   const ac = new AbortController();
   const got: JournalEntry[] = [];
   const resets: string[] = [];
+  let polls = 0;
+  const sleep = async (): Promise<void> => {
+    polls++;
+    await new Promise<void>((r) => setImmediate(r));
+  };
   const done = (async () => {
-    for await (const e of followJournal(path, { pollMs: 5, signal: ac.signal, onReset: (w) => resets.push(w), ...opts })) got.push(e);
+    for await (const e of followJournal(path, { pollMs: 5, sleep, signal: ac.signal, onReset: (w) => resets.push(w), ...opts })) got.push(e);
   })();
   return {
     got,
+    polls: () => polls,
     resets,
     stop: async () => {
       ac.abort();
@@ -31,8 +38,14 @@ function start(path: string, opts: Parameters<typeof followJournal>[1] = {}): { 
 }
 
 async function until(pred: () => boolean, what: string): Promise<void> {
-  for (let i = 0; i < 1000 && !pred(); i++) await tick();
+  for (let i = 0; i < 100_000 && !pred(); i++) await new Promise<void>((r) => setImmediate(r));
   if (!pred()) throw new Error(`timed out waiting for ${what}`);
+}
+
+/** Lets the follower poll the file `n` more times. */
+async function polled(f: { polls: () => number }, n: number): Promise<void> {
+  const target = f.polls() + n;
+  await until(() => f.polls() >= target, `${n} polls`);
 }
 
 const dataLines = (es: JournalEntry[]): string[] => es.flatMap((e) => (e.kind === 'data' ? [e.line] : []));
@@ -44,7 +57,7 @@ describe('followJournal', () => {
     const f = start(p);
     await until(() => dataLines(f.got).length === 1, 'first line');
     appendFileSync(p, '2 b');
-    await tick(40);
+    await polled(f, 5);
     expect(dataLines(f.got)).toEqual(['a']);
     appendFileSync(p, 'cd\n3 e\n');
     await until(() => dataLines(f.got).length === 3, 'completed lines');
@@ -71,7 +84,7 @@ describe('followJournal', () => {
   it('waits for a journal that does not exist yet when asked to', async () => {
     const p = join(dir, 'later');
     const f = start(p, { waitForFile: true });
-    await tick(30);
+    await polled(f, 5);
     writeFileSync(p, `${HEAD}1 a\n`);
     await until(() => dataLines(f.got).length === 1, 'line');
     await f.stop();
