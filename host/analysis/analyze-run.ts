@@ -12,6 +12,7 @@ import { environmentOf } from './stages/environment.ts';
 import { findPeriods } from './stages/periods.ts';
 import { plotSeries } from './stages/plots.ts';
 import { reduceToZeroAmplitude } from './stages/reduction.ts';
+import { roomAtTimes } from './room-at-pass.ts';
 import { assembleResult } from './stages/result.ts';
 import { swingRows } from './stages/swing-rows.ts';
 import { lineT0 } from './stages/t0-line.ts';
@@ -46,8 +47,8 @@ export function analyzeRun(d: RunData): AnalysisResult {
     expected: expectedGravity(rig),
     sensitivity: sensitivityAtMedian(passes.transit, reduction.amp, decay.median, rig, omega0),
     warnings,
-    swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null, d.plane),
+    swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null, d.plane, d.room?.length ? roomAtTimes(d.room, passes.t) : null),
     environment: environmentOf(d.room, passes, periods, reduction, rig),
-    plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }, d.plane),
+    plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }, d.plane, d.room),
   });
 }

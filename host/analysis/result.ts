@@ -96,6 +96,10 @@ export interface SwingRow {
   /** Two-beam runs: the swing's axis (° counterclockwise from above) and signed minor axis (m) at this pass. */
   readonly azimuth_deg?: number | null;
   readonly minor_axis_m?: number | null;
+  /** Runs with room readings: the room at this pass, interpolated between readings (null across a gap in them). */
+  readonly temperature_C?: number | null;
+  readonly pressure_Pa?: number | null;
+  readonly humidity_pct?: number | null;
 }
 
 /** The room as the board's sensor read it, and what it did to the length (issue contract: analyze --json key `environment`). */
@@ -138,6 +142,10 @@ export interface PlotSeries {
   readonly qVsAmplitude: { readonly amplitude_deg: number[]; readonly Q: number[] };
   /** Two-beam runs: the swing's axis, signed minor axis and semi-major axis per measured pass. */
   readonly plane?: { readonly t_s: number[]; readonly azimuth_deg: number[]; readonly minor_axis_m: number[]; readonly semi_major_m: number[] };
+  /** The period reduced to zero amplitude (no other correction), averaged in windows of equal count over the run. */
+  readonly t0VsTime?: { readonly t_s: number[]; readonly T0_s: number[] };
+  /** Runs with room readings: the readings as sent, placed at their arrival time. */
+  readonly room?: { readonly t_s: number[]; readonly temperature_C: number[]; readonly pressure_Pa: number[]; readonly humidity_pct: number[] };
 }
 
 /** How sensitive the amplitude is to the inputs of the transit-time solution, at the run's median amplitude. */

@@ -4,6 +4,7 @@ import { qualityFactor } from '../damping.ts';
 import type { GateOffset } from '../gate-offset.ts';
 import type { ClockApplied, SequencedPasses } from '../passes.ts';
 import type { PlotSeries } from '../result.ts';
+import type { RoomReading } from '../room-drift.ts';
 import type { Decay } from './decay.ts';
 import type { Periods } from './periods.ts';
 import type { Reduction } from './reduction.ts';
@@ -67,6 +68,7 @@ export function plotSeries(
   T0: number | null,
   rg: RunningGInput,
   plane?: RunPlane | null,
+  room?: readonly RoomReading[],
 ): PlotSeries {
   const pvIdx = thin(Array.from({ length: per.ends.length }, (_, k) => k).filter((k) => Number.isFinite(red.pAmp[k]!)));
   const avIdx = thin(Array.from({ length: decay.t.length }, (_, i) => i));
@@ -83,7 +85,30 @@ export function plotSeries(
         ? { amplitude_deg: d.windows.map((w) => w.amplitude * DEG), Q: d.windows.map((w) => qualityFactor({ a0: w.rate, a1: 0, a2: 0 }, w.amplitude, T0)) }
         : { amplitude_deg: [], Q: [] },
     ...(plane ? { plane: planeSeries(p, plane) } : {}),
+    t0VsTime: t0Windows(p, per, red),
+    ...(room && room.length > 0 ? { room: roomSeries(room) } : {}),
   };
+}
+
+/** Windows of the reduced periods: ≤ 100, each the mean of an equal count (≥ 5) of kept periods, at their mean time. */
+function t0Windows(p: SequencedPasses, per: Periods, red: Reduction): NonNullable<PlotSeries['t0VsTime']> {
+  const kept: number[] = [];
+  for (let k = 0; k < per.ends.length; k++) if (red.keep[k] && Number.isFinite(red.P0[k]!)) kept.push(k);
+  const out = { t_s: [] as number[], T0_s: [] as number[] };
+  const windows = Math.min(100, Math.floor(kept.length / 5));
+  for (let w = 0; w < windows; w++) {
+    const ks = kept.slice(Math.floor((w * kept.length) / windows), Math.floor(((w + 1) * kept.length) / windows));
+    // A period's time is its middle: the pass that ends it minus half of it.
+    out.t_s.push(ks.reduce((s, k) => s + p.t[per.ends[k]!]! - per.P[k]! / 2, 0) / ks.length);
+    out.T0_s.push(ks.reduce((s, k) => s + red.P0[k]!, 0) / ks.length);
+  }
+  return out;
+}
+
+/** The room readings in time order, thinned like the other series. */
+function roomSeries(room: readonly RoomReading[]): NonNullable<PlotSeries['room']> {
+  const r = thin([...room].sort((a, b) => a.t_s - b.t_s));
+  return { t_s: r.map((x) => x.t_s), temperature_C: r.map((x) => x.tempC), pressure_Pa: r.map((x) => x.pressPa), humidity_pct: r.map((x) => x.rhPct) };
 }
 
 /** The plane's per-pass columns at the measured passes, thinned like the other series. */

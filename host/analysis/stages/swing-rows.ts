@@ -1,6 +1,7 @@
 // Stage: one row per pass for the per-swing table (CSV), with flags that say how the pass was used.
 import { passStatus, type PassStatus, type SequencedPasses } from '../passes.ts';
 import type { RunPlane } from '../plane-of-run.ts';
+import type { RoomColumns } from '../room-at-pass.ts';
 import type { SwingRow } from '../result.ts';
 import type { Periods } from './periods.ts';
 import type { Reduction } from './reduction.ts';
@@ -29,8 +30,8 @@ function flagsOf(p: SequencedPasses, per: Periods, c: number): readonly string[]
   return flags;
 }
 
-/** The rows stage; `withRig` says whether reduced periods exist; a two-beam run adds the plane's columns. */
-export function swingRows(p: SequencedPasses, per: Periods, red: Reduction, withRig: boolean, plane?: RunPlane | null): SwingRow[] {
+/** The rows stage; `withRig` says whether reduced periods exist; a two-beam run adds the plane's columns, room readings the room's. */
+export function swingRows(p: SequencedPasses, per: Periods, red: Reduction, withRig: boolean, plane?: RunPlane | null, room?: RoomColumns | null): SwingRow[] {
   const n = p.t.length;
   const pk = new Int32Array(n).fill(-1);
   per.ends.forEach((c, k) => (pk[c] = k));
@@ -47,6 +48,7 @@ export function swingRows(p: SequencedPasses, per: Periods, red: Reduction, with
       period0_s: k >= 0 && withRig ? finiteOrNull(red.P0[k]!) : null,
       flags: flagsOf(p, per, c),
       ...(plane ? { azimuth_deg: finiteOrNull(plane.azimuthDeg[c]!), minor_axis_m: finiteOrNull(plane.minorM[c]!) } : {}),
+      ...(room ? { temperature_C: finiteOrNull(room.tempC[c]!), pressure_Pa: finiteOrNull(room.pressPa[c]!), humidity_pct: finiteOrNull(room.rhPct[c]!) } : {}),
     });
   }
   return rows;

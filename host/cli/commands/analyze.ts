@@ -55,7 +55,7 @@ export const command: Command = {
   options: {
     rig: { type: 'string', arg: 'FILE', description: "rig description (JSON); default: the journal's #rig line" },
     json: { type: 'boolean', description: 'print one JSON object (SI units, standard uncertainties) instead of the summary' },
-    csv: { type: 'string', arg: 'FILE', description: 'write one row per pass: time, transit, half-period, period, amplitude, reduced period, flags' },
+    csv: { type: 'string', arg: 'FILE', description: 'write one row per pass: time, transit, half-period, period, amplitude, reduced period, flags; swing plane and room when measured (docs/swings-csv.md)' },
     report: { type: 'string', arg: 'FILE', description: 'write the HTML run report' },
     clock: { type: 'string', arg: 'MODE', description: 'device clock correction: host (lower envelope of heartbeats), pps, nominal, or a rate error in ppm (default: pps if present, else host when the run is long enough)' },
   },
