@@ -61,20 +61,27 @@ export function smoothAmplitudes(p: LinePasses): Float64Array {
   return out;
 }
 
-/**
- * Fits T0; `mu(θ)` is the mid-transit shift per metre of gate offset (null: a constant alternation).
- * Null with fewer than 8 usable passes.
- */
-export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null): T0Line | null {
-  const th = smoothAmplitudes(p);
+/** The usable passes as flat columns (k, τ, z), segments as runs [segStart[j], segStart[j + 1]), and what the modelled walk needs. */
+interface LineColumns {
+  readonly K: Float64Array;
+  readonly TAU: Float64Array;
+  readonly Z: Float64Array;
+  readonly segStart: number[];
+  /** Σ (∂Δτ/∂θ̄)² over the steps, their number, and Σ of the raw amplitudes' squared scatter about the smoothed ones. */
+  readonly grad2: number;
+  readonly steps: number;
+  readonly dev2: number;
+  readonly devN: number;
+}
+
+/** Reduced pass times τ (divided half-periods summed per segment), pass numbers and alternation regressors. */
+function lineColumns(p: LinePasses, th: Float64Array, mu: ((theta: number) => number) | null): LineColumns {
   const n = p.t.length;
-  // All usable passes in order, as flat columns; segments are runs [segStart[j], segStart[j + 1]).
   const K = new Float64Array(n);
   const TAU = new Float64Array(n);
   const Z = new Float64Array(n);
   const segStart: number[] = [];
   let m = 0;
-  // For the modelled walk: Σ (∂Δτ/∂θ̄)² over the steps, and the raw amplitudes' scatter about the smoothed ones.
   let grad2 = 0;
   let steps = 0;
   let dev2 = 0;
@@ -107,16 +114,24 @@ export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null)
     m++;
   }
   segStart.push(m);
-  // Partial out [1, z] per segment from k and τ (Frisch–Waugh–Lovell), in place.
+  return { K, TAU, Z, segStart, grad2, steps, dev2, devN };
+}
+
+/**
+ * Partials out [1, z] per segment from k and τ (Frisch–Waugh–Lovell), in place; segments under 4 passes are left
+ * out. Returns the slope β of τ on k, Σk², the passes used and the partialled columns of each used segment.
+ */
+function partialOut(col: LineColumns): { beta: number; skk: number; used: number; kt: Float64Array[]; tt: Float64Array[] } | null {
+  const { K, TAU, Z, segStart } = col;
   let skk = 0;
   let skt = 0;
   let used = 0;
-  const good: boolean[] = [];
+  const kt: Float64Array[] = [];
+  const tt: Float64Array[] = [];
   for (let j = 0; j + 1 < segStart.length; j++) {
     const a = segStart[j]!;
     const b = segStart[j + 1]!;
     const len = b - a;
-    good.push(len >= 4);
     if (len < 4) continue;
     let zb = 0;
     let kb = 0;
@@ -145,17 +160,15 @@ export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null)
       skt += K[i]! * TAU[i]!;
     }
     used += len;
+    kt.push(K.subarray(a, b));
+    tt.push(TAU.subarray(a, b));
   }
   if (used < 8 || !(skk > 0)) return null;
-  const beta = skt / skk;
-  const kt: Float64Array[] = [];
-  const tt: Float64Array[] = [];
-  for (let j = 0; j + 1 < segStart.length; j++) {
-    if (!good[j]) continue;
-    kt.push(K.subarray(segStart[j]!, segStart[j + 1]!));
-    tt.push(TAU.subarray(segStart[j]!, segStart[j + 1]!));
-  }
-  // Residual structure: white noise and a random walk.
+  return { beta: skt / skk, skk, used, kt, tt };
+}
+
+/** The residuals' white part σ_w² and walk σ_u² per pass: lag-1 and long-lag differences, and the modelled walk. */
+function residualNoise(col: LineColumns, kt: Float64Array[], tt: Float64Array[], beta: number): { white2: number; walk2: number } {
   let d1 = 0;
   let n1 = 0;
   let dL = 0;
@@ -174,14 +187,18 @@ export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null)
   const v1 = n1 ? d1 / n1 : 0;
   const vL = nL ? dL / nL : v1;
   const W = 2 * SMOOTH + 1;
-  const sigmaTheta2 = devN > W ? ((dev2 / devN) * W) / (W - 1) : 0;
-  const walkModel = steps ? (grad2 / steps) * sigmaTheta2 : 0;
+  const sigmaTheta2 = col.devN > W ? ((col.dev2 / col.devN) * W) / (W - 1) : 0;
+  const walkModel = col.steps ? (col.grad2 / col.steps) * sigmaTheta2 : 0;
   const walkSeen = (vL - v1) / Math.max(1, lagUsed - 1);
   const walkSeenU = nL ? (vL * Math.sqrt((2 * lagUsed) / nL)) / Math.max(1, lagUsed - 1) : Infinity;
   const walk2 = Math.max(walkModel, walkSeen > 2 * walkSeenU ? walkSeen : 0);
   // Lag-1 differences hold 2σ_w² plus one step of the walk; not subtracting that step keeps σ_w on the safe side
   // (a smooth misfit seen as a walk would otherwise wipe out the white part).
-  const white2 = v1 / 2;
+  return { white2: v1 / 2, walk2 };
+}
+
+/** Σc² and ΣC² of the slope's weights c = k/Σk² on τ and their tail sums C. */
+function weightSums(kt: Float64Array[], skk: number): { cc: number; tails: number } {
   let cc = 0;
   let tails = 0;
   for (const k1 of kt) {
@@ -194,6 +211,19 @@ export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null)
     }
     if (k1.length) cc += (k1[0]! / skk) ** 2;
   }
+  return { cc, tails };
+}
+
+/**
+ * Fits T0; `mu(θ)` is the mid-transit shift per metre of gate offset (null: a constant alternation).
+ * Null with fewer than 8 usable passes.
+ */
+export function fitT0Line(p: LinePasses, mu: ((theta: number) => number) | null): T0Line | null {
+  const col = lineColumns(p, smoothAmplitudes(p), mu);
+  const fit = partialOut(col);
+  if (!fit) return null;
+  const { white2, walk2 } = residualNoise(col, fit.kt, fit.tt, fit.beta);
+  const { cc, tails } = weightSums(fit.kt, fit.skk);
   const varBeta = white2 * cc + walk2 * tails;
-  return { T0: 2 * beta, u_T0: 2 * Math.sqrt(varBeta), passes: used, sigmaWhite_s: Math.sqrt(white2), sigmaWalk_s: Math.sqrt(walk2) };
+  return { T0: 2 * fit.beta, u_T0: 2 * Math.sqrt(varBeta), passes: fit.used, sigmaWhite_s: Math.sqrt(white2), sigmaWalk_s: Math.sqrt(walk2) };
 }
