@@ -8,6 +8,11 @@ export interface DecayBound {
   /** Smallest and largest amplitude seen (rad). */
   readonly aMin: number;
   readonly aMax: number;
+  /**
+   * Whether the run shows a decay at all: ln A falls by more than two standard uncertainties of its slope and by
+   * more than the amplitudes' numerical resolution (~1e-9 relative) over the run. Without one, a fitted Q is noise.
+   */
+  readonly measurable: boolean;
 }
 
 /** Lower bound on Q from ln A against t (s) of one run; null with fewer than three finite amplitudes. */
@@ -20,5 +25,7 @@ export function decayBound(t: ArrayLike<number>, a: ArrayLike<number>, T0: numbe
   const slope = fit.params[1]!;
   const u = Math.sqrt(fit.cov[1]![1]!);
   const gammaMax = Math.max(-slope, 0) + 2 * u;
-  return { qLower: gammaMax > 0 ? Math.PI / (T0 * gammaMax) : Infinity, aMin, aMax };
+  const span = Math.abs(t[t.length - 1]! - t[0]!);
+  const measurable = -slope > 2 * u && -slope * span > 1e-9;
+  return { qLower: gammaMax > 0 ? Math.PI / (T0 * gammaMax) : Infinity, aMin, aMax, measurable };
 }

@@ -193,6 +193,8 @@ export interface AnalysisResult {
   readonly B_theory: number;
   readonly C_theory: number;
   readonly Q_u: number | null;
+  /** When the run shows no measurable decay (Q null): Q is at least this (two standard uncertainties of the decay rate). */
+  readonly Q_lower_bound?: number | null;
   /** Amplitude time constant A/|dA/dt| at the median amplitude. */
   readonly damping_tau_s: number | null;
   readonly median_amplitude_deg: number | null;
@@ -272,6 +274,7 @@ export const EMPTY_RESULT: AnalysisResult = {
   B_theory: 1 / 16,
   C_theory: 11 / 3072,
   Q_u: null,
+  Q_lower_bound: null,
   damping_tau_s: null,
   median_amplitude_deg: null,
   clock_drift_ppm_per_h: null,

@@ -5,6 +5,7 @@ import { decayBound } from '../../host/analysis/decay-bound.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { parseJournalLine } from '../../protocol/journal.ts';
 import { loadScenario, simulateJournal } from '../../sim/index.ts';
+import { scenario, simAndAnalyze } from '../pipeline/sim-run.ts';
 import { TestRng } from './seeded-rng.ts';
 
 describe('decayBound', () => {
@@ -29,6 +30,16 @@ describe('decayBound', () => {
     expect(b.qLower).toBeGreaterThan(1e4);
     expect(b.aMin).toBeCloseTo(0.5 - 1e-6, 12);
     expect(b.aMax).toBeCloseTo(0.5 + 1e-6, 12);
+    expect(b.measurable).toBe(false);
+  });
+
+  it('calls a decay measurable only beyond two standard uncertainties of the slope and the numerical resolution', () => {
+    const t = Array.from({ length: 300 }, (_, i) => i);
+    const rng = new TestRng(7);
+    // Q = 2e4 at T0 = 2 s: ln A falls by 0.024 over 300 s, noise 1e-4 per point: far beyond 2u.
+    expect(decayBound(t, t.map((s) => 0.1 * Math.exp((-Math.PI * s) / 4e4) * (1 + 1e-4 * rng.normal())), 2)!.measurable).toBe(true);
+    // A fall of 1e-12 in ln A with no noise has a tiny u, but is below the amplitudes' resolution.
+    expect(decayBound(t, t.map((s) => 0.1 * Math.exp(-1e-12 * (s / 300))), 2)!.measurable).toBe(false);
   });
 });
 
@@ -41,5 +52,22 @@ describe('an undamped run', () => {
     const w = r.warnings.find((x) => /decay/.test(x)) ?? '';
     expect(w).toMatch(/^no measurable decay over the run \(amplitude 60\.00° to 60\.00°\): Q > \d/);
     expect(r.warnings.join('\n')).not.toMatch(/too few swings/);
+  });
+
+  it('with sensor jitter: Q is above a bound, not a number of noise (it read Q = 3.9e6 ± 1.6e6 before)', () => {
+    // No damping in the simulated physics (sim/scenario.ts: no linear_q, quadratic or Coulomb term): the true Q is infinite.
+    const sc = scenario({ name: 'undamped', rig: { length_m: 1, flag_width_m: 0.0254, bob_diameter_m: 0.0254 }, duration_s: 600, physics: { g_m_s2: 9.80665, release_deg: 10 } });
+    const { result: r } = simAndAnalyze(sc, { seed: 3 });
+    expect(r.Q).toBeNull();
+    expect(r.Q_u).toBeNull();
+    expect(r.Q_lower_bound!).toBeGreaterThan(1e6);
+    expect(r.warnings.join('\n')).toMatch(/no measurable decay over the run \(amplitude 10\.00° to 10\.00°\): Q > /);
+  });
+
+  it('a weakly damped run keeps its fitted Q (true Q 20 000 within 3 standard uncertainties)', () => {
+    const sc = scenario({ name: 'q20k', rig: { length_m: 1, flag_width_m: 0.0254, bob_diameter_m: 0.0254 }, duration_s: 900, physics: { g_m_s2: 9.80665, release_deg: 10, linear_q: 20000 } });
+    const { result: r } = simAndAnalyze(sc, { seed: 3 });
+    expect(r.Q_lower_bound).toBeNull();
+    expect(Math.abs(r.Q! - 20000)).toBeLessThan(3 * r.Q_u!);
   });
 });

@@ -1,5 +1,6 @@
 // Stage: the decay of the swing, amplitude against time, and the damping fitted to it (damping.ts).
 import { fitDamping, type DampingResult } from '../damping.ts';
+import { decayBound, type DecayBound } from '../decay-bound.ts';
 import type { SequencedPasses } from '../passes.ts';
 import { batchMeansStdError, median } from '../stats.ts';
 
@@ -13,6 +14,8 @@ export interface Decay {
   readonly damping: DampingResult | null;
   /** Standard uncertainty of Q from the scatter of the windows' Q, scaled to the fitted Q (null with < 3 windows). */
   readonly Q_u: number | null;
+  /** The run's bound on Q when it shows no measurable decay (then `damping` is null); null otherwise. */
+  readonly bound: DecayBound | null;
 }
 
 /** The decay stage; T0 (s) converts the loss rate to Q. */
@@ -21,11 +24,13 @@ export function decayOf(p: SequencedPasses, amp: ArrayLike<number>, T0: number |
   const amplitude: number[] = [];
   for (let c = 0; c < p.t.length; c++) if (Number.isFinite(amp[c]!)) t.push(p.t[c]!), amplitude.push(amp[c]!);
   const med = amplitude.length ? median(amplitude) : NaN;
-  const damping = T0 !== null && amplitude.length ? fitDamping(t, amplitude, T0, med) : null;
+  // A fit to amplitudes that do not fall gives a Q of noise (10⁶ … 10¹⁸ on an undamped run): the bound instead.
+  const bound = T0 !== null && amplitude.length >= 40 ? decayBound(t, amplitude, T0) : null;
+  const damping = T0 !== null && amplitude.length && (!bound || bound.measurable) ? fitDamping(t, amplitude, T0, med) : null;
   let Q_u: number | null = null;
   if (damping && T0 !== null) {
     const qs = damping.windows.map((w) => (Math.PI * w.amplitude) / (T0 * w.rate)).filter((x) => Number.isFinite(x) && x > 0);
     Q_u = qs.length > 2 ? batchMeansStdError(qs) * (damping.Q / Math.max(median(qs), 1e-300)) : null;
   }
-  return { t, amplitude, median: med, damping, Q_u };
+  return { t, amplitude, median: med, damping, Q_u, bound: damping ? null : bound };
 }

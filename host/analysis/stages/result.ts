@@ -69,6 +69,7 @@ export function assembleResult(d: RunData, r: ResultParts): AnalysisResult {
     B_theory: 1 / 16,
     C_theory: 11 / 3072,
     Q_u: finiteOrNull(decay.Q_u),
+    Q_lower_bound: decay.bound ? finiteOrNull(decay.bound.qLower) : null,
     damping_tau_s: damping ? damping.tau_s : null,
     median_amplitude_deg: Number.isFinite(decay.median) ? decay.median * DEG : null,
     clock_drift_ppm_per_h: d.clock.drift_ppm_per_h,
