@@ -63,7 +63,7 @@ describe('layering', () => {
  * Functions still over the limit, to be split (each is one long loop or closure today). The list may only shrink:
  * a new long function fails, and so does one of these once it is split (then remove it here).
  */
-const NOT_YET_SPLIT = ['host/pipeline/pass-sequencing.ts sequencePasses', 'host/pipeline/run-pipeline.ts createRunPipeline'];
+const NOT_YET_SPLIT = ['host/pipeline/pass-sequencing.ts sequencePasses'];
 
 describe('function length', () => {
   it('no function of host/analysis or host/pipeline is longer than 80 lines (apart from the listed ones)', () => {
