@@ -208,30 +208,40 @@ void __vector_capt_body(void) {
   }
 }
 
-// Ch1 latency is the time to the TCNT1 read, so the vector reads it first, before the C prologue saves
-// registers (push, lds and sts leave SREG alone), then jumps to the ordinary handler below.
+// Ch1 has one flag (INTF0) and the pin level to go by, so the vector samples both in its first instructions,
+// in adjacent cycles, and clears the flag in the next, before it reads TCNT1 and the C prologue saves
+// registers (push, in, out, sbi, lds and sts leave SREG alone). Any change after the entry (which clears
+// INTF0) and before the flag sample is then in both samples; one between the two samples is in the level
+// only; one between the level sample and the clear is in neither, and the next change counts it. Only two
+// changes in that two-cycle span, or three before the vector's entry, go uncounted (firmware/README.md).
+// The samples travel in GPIOR1 and GPIOR2, which nothing else uses. SBI on EIFR writes INTF0 only (the
+// 328P's SBI and CBI touch only the named bit, datasheet "Register Description"; INT1 is unused anyway).
 void __vector_int0_body(void) __attribute__((signal, used));
 ISR(INT0_vect, ISR_NAKED) {
   __asm__ __volatile__(
       "push r24\n\t"
+      "push r25\n\t"
+      "in r24, %[eifr]\n\t"
+      "in r25, %[pin]\n\t"
+      "sbi %[eifr], %[intf]\n\t"
+      "out %[flags], r24\n\t"
       "lds r24, %[tcnt_lo]\n\t"  // reading the low byte latches the high byte
+      "out %[levels], r25\n\t"
       "sts %[stamp], r24\n\t"
       "lds r24, %[tcnt_hi]\n\t"
       "sts %[stamp]+1, r24\n\t"
+      "pop r25\n\t"
       "pop r24\n\t"
-      "jmp __vector_int0_body\n\t" ::[tcnt_lo] "i"(_SFR_MEM_ADDR(TCNT1L)),
-      [tcnt_hi] "i"(_SFR_MEM_ADDR(TCNT1H)), [stamp] "i"(&ch1_stamp));
+      "jmp __vector_int0_body\n\t" ::[eifr] "I"(_SFR_IO_ADDR(EIFR)),
+      [pin] "I"(_SFR_IO_ADDR(CH1_PIN)), [intf] "I"(INTF0), [flags] "I"(_SFR_IO_ADDR(GPIOR1)),
+      [levels] "I"(_SFR_IO_ADDR(GPIOR2)), [tcnt_lo] "i"(_SFR_MEM_ADDR(TCNT1L)), [tcnt_hi] "i"(_SFR_MEM_ADDR(TCNT1H)),
+      [stamp] "i"(&ch1_stamp));
 }
 
 void __vector_int0_body(void) {
   uint16_t lo = ch1_stamp;
-  // A change after the vector was entered set INTF0 again, and the level read next includes it: note the
-  // flag, read the level, then clear the flag, so that change is not handled twice. A change in the two
-  // cycles between the level read and the clear is in neither: the level then disagrees at the next change,
-  // which counts both as lost. (Clearing first would let a change there be counted twice.)
-  uint8_t again = EIFR & _BV(INTF0);
-  uint8_t level = CH1_PIN & _BV(CH1_BIT);
-  EIFR = _BV(INTF0);
+  uint8_t again = GPIOR1 & _BV(INTF0);
+  uint8_t level = GPIOR2 & _BV(CH1_BIT);
   uint32_t hi = upper_bits(lo);
   if (level != ch1_level) {
     ch1_level = level;
@@ -240,7 +250,7 @@ void __vector_int0_body(void) {
     // first is the one stamped, and two more went by unseen.
     if (again) lost += 2;
   } else {
-    // Two changes before this ISR could look: the level is back where it was. Both edges are lost.
+    // An even number of changes since the last look (two, unless more came very close): both are lost.
     lost += 2;
   }
 }
