@@ -61,6 +61,190 @@ function sortedMedian(buf: Float64Array, n: number): number {
   return n % 2 ? buf[n >> 1]! : 0.5 * (buf[(n >> 1) - 1]! + buf[n >> 1]!);
 }
 
+/** The beat of half-periods: running medians of the recent ones of each parity (a gate offset makes them alternate). */
+class Beat {
+  private readonly hist = [new Float64Array(RING), new Float64Array(RING)] as const;
+  private readonly histN = [0, 0];
+  private readonly histAt = [0, 0];
+  private readonly buf = new Float64Array(RING);
+  /** Median half-period starting at a pass of each parity, and their mean H. */
+  readonly hPar = [NaN, NaN];
+  H = NaN;
+
+  /** Forgets the history (a new segment). */
+  reset(): void {
+    this.histN[0] = this.histN[1] = this.histAt[0] = this.histAt[1] = 0;
+  }
+
+  /** A measured half-period starting at a pass of `parity`. */
+  remember(parity: number, h: number): void {
+    this.hist[parity]![this.histAt[parity]!] = h;
+    this.histAt[parity] = (this.histAt[parity]! + 1) % RING;
+    this.histN[parity] = Math.min(this.histN[parity]! + 1, RING);
+    for (let q = 0; q < this.histN[parity]!; q++) this.buf[q] = this.hist[parity]![q]!;
+    this.hPar[parity] = sortedMedian(this.buf, this.histN[parity]!);
+    this.H = 0.5 * (this.hPar[0]! + this.hPar[1]!);
+  }
+}
+
+/** The typical spacing of passes (a half-period), for telling slow passes of a dying swing from objects. */
+function typicalSpacing(t: ArrayLike<number>, boot: ArrayLike<number>): number {
+  const n = t.length;
+  const gaps: number[] = [];
+  const step = Math.max(1, Math.floor(n / 4000));
+  for (let i = 0; i + 1 < n; i += step) if (boot[i + 1] === boot[i]) gaps.push(t[i + 1]! - t[i]!);
+  const sortedGaps = Float64Array.from(gaps).sort();
+  return gaps.length ? sortedGaps[gaps.length >> 1]! : Infinity;
+}
+
+/** Marks passes whose transit is unlike their neighbours' of the same boot (not slow passes, whose transit changes fast anyway). */
+function rejectByTransit(transit: ArrayLike<number>, boot: ArrayLike<number>, spacing: number, ratio: number, status: Uint8Array): number {
+  const n = transit.length;
+  const scratch = new Float64Array(2 * NEIGHBOURS);
+  let rejected = 0;
+  for (let i = 0; i < n; i++) {
+    if (transit[i]! > spacing / 3) continue;
+    let m = 0;
+    for (let j = i - 1; j >= 0 && j >= i - NEIGHBOURS && boot[j] === boot[i]; j--) scratch[m++] = transit[j]!;
+    for (let j = i + 1; j < n && j <= i + NEIGHBOURS && boot[j] === boot[i]; j++) scratch[m++] = transit[j]!;
+    if (m < 3) continue;
+    const r = transit[i]! / sortedMedian(scratch, m);
+    if (!(r < ratio && r > 1 / ratio)) (status[i] = REJECTED_TRANSIT), rejected++;
+  }
+  return rejected;
+}
+
+/** Follows the beat through the passes left after the transit check, numbering them segment by segment. */
+class BeatFollower {
+  readonly index: Int32Array;
+  readonly segment: Int32Array;
+  readonly bridgedBefore: Uint8Array;
+  rejectedTiming = 0;
+  bridgedGaps = 0;
+  longGaps = 0;
+  seg = -1;
+  private last = -1;
+  private readonly beat = new Beat();
+  private readonly n: number;
+
+  constructor(
+    private readonly t: ArrayLike<number>,
+    private readonly transit: ArrayLike<number>,
+    private readonly boot: ArrayLike<number>,
+    private readonly status: Uint8Array,
+    private readonly tol: number,
+    private readonly maxBridge: number,
+  ) {
+    this.n = t.length;
+    this.index = new Int32Array(this.n).fill(-1);
+    this.segment = new Int32Array(this.n).fill(-1);
+    this.bridgedBefore = new Uint8Array(this.n);
+  }
+
+  /** The first pass from `from` on that is still a candidate (valid so far). */
+  private candidates(from: number): number {
+    let j = from;
+    while (j < this.n && this.status[j] !== VALID) j++;
+    return j;
+  }
+
+  private reject(j: number): void {
+    this.status[j] = REJECTED_TIMING;
+    this.rejectedTiming++;
+  }
+
+  /**
+   * Finds three consecutive candidates of the same boot, evenly spaced: a trustworthy start of the beat. Candidates
+   * skipped on the way are left unsequenced, not rejected. Returns where to go on.
+   */
+  private startSegment(from: number): number {
+    const { t, transit, boot, status } = this;
+    for (let a = this.candidates(from); a < this.n; a = this.candidates(a + 1)) {
+      const b = this.candidates(a + 1);
+      const c = b < this.n ? this.candidates(b + 1) : this.n;
+      if (c >= this.n || boot[b] !== boot[a] || boot[c] !== boot[a]) {
+        status[a] = UNSEQUENCED;
+        continue;
+      }
+      const h1 = t[b]! - t[a]!;
+      const h2 = t[c]! - t[b]!;
+      // Uneven spacing before a beat is known: a missing pass as likely as an intruder, so no blame.
+      if (transit[a]! > NOT_CLEARING * Math.min(h1, h2) || !(h1 > 0 && h2 > 0 && h1 / h2 < 1.25 && h2 / h1 < 1.25)) {
+        status[a] = UNSEQUENCED;
+        continue;
+      }
+      this.seg++;
+      this.index[a] = 0;
+      this.segment[a] = this.seg;
+      this.beat.reset();
+      this.beat.remember(0, h1);
+      this.beat.remember(1, h2);
+      this.last = a;
+      return a + 1;
+    }
+    this.last = -1;
+    return this.n;
+  }
+
+  /** All candidates in the beat window of candidate `j` compete; the best fit to the predicted time and transit wins. Returns where to go on. */
+  private window(j: number, r: number): number {
+    const { t, transit, boot, beat } = this;
+    const last = this.last;
+    let predicted = t[last]!;
+    for (let q = 0; q < r; q++) predicted += beat.hPar[(this.index[last]! + q) % 2]!;
+    let best = -1;
+    let bestScore = Infinity;
+    let k = j;
+    for (; k < this.n && boot[k] === boot[last] && t[k]! < predicted + 0.5 * beat.H; k = this.candidates(k + 1)) {
+      const score = Math.abs(t[k]! - predicted) / beat.H + Math.abs(Math.log(transit[k]! / transit[last]!));
+      if (score < bestScore) (bestScore = score), (best = k);
+    }
+    for (let q = j; q < k; q = this.candidates(q + 1)) if (q !== best) this.reject(q);
+    if (best < 0) return k;
+    if (Math.abs(t[best]! - predicted) > this.tol * beat.H) {
+      this.reject(best);
+      return k;
+    }
+    if (r === 1) beat.remember(this.index[last]! % 2, t[best]! - t[last]!);
+    this.index[best] = this.index[last]! + r;
+    this.segment[best] = this.seg;
+    if (r > 1) (this.bridgedBefore[best] = r - 1), this.bridgedGaps++;
+    this.last = best;
+    return k;
+  }
+
+  /** Follows the beat over every candidate. */
+  run(): void {
+    let j = this.startSegment(0);
+    while (j < this.n) {
+      j = this.candidates(j);
+      if (j >= this.n) break;
+      if (this.boot[j] !== this.boot[this.last]) {
+        j = this.startSegment(j);
+        continue;
+      }
+      if (this.transit[j]! > NOT_CLEARING * this.beat.H) {
+        this.status[j] = UNSEQUENCED;
+        j++;
+        continue;
+      }
+      const nBeats = (this.t[j]! - this.t[this.last]!) / this.beat.H;
+      if (nBeats > this.maxBridge + 0.5) {
+        this.longGaps++;
+        j = this.startSegment(j);
+        continue;
+      }
+      const r = Math.round(nBeats);
+      if (r < 1) {
+        this.reject(j);
+        j++;
+        continue;
+      }
+      j = this.window(j, r);
+    }
+  }
+}
+
 /** Numbers the passes of one run; `boot` splits segments, `t` are pass times (s) and `transit` transit times (s). */
 export function sequencePasses(
   t: ArrayLike<number>,
@@ -68,154 +252,19 @@ export function sequencePasses(
   boot: ArrayLike<number>,
   opts: SequencingOptions = {},
 ): PassSequence {
-  const n = t.length;
-  const ratio = opts.transitRatio ?? 1.6;
-  const tol = opts.gridTol ?? 0.05;
-  const maxBridge = opts.maxBridge ?? 3;
-  const status = new Uint8Array(n);
-  const index = new Int32Array(n).fill(-1);
-  const segment = new Int32Array(n).fill(-1);
-  const bridgedBefore = new Uint8Array(n);
-  const scratch = new Float64Array(2 * NEIGHBOURS);
-  let rejectedTransit = 0;
-
-  // 0. The typical spacing of passes (a half-period), for telling slow passes of a dying swing from objects.
-  const gaps: number[] = [];
-  const step = Math.max(1, Math.floor(n / 4000));
-  for (let i = 0; i + 1 < n; i += step) if (boot[i + 1] === boot[i]) gaps.push(t[i + 1]! - t[i]!);
-  const sortedGaps = Float64Array.from(gaps).sort();
-  const spacing = gaps.length ? sortedGaps[gaps.length >> 1]! : Infinity;
-
-  // 1. Transit against the neighbours of the same boot (not for slow passes, whose transit changes fast anyway).
-  for (let i = 0; i < n; i++) {
-    if (transit[i]! > spacing / 3) continue;
-    let m = 0;
-    for (let j = i - 1; j >= 0 && j >= i - NEIGHBOURS && boot[j] === boot[i]; j--) scratch[m++] = transit[j]!;
-    for (let j = i + 1; j < n && j <= i + NEIGHBOURS && boot[j] === boot[i]; j++) scratch[m++] = transit[j]!;
-    if (m < 3) continue;
-    const med = sortedMedian(scratch, m);
-    const r = transit[i]! / med;
-    if (!(r < ratio && r > 1 / ratio)) (status[i] = REJECTED_TRANSIT), rejectedTransit++;
-  }
-
-  // 2. The beat of half-periods.
-  let rejectedTiming = 0;
-  let bridgedGaps = 0;
-  let longGaps = 0;
-  let seg = -1;
-  // Recent half-periods by the parity of the pass that starts them (a gate offset makes them alternate).
-  const hist = [new Float64Array(RING), new Float64Array(RING)] as const;
-  const histN = [0, 0];
-  const histAt = [0, 0];
-  const hPar = [NaN, NaN];
-  const histBuf = new Float64Array(RING);
-  let H = NaN;
-  const remember = (parity: number, h: number): void => {
-    hist[parity]![histAt[parity]!] = h;
-    histAt[parity] = (histAt[parity]! + 1) % RING;
-    histN[parity] = Math.min(histN[parity]! + 1, RING);
-    for (let q = 0; q < histN[parity]!; q++) histBuf[q] = hist[parity]![q]!;
-    hPar[parity] = sortedMedian(histBuf, histN[parity]!);
-    H = 0.5 * (hPar[0]! + hPar[1]!);
+  const status = new Uint8Array(t.length);
+  const rejectedTransit = rejectByTransit(transit, boot, typicalSpacing(t, boot), opts.transitRatio ?? 1.6, status);
+  const f = new BeatFollower(t, transit, boot, status, opts.gridTol ?? 0.05, opts.maxBridge ?? 3);
+  f.run();
+  return {
+    status,
+    index: f.index,
+    segment: f.segment,
+    bridgedBefore: f.bridgedBefore,
+    rejectedTransit,
+    rejectedTiming: f.rejectedTiming,
+    bridgedGaps: f.bridgedGaps,
+    longGaps: f.longGaps,
+    segments: f.seg + 1,
   };
-  let last = -1;
-  const candidates = (from: number): number => {
-    let j = from;
-    while (j < n && status[j] !== VALID) j++;
-    return j;
-  };
-  const reject = (j: number): void => {
-    status[j] = REJECTED_TIMING;
-    rejectedTiming++;
-  };
-  const startSegment = (from: number): number => {
-    // Find three consecutive candidates of the same boot, evenly spaced: a trustworthy start of the beat.
-    // Candidates skipped on the way are left unsequenced, not rejected.
-    let a = candidates(from);
-    while (a < n) {
-      const b = candidates(a + 1);
-      const c = b < n ? candidates(b + 1) : n;
-      if (c >= n || boot[b] !== boot[a] || boot[c] !== boot[a]) {
-        status[a] = UNSEQUENCED;
-        a = candidates(a + 1);
-        continue;
-      }
-      const h1 = t[b]! - t[a]!;
-      const h2 = t[c]! - t[b]!;
-      if (transit[a]! > NOT_CLEARING * Math.min(h1, h2)) {
-        status[a] = UNSEQUENCED;
-        a = candidates(a + 1);
-        continue;
-      }
-      if (h1 > 0 && h2 > 0 && h1 / h2 < 1.25 && h2 / h1 < 1.25) {
-        seg++;
-        index[a] = 0;
-        segment[a] = seg;
-        histN[0] = histN[1] = histAt[0] = histAt[1] = 0;
-        remember(0, h1);
-        remember(1, h2);
-        last = a;
-        return a + 1;
-      }
-      // Uneven spacing before a beat is known: a missing pass as likely as an intruder, so no blame.
-      status[a] = UNSEQUENCED;
-      a = candidates(a + 1);
-    }
-    last = -1;
-    return n;
-  };
-
-  let j = startSegment(0);
-  while (j < n) {
-    j = candidates(j);
-    if (j >= n) break;
-    if (boot[j] !== boot[last]) {
-      j = startSegment(j);
-      continue;
-    }
-    if (transit[j]! > NOT_CLEARING * H) {
-      status[j] = UNSEQUENCED;
-      j++;
-      continue;
-    }
-    const nBeats = (t[j]! - t[last]!) / H;
-    if (nBeats > maxBridge + 0.5) {
-      longGaps++;
-      j = startSegment(j);
-      continue;
-    }
-    const r = Math.round(nBeats);
-    if (r < 1) {
-      reject(j);
-      j++;
-      continue;
-    }
-    // All candidates in this beat window compete; the best fit to the predicted time and transit wins.
-    let predicted = t[last]!;
-    for (let q = 0; q < r; q++) predicted += hPar[(index[last]! + q) % 2]!;
-    let best = -1;
-    let bestScore = Infinity;
-    let k = j;
-    for (; k < n && boot[k] === boot[last] && t[k]! < predicted + 0.5 * H; k = candidates(k + 1)) {
-      const score = Math.abs(t[k]! - predicted) / H + Math.abs(Math.log(transit[k]! / transit[last]!));
-      if (score < bestScore) (bestScore = score), (best = k);
-    }
-    for (let q = j; q < k; q = candidates(q + 1)) if (q !== best) reject(q);
-    if (best < 0) {
-      j = k;
-      continue;
-    }
-    if (Math.abs(t[best]! - predicted) > tol * H) {
-      reject(best);
-      j = k;
-      continue;
-    }
-    if (r === 1) remember(index[last]! % 2, t[best]! - t[last]!);
-    index[best] = index[last]! + r;
-    segment[best] = seg;
-    if (r > 1) (bridgedBefore[best] = r - 1), bridgedGaps++;
-    last = best;
-    j = k;
-  }
-  return { status, index, segment, bridgedBefore, rejectedTransit, rejectedTiming, bridgedGaps, longGaps, segments: seg + 1 };
 }
