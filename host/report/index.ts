@@ -9,6 +9,7 @@ import { amplitudePlot, qPlot } from './plots/damping-plots.ts';
 import { figure } from './plots/figure.ts';
 import { periodPlot } from './plots/period-plot.ts';
 import { planeTimePlot, planeTopView } from './plots/plane-plots.ts';
+import { t0RoomPlot } from './plots/room-plots.ts';
 import { alternationPlot, clockPlot, gRunningPlot } from './plots/timing-plots.ts';
 import type { ReportMeta } from './report-meta.ts';
 import { detailsTable, missingSection, resultBox } from './result-section.ts';
@@ -32,10 +33,16 @@ function plotsSection(r: AnalysisResult): string {
     figure('fig-clock', 5, 'Clock offset', `In each window of the run, the smallest host receive time minus device time of a heartbeat, about the line fitted through those minima, whose slope is the clock’s rate error. USB latency only ever adds delay, so the minima trace the lower envelope.${clock}`, clockPlot(r, s)),
     figure('fig-g', 6, 'Running estimate of g', 'g from the swings up to each time, with its expanded uncertainty band (k = 2).', gRunningPlot(r, s)),
   ];
+  const roomText = s.room
+    ? ' Below, the readings of the board’s room sensor as sent: a string that expands with the temperature lengthens the period by half its expansion.'
+    : ' This run has no room readings (A records) to set beside it.';
+  figs.push(
+    figure('fig-t0-time', 7, s.room ? 'Reduced period and the room against time' : 'Reduced period against time', `The period reduced to zero amplitude by the exact law, averaged in windows of equal count, as parts per million from T0 (no other correction applied).${roomText}`, t0RoomPlot(r, s)),
+  );
   if (s.plane && s.plane.t_s.length > 0) {
     figs.push(
-      figure('fig-plane', 7, 'Swing plane', 'From the two crossed beams, at each pass: the direction of the swing’s axis and the ellipse’s signed minor axis (docs/two-beam-geometry.md). Passes within 20° of a beam line are not measured.', planeTimePlot(s.plane)),
-      figure('fig-plane-top', 8, 'Top view', 'The ellipse of a few passes spread over the run, from their measured axis, semi-major and minor axes.', planeTopView(s.plane)),
+      figure('fig-plane', 8, 'Swing plane', 'From the two crossed beams, at each pass: the direction of the swing’s axis and the ellipse’s signed minor axis (docs/two-beam-geometry.md). Passes within 20° of a beam line are not measured.', planeTimePlot(s.plane)),
+      figure('fig-plane-top', 9, 'Top view', 'The ellipse of a few passes spread over the run, from their measured axis, semi-major and minor axes.', planeTopView(s.plane)),
     );
   }
   return `<section id="plots"><h2>Plots</h2>${figs.join('')}</section>`;

@@ -85,12 +85,45 @@ export function detailsTable(r: AnalysisResult): string {
     `blocks under ${esc(sig(r.settings.glitch_s * 1e6, 3))} µs dropped; gaps under ${esc(sig(r.settings.bounce_s * 1e6, 3))} µs merged`,
     'glitch and bounce limits used',
   );
+  for (const [k, v, ref] of [...planeRows(r), ...roomRows(r)]) add(k, v, ref);
   add('passes used / full periods', `${num('passes', String(r.passes))} / ${num('periods', String(r.periods))}`);
   return (
     `<section id="details"><h2>Further results</h2><table class="tbl"><tbody>` +
     rows.map(([k, v, ref]) => `<tr><th scope="row">${esc(k)}</th><td class="n">${v}</td><td class="ref">${esc(ref)}</td></tr>`).join('') +
     `</tbody></table></section>`
   );
+}
+
+/** A two-beam run's plane: the axis at the start and end, its turning rate beside Foucault's and Airy's, the largest minor axis. */
+function planeRows(r: AnalysisResult): [string, string, string][] {
+  const p = r.plane;
+  if (!p) return [];
+  const k = (name: keyof typeof p): string => `plane.${name}`;
+  return [
+    ['swing axis, first → last pass', `${num(k('azimuth_start_deg'), fixed(p.azimuth_start_deg, 1))}° → ${num(k('azimuth_end_deg'), fixed(p.azimuth_end_deg, 1))}°`, 'counterclockwise seen from above, from the rig’s reference direction'],
+    ['precession of the swing plane', `${pm(p.precession_deg_per_h, p.precession_u_deg_per_h, k('precession_deg_per_h'), k('precession_u_deg_per_h'))} °/h`, 'slope of the unwrapped axis; + counterclockwise'],
+    ['expected from the Earth’s rotation (Foucault)', p.foucault_deg_per_h !== null ? `${num(k('foucault_deg_per_h'), fixed(p.foucault_deg_per_h, 2))} °/h` : missing, p.foucault_deg_per_h !== null ? '−15.041 °/h · sin(latitude)' : 'needs latitude_deg in the rig file'],
+    ['implied by the ellipse (Airy)', `${num(k('airy_deg_per_h'), sig(p.airy_deg_per_h, 3))} °/h`, 'mean of 3abω0/(8L²) over the passes'],
+    ['largest minor axis', `${num('plane.minor_axis_max_mm', sig(p.minor_axis_max_m * 1000, 3))} mm`, 'the path’s offset from the crossing point'],
+  ];
+}
+
+/** The room beside the swing (A records): what the board's sensor read and what it did to the length. */
+function roomRows(r: AnalysisResult): [string, string, string][] {
+  const e = r.environment;
+  if (!e) return [];
+  const k = (name: keyof typeof e): string => `environment.${name}`;
+  const coeff =
+    e.length_temp_coeff_ppm_per_K !== null
+      ? `${pm(e.length_temp_coeff_ppm_per_K, e.length_temp_coeff_u_ppm_per_K, k('length_temp_coeff_ppm_per_K'), k('length_temp_coeff_u_ppm_per_K'))} ppm/K`
+      : missing;
+  return [
+    ['room temperature, mean (min … max)', `${num(k('temperature_mean_C'), fixed(e.temperature_mean_C, 2))} °C (${num(k('temperature_min_C'), fixed(e.temperature_min_C, 2))} … ${num(k('temperature_max_C'), fixed(e.temperature_max_C, 2))})`, 'the board’s sensor, readings as sent'],
+    ['air pressure and humidity, mean', `${num('environment.pressure_mean_hPa', fixed(e.pressure_mean_Pa / 100, 2))} hPa · ${num(k('humidity_mean_pct'), fixed(e.humidity_mean_pct, 1))} %RH`, ''],
+    ['air density at the mean conditions', `${num(k('air_density_kg_m3'), fixed(e.air_density_kg_m3, 4))} kg/m³`, 'CIPM-2007, x_CO2 = 0.0004'],
+    ['effective length’s temperature coefficient', coeff, e.length_temp_coeff_ppm_per_K !== null ? 'from the period’s drift against the temperature' : 'the temperature did not move enough to measure it'],
+    ['reference temperature', `${num(k('reference_temperature_C'), fixed(e.reference_temperature_C, 2))} °C`, 'the mean of the readings; T0 holds there'],
+  ];
 }
 
 /** What could not be computed and what the run or the rig file would need; empty when nothing is missing. */

@@ -75,6 +75,7 @@ export function expectReportMatchesJson(html: string, json: Record<string, unkno
     expectShown(shown, 'g_U_k2', 2 * json.g_u_m_s2);
     compared++;
   }
+  compared += expectNestedShown(shown, json);
   const counts = json.counts as Record<string, number>;
   for (const [k, v] of Object.entries(counts)) {
     const m = new RegExp(`data-count="${k}">(\\d+)<`).exec(html);
@@ -94,4 +95,33 @@ export function expectReportMatchesJson(html: string, json: Record<string, unkno
 
 function escRe(s: string): string {
   return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;').replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+}
+
+/** Units a shown nested key may be scaled to: the page's key suffix, the JSON's, and the factor. */
+const NESTED_UNITS: readonly [string, string, number][] = [
+  ['_hPa', '_Pa', 0.01],
+  ['_mm', '_m', 1000],
+];
+
+/**
+ * The numbers of the JSON's nested objects (`plane`, `environment`): every shown `object.field` key rounds from
+ * the JSON's field (scaled when the page shows another unit); none is shown when the object is null.
+ */
+function expectNestedShown(shown: Map<string, string[]>, json: Record<string, unknown>): number {
+  let compared = 0;
+  for (const key of shown.keys()) {
+    const dot = key.indexOf('.');
+    if (dot < 0) continue;
+    const obj = json[key.slice(0, dot)] as Record<string, unknown> | null | undefined;
+    expect(obj, `${key} is shown, so JSON has ${key.slice(0, dot)}`).toBeTruthy();
+    let field = key.slice(dot + 1);
+    let scale = 1;
+    const unit = NESTED_UNITS.find(([page]) => field.endsWith(page) && !(field in obj!));
+    if (unit) [field, scale] = [field.slice(0, -unit[0].length) + unit[1], unit[2]];
+    const v = obj![field];
+    expect(typeof v, `${key}: JSON ${field} is a number`).toBe('number');
+    expectShown(shown, key, (v as number) * scale);
+    compared++;
+  }
+  return compared;
 }

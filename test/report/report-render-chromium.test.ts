@@ -77,9 +77,9 @@ describe.skipIf(!bin && !ci)('report in headless Chromium (simulated demo-low-q 
   it('lays out: no horizontal overflow, every chart visible with size, sections in order', async () => {
     const probe = await probeAt(1200);
     expect(probe.docWidth).toBeLessThanOrEqual(probe.viewWidth);
-    expect(probe.charts).toHaveLength(7);
+    expect(probe.charts).toHaveLength(8);
     const shown = probe.charts.filter((c) => c.shown);
-    expect(shown.map((c) => c.fig)).toEqual(['fig-period', 'fig-amplitude', 'fig-q', 'fig-alternation', 'fig-clock', 'fig-g']);
+    expect(shown.map((c) => c.fig)).toEqual(['fig-period', 'fig-amplitude', 'fig-q', 'fig-alternation', 'fig-clock', 'fig-g', 'fig-t0-time']);
     for (const c of shown) {
       expect(c.w, c.fig).toBeGreaterThan(600);
       expect(c.h, c.fig).toBeGreaterThan(200);

@@ -15,14 +15,14 @@ afterAll(() => {
 });
 
 describe('report of a simulated run', () => {
-  it('demo-low-q, 20 minutes: every section, six drawn figures, numbers equal to the JSON ones, well-formed', async () => {
+  it('demo-low-q, 20 minutes: every section, seven drawn figures, numbers equal to the JSON ones, well-formed', async () => {
     const run = await simulatedRun('demo-low-q', 5, 1200);
     runs.push(run);
     const html = renderReport(run.result, run.meta);
     expect(XMLValidator.validate(html)).toBe(true);
     for (const id of SECTIONS) expect(html.includes(`id="${id}"`), id).toBe(true);
     expect(html.includes('class="nodata"')).toBe(false);
-    expect(html.match(/class="chart"/g)).toHaveLength(7);
+    expect(html.match(/class="chart"/g)).toHaveLength(8);
     // What `analyze --json` prints is this result through JSON; every number shown must round from it.
     const json = JSON.parse(JSON.stringify(run.result)) as Record<string, unknown>;
     expect(expectReportMatchesJson(html, json)).toBeGreaterThan(35);
