@@ -15,6 +15,8 @@ export interface PivotPeriod {
    * are taken together (fully correlated).
    */
   readonly u_amp_s: number;
+  /** This journal's own clock calibration, s: each journal estimates the rate afresh, so independent between pivots. */
+  readonly u_clock_s?: number;
 }
 
 export interface BesselInput {
@@ -28,8 +30,14 @@ export interface BesselInput {
   readonly h2_m: number;
   /** Standard uncertainty of h1 − h2, m (2·cm_distance_u_m when both come from one balance point). */
   readonly dh_u_m: number;
-  /** Relative standard uncertainty of the device clock, common to both pivots. */
+  /** Relative standard uncertainty of the device clock common to both pivots (a shared time base; 0 when none). */
   readonly clock_u_rel: number;
+  /**
+   * Air's buoyancy as a share of the body's weight, ρ_air·V/M (0 or absent: not corrected). For one outer shape
+   * symmetric about the middle between the edges the added mass cancels exactly and the buoyancy leaves only
+   * 4π²/g = sum + (1 − μ)·difference (docs/reversible-pendulum.md): nothing at all when T1 = T2.
+   */
+  readonly buoyancy_rel?: number;
 }
 
 export interface BesselResult {
@@ -54,17 +62,18 @@ export function besselG(x: BesselInput): BesselResult | null {
   const l = x.l_m;
   const dh = x.h1_m - x.h2_m;
   if (!(T1 > 0 && T2 > 0 && l > 0) || !(Math.abs(dh) > 0)) return null;
-  const A = besselA(T1, T2, l, dh);
+  const air = 1 - (x.buoyancy_rel ?? 0);
+  const A = (T1 * T1 + T2 * T2) / (2 * l) + (air * (T1 * T1 - T2 * T2)) / (2 * dh);
   if (!(A > 0)) return null;
   const g = (4 * Math.PI * Math.PI) / A;
   const dA_dl = -(T1 * T1 + T2 * T2) / (2 * l * l);
-  const dA_ddh = -(T1 * T1 - T2 * T2) / (2 * dh * dh);
-  const dA_dT1 = T1 / l + T1 / dh;
-  const dA_dT2 = T2 / l - T2 / dh;
+  const dA_ddh = -(air * (T1 * T1 - T2 * T2)) / (2 * dh * dh);
+  const dA_dT1 = T1 / l + (air * T1) / dh;
+  const dA_dT2 = T2 / l - (air * T2) / dh;
   const rel = (dA: number): number => Math.abs(dA) / A;
-  const ms = (s: number): string => `${(s * 1e6).toFixed(2)} µs`;
+  const ms = (s: number): string => `${(s * 1e6).toPrecision(3)} µs`;
   const budget: BudgetLine[] = [
-    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: `l = ${l} ± ${x.l_u_m} m` },
+    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: `l = ${Number(l.toPrecision(8))} ± ${x.l_u_m} m` },
     {
       id: 'centre-of-mass-distances',
       name: 'centre-of-mass distances h1 − h2',
@@ -79,15 +88,25 @@ export function besselG(x: BesselInput): BesselResult | null {
       u_rel_g: rel(dA_dT1 * x.pivot1.u_amp_s + dA_dT2 * x.pivot2.u_amp_s),
       note: `${ms(x.pivot1.u_amp_s)} and ${ms(x.pivot2.u_amp_s)}, taken together`,
     },
-    // Both periods scale by the same clock factor (1 + ε): A by (1 + 2ε) exactly.
-    { id: 'clock', name: 'device clock (common to both pivots)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
+    // A common clock factor (1 + ε) scales A by (1 + 2ε) exactly; each journal's own calibration error moves its period alone.
+    {
+      id: 'clock',
+      name: 'device clock (each journal calibrated on its own, and any common part)',
+      u_rel_g: Math.hypot(2 * x.clock_u_rel, rel(dA_dT1 * (x.pivot1.u_clock_s ?? 0)), rel(dA_dT2 * (x.pivot2.u_clock_s ?? 0))),
+      note: `${ms(x.pivot1.u_clock_s ?? 0)} and ${ms(x.pivot2.u_clock_s ?? 0)}${x.clock_u_rel > 0 ? `; common ${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` : ''}`,
+    },
   ];
+  // Applied only with the body's volume and mass; 10 % of it as its u (common practice, no source).
+  if (air < 1) {
+    const shift = ((1 - air) * Math.abs(T1 * T1 - T2 * T2)) / (2 * Math.abs(dh)) / A;
+    budget.push({ id: 'air', name: 'correction: air buoyancy on the difference term (cancels at T1 = T2)', u_rel_g: 0.1 * shift, note: `ρ_air·V/M = ${(1 - air).toExponential(2)}, moves g by ${shift.toExponential(1)}` });
+  }
   return {
     g_m_s2: g,
     g_u_m_s2: g * combineBudget(budget),
     budget,
     sum_term: (T1 * T1 + T2 * T2) / (2 * l),
-    difference_term: (T1 * T1 - T2 * T2) / (2 * dh),
+    difference_term: (air * (T1 * T1 - T2 * T2)) / (2 * dh),
   };
 }
 

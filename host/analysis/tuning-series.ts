@@ -5,7 +5,7 @@ import { invertSmall } from './least-squares.ts';
 import type { BudgetLine } from './result.ts';
 import { combineBudget } from './uncertainty-budget.ts';
 
-/** One run of the series: the mass position (any fixed mark on the bar), the period and its independent u. */
+/** One run of the series: the mass position (any fixed mark on the bar), the period and its independent u (statistics and the run's own clock calibration). */
 export interface SeriesPoint {
   readonly x_m: number;
   readonly T_s: number;
@@ -17,7 +17,7 @@ export interface TuningInput {
   readonly pivot2: readonly SeriesPoint[];
   readonly l_m: number;
   readonly l_u_m: number;
-  /** Relative u of the device clock (common to every run). */
+  /** Relative u of a device clock common to every run (0: each run's calibration is in its point's u). */
   readonly clock_u_rel: number;
   /** Relative u of the periods from the amplitude reduction (same flag and gate for every run: common). */
   readonly amp_u_rel: number;
@@ -136,10 +136,10 @@ export function tuningCrossing(x: TuningInput): TuningResult {
   const g = (4 * Math.PI * Math.PI * x.l_m) / (c0.T * c0.T);
   const uT = Math.sqrt(vt);
   const budget: BudgetLine[] = [
-    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: `l = ${x.l_m} ± ${x.l_u_m} m` },
-    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2)', u_rel_g: (2 * uT) / c0.T, note: `T = ${c0.T.toFixed(7)} s ± ${(uT * 1e6).toFixed(2)} µs` },
+    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: `l = ${Number(x.l_m.toPrecision(8))} ± ${x.l_u_m} m` },
+    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2: statistics, clock calibration of each run)', u_rel_g: (2 * uT) / c0.T, note: `T = ${c0.T.toFixed(7)} s ± ${(uT * 1e6).toFixed(2)} µs` },
     { id: 'amplitude-reduction', name: 'amplitude reduction (every run, same flag and gate)', u_rel_g: 2 * x.amp_u_rel },
-    { id: 'clock', name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
+    ...(x.clock_u_rel > 0 ? [{ id: 'clock' as const, name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` }] : []),
   ];
   return {
     ok: true,

@@ -13,6 +13,8 @@ export interface LengthRun {
   readonly T0_s: number;
   /** Its standard uncertainty without the clock (statistics, amplitude reduction), s. */
   readonly u_s: number;
+  /** This run's own clock calibration, s (independent between runs; a common clock is clock_u_rel). */
+  readonly u_clock_s?: number;
 }
 
 export interface TwoLengthInput {
@@ -32,12 +34,16 @@ export interface TwoLengthInput {
 export interface TwoLengthResult {
   readonly g_m_s2: number;
   readonly g_u_m_s2: number;
+  /** The line's slope: T² per metre of reading (4π²/g before the air correction), s²/m. */
+  readonly slope_s2_per_m: number;
   /** True pivot-to-centre distance minus the reading, m. */
   readonly offset_m: number;
   readonly offset_u_m: number;
   readonly budget: BudgetLine[];
   /** Per run: the corrected period squared used in the fit, s². */
   readonly T2_corrected_s2: number[];
+  /** Each run's share of the 'length-t0' line (relative u of g; their root sum of squares is that line). */
+  readonly t0_shares: { readonly reading_m: number; readonly u_rel_g: number }[];
   /** χ² of the line (0 for two lengths) and its degrees of freedom. */
   readonly chi2: number;
   readonly dof: number;
@@ -63,7 +69,7 @@ function fitOnce(x: TwoLengthInput, c: number, corrScale: number, aGuess: number
     const Leff = L + corrScale * (x.effectiveLength(L) - L);
     const f = L / Leff;
     y.push(r.T0_s * r.T0_s * f);
-    uy.push(2 * r.T0_s * r.u_s * f);
+    uy.push(2 * r.T0_s * Math.hypot(r.u_s, r.u_clock_s ?? 0) * f);
   }
   // Effective variance: the reading's error moves the point along the line's slope.
   const s2 = uy.map((u) => u * u + aGuess * aGuess * ux * ux);
@@ -128,7 +134,15 @@ export function twoLengthFit(x: TwoLengthInput): TwoLengthResult | null {
     return { ua: (Math.sqrt(va) * birge) / a, uc: Math.sqrt(vc) * birge };
   };
   const px = part(() => a * ux);
-  const py = part((i) => fit.sigmaY[i]!);
+  // sigmaY = 2T·u·f with u = hypot(u_s, u_clock_s): each part's share scales it.
+  const share = (i: number, which: 'u_s' | 'u_clock_s'): number => {
+    const r = x.runs[i]!;
+    const all = Math.hypot(r.u_s, r.u_clock_s ?? 0);
+    return all > 0 ? (fit.sigmaY[i]! * (r[which] ?? 0)) / all : 0;
+  };
+  const py = part((i) => share(i, 'u_s'));
+  const pk = part((i) => share(i, 'u_clock_s'));
+  const t0_shares = x.runs.map((r, i) => ({ reading_m: r.reading_m, u_rel_g: part((j) => (j === i ? share(i, 'u_s') : 0)).ua }));
   const corrA = Math.abs(shifted.a / a - 1);
   const corrC = Math.abs(shifted.b / shifted.a - b / a);
   const g = (4 * Math.PI * Math.PI * (1 + x.air_rel) ** 2) / a;
@@ -137,15 +151,22 @@ export function twoLengthFit(x: TwoLengthInput): TwoLengthResult | null {
     { id: 'length-t0', name: 'T0 of each length (statistics, amplitude reduction)', u_rel_g: py.ua, note: `${n} lengths` },
     { id: 'length-corrections', name: 'corrections per length (finite bob, string mass)', u_rel_g: corrA, note: `${(x.correction_u_frac * 100).toFixed(0)} % of each, taken together` },
     { id: 'air', name: 'air buoyancy and added mass (same bob throughout)', u_rel_g: 2 * x.air_u_rel },
-    { id: 'clock', name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` },
+    {
+      id: 'clock',
+      name: 'device clock (each run calibrated on its own, and any common part)',
+      u_rel_g: Math.hypot(2 * x.clock_u_rel, pk.ua),
+      ...(x.clock_u_rel > 0 ? { note: `common ${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` } : {}),
+    },
   ];
   return {
     g_m_s2: g,
     g_u_m_s2: g * combineBudget(budget),
+    slope_s2_per_m: a,
     offset_m: b / a,
-    offset_u_m: Math.hypot(px.uc, py.uc, corrC),
+    offset_u_m: Math.hypot(px.uc, py.uc, pk.uc, corrC),
     budget,
     T2_corrected_s2: fit.y,
+    t0_shares,
     chi2: fit.chi2,
     dof,
   };

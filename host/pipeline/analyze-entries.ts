@@ -6,9 +6,14 @@ import { createRunPipeline, type PipelineOptions, type RunPipeline } from './run
 
 /** Analyses entries in one go. */
 export function analyzeEntries(entries: Iterable<JournalEntry>, opts: PipelineOptions = {}): AnalysisResult {
+  return runEntries(entries, opts).result;
+}
+
+/** Like analyzeEntries, with the pipeline (for the rig it used and the journal's own); `rows: false`: no swing rows. */
+export function runEntries(entries: Iterable<JournalEntry>, opts: PipelineOptions & { rows?: boolean } = {}): { pipeline: RunPipeline; result: AnalysisResult } {
   const p = createRunPipeline(opts);
   for (const e of entries) p.push(e);
-  return p.result();
+  return { pipeline: p, result: p.result({ rows: opts.rows ?? true }) };
 }
 
 /**

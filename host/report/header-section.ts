@@ -1,6 +1,6 @@
 // The report's header: what was measured, with which rig, when, and which journal file the numbers come from.
 import type { AnalysisResult } from '../analysis/result.ts';
-import type { Rig } from '../../protocol/rig.ts';
+import { isSimpleRig, type AnyRig, type Rig } from '../../protocol/rig.ts';
 import { esc } from './escape.ts';
 import { duration, sig, valueU } from './format.ts';
 import type { ReportMeta } from './report-meta.ts';
@@ -18,12 +18,23 @@ function withU(v: number, u: number, scale: number, unit: string): string {
   return `${esc(f.value)}${f.u !== null ? ` ± ${esc(f.u)}` : ''} ${esc(unit)}`;
 }
 
-/** The rig's facts as rows; optional facts appear only when the rig gives them. */
-function rigRows(rig: Rig): string[] {
+/** A reversible pendulum's own facts: its amplitudes are solved at the flag radius, which is no length of the pendulum. */
+function reversibleRows(rig: AnyRig): string[] {
+  if (isSimpleRig(rig)) return [];
   const rows = [
-    row('pendulum length', withU(rig.length_m, rig.length_u_m, 1000, 'mm')),
-    row('flag width', withU(rig.flag_width_m, rig.flag_width_u_m, 1000, 'mm')),
+    row('pendulum', `reversible, swung about pivot ${rig.pivot}`, 'pivot'),
+    row('knife-edge distance', withU(rig.edge_distance_m, rig.edge_distance_u_m, 1000, 'mm')),
+    row('pivot to centre of mass', withU(rig.cm_distance_m, rig.cm_distance_u_m, 1000, 'mm')),
+    row('flag radius', `${esc(mm(rig.flag_radius_m))} mm`, 'flag_radius'),
   ];
+  if (rig.mass_position_m !== undefined) rows.push(row('mass position', `${esc(mm(rig.mass_position_m))} mm`));
+  return rows;
+}
+
+/** The rig's facts as rows; optional facts appear only when the rig gives them. */
+function rigRows(rig: Rig, fileRig: AnyRig | null | undefined): string[] {
+  const own = fileRig ? reversibleRows(fileRig) : [];
+  const rows = [...(own.length ? own : [row('pendulum length', withU(rig.length_m, rig.length_u_m, 1000, 'mm'))]), row('flag width', withU(rig.flag_width_m, rig.flag_width_u_m, 1000, 'mm'))];
   if (rig.bob_diameter_m !== undefined) rows.push(row('bob diameter', `${esc(mm(rig.bob_diameter_m))} mm`));
   if (rig.bob_mass_kg !== undefined) rows.push(row('bob mass', `${esc(sig(rig.bob_mass_kg * 1000, 4))} g`));
   if (rig.string_mass_kg !== undefined) rows.push(row('string mass', `${esc(sig(rig.string_mass_kg * 1000, 3))} g`));
@@ -59,7 +70,7 @@ export function headerSection(r: AnalysisResult, meta: ReportMeta): string {
     row('SHA-256', `<code class="hash" data-key="sha256">${esc(meta.journalSha256)}</code>`),
   ];
   const rig = meta.rig
-    ? `<dl class="facts">${rigRows(meta.rig).join('')}</dl>`
+    ? `<dl class="facts">${rigRows(meta.rig, meta.fileRig).join('')}</dl>`
     : '<p class="muted">No rig description: lengths, amplitudes and g need one (pass <code>--rig FILE</code> or record with it).</p>';
   return (
     `<header class="top"><p class="kicker">halfswing · pendulum run report</p>` +

@@ -1,5 +1,6 @@
 // The HTML run report: one self-contained XHTML-compatible page (inline CSS and SVG, no script, no network)
 // drawn from the same AnalysisResult that `analyze --json` prints.
+import { isSimpleRig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import { periodRatio } from '../analysis/elliptic.ts';
 import { esc } from './escape.ts';
@@ -65,7 +66,7 @@ export function renderReport(result: AnalysisResult, meta: ReportMeta): string {
     [
       headerSection(result, meta),
       resultBox(result),
-      missingSection(result, meta.rig !== null),
+      missingSection(result, meta.rig !== null, meta.fileRig && !isSimpleRig(meta.fileRig) ? meta.fileRig.pivot : null),
       notesSection(result, meta.rig, periodRatio),
       detailsTable(result),
       plotsSection(result),

@@ -127,10 +127,12 @@ function roomRows(r: AnalysisResult): [string, string, string][] {
 }
 
 /** What could not be computed and what the run or the rig file would need; empty when nothing is missing. */
-export function missingSection(r: AnalysisResult, hasRig: boolean): string {
+export function missingSection(r: AnalysisResult, hasRig: boolean, reversiblePivot: 1 | 2 | null = null): string {
   const items: string[] = [];
   if (r.T0_s === null) items.push(`T0: needs full periods from every second pass; this journal gave ${r.passes} valid passes and ${r.periods} periods.`);
-  if (r.g_m_s2 === null) items.push(hasRig ? 'g: needs T0 first.' : 'g: needs T0 and a rig description with the pendulum length.');
+  if (r.g_m_s2 === null && reversiblePivot !== null && r.T0_s !== null)
+    items.push(`g: a reversible pendulum needs both knife edges: time it about pivot ${reversiblePivot === 1 ? 2 : 1} too, then run halfswing combine on both journals.`);
+  else if (r.g_m_s2 === null) items.push(hasRig ? 'g: needs T0 first.' : 'g: needs T0 and a rig description with the pendulum length.');
   if (r.B === null) items.push('B and C: the fit of period against amplitude needs periods over a range of amplitudes (a decay of several degrees).');
   if (r.damping_model === null) items.push('Damping and Q: need amplitudes over enough swings to see them decay.');
   if (r.gate_offset_m === null) items.push('Gate offset: needs consecutive half-periods and an amplitude.');

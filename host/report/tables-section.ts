@@ -14,7 +14,7 @@ function bar(share: number): string {
 }
 
 /** The GUM-style table: each input's contribution to u(g)/g and its share of the combined variance. */
-export function budgetTable(r: AnalysisResult): string {
+export function budgetTable(r: Pick<AnalysisResult, 'budget' | 'g_m_s2' | 'g_u_m_s2'>): string {
   if (r.budget.length === 0) return `<section id="budget"><h2>Uncertainty budget</h2><p class="muted">No budget: g was not computed.</p></section>`;
   const sumSq = r.budget.reduce((a, b) => a + b.u_rel_g ** 2, 0);
   const rows = [...r.budget]

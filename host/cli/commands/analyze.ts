@@ -89,7 +89,7 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
       const csvName = csvPath !== undefined ? csvLinkFrom(resolve(io.cwd, reportPath), resolve(io.cwd, csvPath)) : null;
       // Loaded only when asked for: the report's code is a third of what `analyze --json` would otherwise load.
       const { renderReport } = await import('../../report/index.ts');
-      files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, { journalName: name, journalSha256, rig: pipeline.rig(), csvName })] });
+      files.push({ path: resolve(io.cwd, reportPath), chunks: [renderReport(result, { journalName: name, journalSha256, rig: pipeline.rig(), fileRig, csvName })] });
     }
     await writeWhole(files);
     // Beside the summary only: --json is read by programs, and its budget rows carry the assumed values.
