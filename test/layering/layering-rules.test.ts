@@ -1,8 +1,7 @@
 // The layering rule (DEVELOPERS.md "Pure core, thin shell"): protocol/ and host/analysis/ import no I/O, no clock
-// and no terminal; nothing in host/ or sim/ imports a test oracle; and no function of host/analysis or
-// host/pipeline grows past ~80 lines.
+// and no terminal; nothing in host/ or sim/ imports a test oracle. (Function lengths: test/docs/function-length.test.ts.)
 import { describe, expect, it } from 'vitest';
-import { codeOnly, importsOf, longFunctions, sourceFiles } from './source-files.ts';
+import { codeOnly, importsOf, sourceFiles } from './source-files.ts';
 
 /** Packages the pure core may use: computation only. */
 const PURE_PACKAGES = new Set(['zod']);
@@ -56,20 +55,5 @@ describe('layering', () => {
     for (const folder of ['host', 'sim'])
       for (const f of sourceFiles(folder)) for (const spec of importsOf(f.path, f.text)) if (spec.startsWith('.') && resolved(f.path, spec).startsWith('test/')) out.push(`${f.path} imports ${spec}`);
     expect(out).toEqual([]);
-  });
-});
-
-/**
- * Functions still over the limit, to be split (each is one long loop or closure today). The list may only shrink:
- * a new long function fails, and so does one of these once it is split (then remove it here).
- */
-const NOT_YET_SPLIT = ['host/pipeline/pass-sequencing.ts sequencePasses'];
-
-describe('function length', () => {
-  it('no function of host/analysis or host/pipeline is longer than 80 lines (apart from the listed ones)', () => {
-    const long = ['host/analysis', 'host/pipeline'].flatMap((d) => sourceFiles(d).flatMap((f) => longFunctions(f.path, f.text, 80)));
-    const names = long.map((l) => l.replace(/:\d+ (\S+) .*/, ' $1'));
-    expect(names.filter((n) => !NOT_YET_SPLIT.includes(n))).toEqual([]);
-    expect(NOT_YET_SPLIT.filter((n) => !names.includes(n))).toEqual([]);
   });
 });

@@ -45,20 +45,3 @@ export function codeOnly(text: string): string {
   }
   return out;
 }
-
-/** Functions (declarations, expressions, arrows, methods) longer than `maxLines`, as `path:line name (n lines)`. */
-export function longFunctions(path: string, text: string, maxLines: number): string[] {
-  const sf = ts.createSourceFile(path, text, ts.ScriptTarget.Latest, true);
-  const out: string[] = [];
-  const visit = (n: ts.Node): void => {
-    if (ts.isFunctionDeclaration(n) || ts.isFunctionExpression(n) || ts.isArrowFunction(n) || ts.isMethodDeclaration(n)) {
-      const a = sf.getLineAndCharacterOfPosition(n.getStart(sf)).line;
-      const b = sf.getLineAndCharacterOfPosition(n.getEnd()).line;
-      const name = n.name && ts.isIdentifier(n.name) ? n.name.text : ts.isVariableDeclaration(n.parent) && ts.isIdentifier(n.parent.name) ? n.parent.name.text : '(anonymous)';
-      if (b - a + 1 > maxLines) out.push(`${path}:${a + 1} ${name} (${b - a + 1} lines)`);
-    }
-    ts.forEachChild(n, visit);
-  };
-  visit(sf);
-  return out;
-}
