@@ -8,10 +8,11 @@ import { sensitivityAtMedian } from './stages/amplitudes.ts';
 import { uncertaintyBudget } from './stages/budget.ts';
 import { correctT0, expectedGravity } from './stages/corrections.ts';
 import { decayOf } from './stages/decay.ts';
+import { derivedUncertainty } from './stages/derived-uncertainty.ts';
+import { delayWarnings, reduceWithDelay } from './stages/gate-delay.ts';
 import { environmentOf } from './stages/environment.ts';
 import { findPeriods } from './stages/periods.ts';
 import { plotSeries } from './stages/plots.ts';
-import { reduceToZeroAmplitude } from './stages/reduction.ts';
 import { roomAtTimes } from './room-at-pass.ts';
 import { assembleResult } from './stages/result.ts';
 import { swingRows } from './stages/swing-rows.ts';
@@ -24,7 +25,9 @@ export type { ClockApplied, RunData, SequencedPasses } from './passes.ts';
 export function analyzeRun(d: RunData): AnalysisResult {
   const { rig, passes, clock } = d;
   const periods = findPeriods(passes);
-  const reduction = reduceToZeroAmplitude(passes, periods, rig);
+  // The sensor's on/off delay difference: assumed 0 ± u (common practice, no source), then calibrated from the run.
+  const prior = { s: 0, u: d.delayDifferenceU_s ?? 5e-6 };
+  const { reduction, delay } = reduceWithDelay(passes, periods, rig, prior);
   const { T0, line } = lineT0(passes, periods, reduction, rig);
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
   // The damping comes before the corrections: its Q sizes the damping correction of T0.
@@ -35,13 +38,16 @@ export function analyzeRun(d: RunData): AnalysisResult {
       ? gateOffset({ index: passes.index, segment: passes.segment, t: passes.td, tPlot: passes.t, amplitude: reduction.amp.map((v, c) => (periods.slow[c] ? NaN : v)) }, omega0, rig.flag_width_m, rig.length_m)
       : null;
   const corrected = correctT0(rig, T0, decay.damping ? decay.damping.Q : null);
-  const budget = uncertaintyBudget({ rig, passes, periods, reduction, line, T0, corrected, clock, delayU_s: d.delayDifferenceU_s ?? 5e-6 });
-  const warnings = [...d.warnings, ...analysisWarnings({ rig, passes, periods, reduction, T0, decay, law, gate, corrected, budget, clock })];
+  const budget = uncertaintyBudget({ rig, passes, periods, reduction, line, T0, corrected, clock, delay: delay ?? { difference_s: prior.s, difference_u_s: prior.u, statistical_u_s: prior.u, width_shift_s: 0, source: 'prior' } });
+  const derivedU = derivedUncertainty({ rig, passes, periods, reduction, decay, law, gate, delay, T0 });
+  const warnings = [...d.warnings, ...analysisWarnings({ rig, passes, periods, reduction, T0, decay, law, gate, corrected, budget, clock }), ...delayWarnings(delay)];
   return assembleResult(d, {
     periods,
     decay,
     law,
     gate,
+    delay,
+    derivedU,
     corrected,
     budget,
     expected: expectedGravity(rig),

@@ -1,7 +1,9 @@
 // The analysis result: what `analyze --json` prints, what the report draws and what the live view shows.
 // SI units throughout; every `_u` is a standard uncertainty (k = 1).
 import type { RejectReason } from '../../protocol/records.ts';
+import type { GateDelay } from './delay-fit.ts';
 import type { PlaneSummary } from './plane-rate.ts';
+import type { DerivedU } from './stages/derived-uncertainty.ts';
 
 /** Fault and health counts of a run. */
 export interface RunCounts {
@@ -175,6 +177,18 @@ export interface AnalysisResult {
   readonly C_u: number | null;
   readonly amplitude_start_deg: number | null;
   readonly amplitude_end_deg: number | null;
+  /** Standard uncertainties of the first and last pass's amplitude and of the median: scatter, flag width, delay difference. */
+  readonly amplitude_start_u_deg?: number | null;
+  readonly amplitude_end_u_deg?: number | null;
+  readonly median_amplitude_u_deg?: number | null;
+  /**
+   * The sensor's on/off delay difference (blocking − unblocking, s) the amplitudes are solved with: fitted from the
+   * misfit of the periods against the exact law, the assumed value as a prior (`source` 'prior' when the run's
+   * amplitude range is too narrow to pin it). Null without a rig.
+   */
+  readonly gate_delay?: GateDelay | null;
+  /** The parts of the standard uncertainties of B, C, the amplitudes, Q and the gate offset (`u` is the figure's `_u`). */
+  readonly derived_u?: DerivedU | null;
   readonly Q: number | null;
   readonly damping_model: DampingFit['model'] | null;
   readonly damping_fits: readonly DampingFit[];

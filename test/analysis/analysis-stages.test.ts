@@ -152,7 +152,7 @@ describe('corrections and budget stages', () => {
     const reduction = reduceToZeroAmplitude(passes, periods, RIG);
     const { T0, line } = lineT0(passes, periods, reduction, RIG);
     const corrected = correctT0(RIG, T0, null);
-    const b = uncertaintyBudget({ rig: RIG, passes, periods, reduction, line, T0, corrected, clock, delayU_s: 5e-6 });
+    const b = uncertaintyBudget({ rig: RIG, passes, periods, reduction, line, T0, corrected, clock, delay: { difference_s: 0, difference_u_s: 5e-6, statistical_u_s: 5e-6, width_shift_s: 0, source: 'prior' } });
     const ids = b.rows.map((r) => r.id);
     expect(ids.slice(0, 5)).toEqual(['length', 'statistics', 'clock', 'flag-width', 'delay-difference']);
     expect(new Set(ids).size).toBe(ids.length);

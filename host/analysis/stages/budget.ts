@@ -3,6 +3,7 @@
 import type { Rig } from '../../../protocol/rig.ts';
 import { maskedMean, reducePeriods } from '../period-law.ts';
 import type { ClockApplied, SequencedPasses } from '../passes.ts';
+import type { GateDelay } from '../delay-fit.ts';
 import type { BudgetLine, CorrectionLine } from '../result.ts';
 import { batchMeansStdError } from '../stats.ts';
 import type { T0Line } from '../t0-line-fit.ts';
@@ -34,8 +35,11 @@ export interface BudgetInput {
   readonly T0: number | null;
   readonly corrected: Corrected;
   readonly clock: ClockApplied;
-  /** Standard uncertainty of the sensor's on/off delay difference, s. */
-  readonly delayU_s: number;
+  /**
+   * The sensor's on/off delay difference the amplitudes were solved with (s), where it came from, its statistical
+   * uncertainty and its shift with the flag width (the flag-width row moves both).
+   */
+  readonly delay: Pick<GateDelay, 'difference_s' | 'difference_u_s' | 'statistical_u_s' | 'width_shift_s' | 'source'>;
 }
 
 /**
@@ -75,8 +79,9 @@ export function uncertaintyBudget(b: BudgetInput): Budget {
   const { rig, clock, corrected } = b;
   if (corrected.T0 === null) return { rows: [], T0_u: null, g_u: null, statRel: stat.rel };
   const rows: BudgetLine[] = [];
-  const uRedW = rig ? reductionShift(b, blockHalfAngle(rig.flag_width_m + rig.flag_width_u_m, rig.length_m), 0) : 0;
-  const uRedD = rig ? reductionShift(b, b.reduction.phiB, b.delayU_s) : 0;
+  const dl = b.delay;
+  const uRedW = rig ? reductionShift(b, blockHalfAngle(rig.flag_width_m + rig.flag_width_u_m, rig.length_m), dl.difference_s + dl.width_shift_s) : 0;
+  const uRedD = rig ? reductionShift(b, b.reduction.phiB, dl.difference_s + dl.statistical_u_s) : 0;
   const uClock = clock.u_ppm * 1e-6;
   const line = b.line;
   if (Number.isFinite(stat.rel))
@@ -91,7 +96,11 @@ export function uncertaintyBudget(b: BudgetInput): Budget {
   rows.push({ id: 'clock', name: `device clock (${clock.source})`, u_rel_g: 2 * uClock, note: `${clock.ppm.toFixed(2)} ± ${clock.u_ppm.toPrecision(2)} ppm` });
   if (rig) {
     rows.push({ id: 'flag-width', name: 'flag width (amplitude reduction)', u_rel_g: 2 * uRedW, note: `w = ${(rig.flag_width_m * 1000).toFixed(2)} ± ${(rig.flag_width_u_m * 1000).toFixed(2)} mm` });
-    rows.push({ id: 'delay-difference', name: 'sensor on/off delay difference (amplitude reduction)', u_rel_g: 2 * uRedD, note: `assumed ±${(b.delayU_s * 1e6).toFixed(0)} µs (common practice, no source)` });
+    rows.push({ id: 'delay-difference', name: 'sensor on/off delay difference (amplitude reduction)', u_rel_g: 2 * uRedD, note:
+        dl.source === 'run'
+          ? `fitted from the run: ${(dl.difference_s * 1e6).toFixed(2)} ± ${(dl.difference_u_s * 1e6).toPrecision(2)} µs`
+          : `assumed ${(dl.difference_s * 1e6).toFixed(1)} ± ${(dl.difference_u_s * 1e6).toPrecision(2)} µs (common practice, no source)`,
+    });
   }
   const T0_u = corrected.T0 * Math.hypot(Number.isFinite(stat.rel) ? stat.rel : 0, uClock, uRedW, uRedD);
   const model = corrected.model;

@@ -48,8 +48,8 @@ function subsampleFixedPoint(p: SequencedPasses, per: Periods, solve: (t0: numbe
   return T0;
 }
 
-/** The reduction stage: amplitudes of every pass, reduced periods and their mean. */
-export function reduceToZeroAmplitude(p: SequencedPasses, per: Periods, rig: Rig | null): Reduction {
+/** The reduction stage: amplitudes of every pass (solved from transit + `delta`, the on/off delay difference), reduced periods and their mean. */
+export function reduceToZeroAmplitude(p: SequencedPasses, per: Periods, rig: Rig | null, delta = 0): Reduction {
   const n = p.t.length;
   const amp = new Float64Array(n).fill(NaN);
   const pAmp = new Float64Array(per.ends.length).fill(NaN);
@@ -59,7 +59,7 @@ export function reduceToZeroAmplitude(p: SequencedPasses, per: Periods, rig: Rig
     const cm = clipMask(per.P);
     return { T0mean: maskedMean(per.P, cm.keep), amp, pAmp, P0: per.P, keep: cm.keep, clipped: cm.clipped, phiB };
   }
-  const solve = (t0: number): ((c: number) => number) => transitSolver(p.transit, phiB, (2 * Math.PI) / t0);
+  const solve = (t0: number): ((c: number) => number) => transitSolver(p.transit, phiB, (2 * Math.PI) / t0, delta);
   let T0 = subsampleFixedPoint(p, per, solve, amp, pAmp, median(everyKth(per.P, 4000)));
   // Then every amplitude, repeated on all periods only while T0 still moves: a relative change ε of ω0 moves the
   // amplitudes by ~ε and T0 back by ~ε·θ²/8, so stop when that is < 1e-10.
