@@ -63,6 +63,11 @@ export function fitDelayDifference(P: ArrayLike<number>, theta: ArrayLike<number
     if (Number.isFinite(x) && Number.isFinite(y)) xs.push(x), ys.push(y);
   }
   if (xs.length < 40) return null;
+  // A nearly constant amplitude leaves Δ and T0 degenerate (an exact run would still give a tiny u): no fit below a 2 % range.
+  let lo = Infinity;
+  let hi = 0;
+  for (let k = 0; k < P.length; k++) if (keep[k] && Number.isFinite(theta[k]!)) (lo = Math.min(lo, theta[k]!)), (hi = Math.max(hi, theta[k]!));
+  if (!(hi - lo > 0.02 * hi)) return null;
   // 10 to 40 batches: enough degrees of freedom for the residuals, long enough to hold the correlations.
   const nb = Math.max(10, Math.min(40, Math.floor(xs.length / 20)));
   const bx: number[] = [];
