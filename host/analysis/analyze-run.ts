@@ -10,7 +10,7 @@ import { correctT0, expectedGravity } from './stages/corrections.ts';
 import { decayOf } from './stages/decay.ts';
 import { derivedUncertainty } from './stages/derived-uncertainty.ts';
 import { delayWarnings, reduceWithDelay } from './stages/gate-delay.ts';
-import { environmentOf } from './stages/environment.ts';
+import { roomStage } from './stages/environment.ts';
 import { findPeriods } from './stages/periods.ts';
 import { plotSeries } from './stages/plots.ts';
 import { roomAtTimes } from './room-at-pass.ts';
@@ -28,7 +28,9 @@ export function analyzeRun(d: RunData): AnalysisResult {
   // The sensor's on/off delay difference: assumed 0 ± u (common practice, no source), then calibrated from the run.
   const prior = { s: 0, u: d.delayDifferenceU_s ?? 5e-6 };
   const { reduction, delay } = reduceWithDelay(passes, periods, rig, prior);
-  const { T0, line } = lineT0(passes, periods, reduction, rig);
+  // With room readings: T0 at the reference temperature, the length and air density there (stages/environment.ts).
+  const room = roomStage(d.room, passes, periods, reduction, rig, prior.u);
+  const { T0, line } = room.t0 ?? lineT0(passes, periods, reduction, rig);
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
   // The damping comes before the corrections: its Q sizes the damping correction of T0.
   const decay = decayOf(passes, reduction.amp, T0);
@@ -37,8 +39,8 @@ export function analyzeRun(d: RunData): AnalysisResult {
     rig && T0 !== null
       ? gateOffset({ index: passes.index, segment: passes.segment, t: passes.td, tPlot: passes.t, amplitude: reduction.amp.map((v, c) => (periods.slow[c] ? NaN : v)) }, omega0, rig.flag_width_m, rig.length_m)
       : null;
-  const corrected = correctT0(rig, T0, decay.damping ? decay.damping.Q : null);
-  const budget = uncertaintyBudget({ rig, passes, periods, reduction, line, T0, corrected, clock, delay: delay ?? { difference_s: prior.s, difference_u_s: prior.u, statistical_u_s: prior.u, width_shift_s: 0, source: 'prior' } });
+  const corrected = correctT0(room.rig, T0, decay.damping ? decay.damping.Q : null);
+  const budget = uncertaintyBudget({ rig: room.rig, room, passes, periods, reduction, line, T0, corrected, clock, delay: delay ?? { difference_s: prior.s, difference_u_s: prior.u, statistical_u_s: prior.u, width_shift_s: 0, source: 'prior' } });
   const derivedU = derivedUncertainty({ rig, passes, periods, reduction, decay, law, gate, delay, T0 });
   const warnings = [...d.warnings, ...analysisWarnings({ rig, passes, periods, reduction, T0, decay, law, gate, corrected, budget, clock }), ...delayWarnings(delay)];
   return assembleResult(d, {
@@ -54,7 +56,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     sensitivity: sensitivityAtMedian(passes.transit, reduction.amp, decay.median, rig, omega0),
     warnings,
     swings: d.rows === false ? [] : swingRows(passes, periods, reduction, rig !== null, d.plane, d.room?.length ? roomAtTimes(d.room, passes.t) : null),
-    environment: environmentOf(d.room, passes, periods, reduction, rig),
+    environment: room.environment,
     plots: plotSeries(passes, periods, reduction, decay, gate, clock, T0, { g: corrected.g, g_u: budget.g_u, statRel: budget.statRel, T0mean: reduction.T0mean }, d.plane, d.room),
   });
 }

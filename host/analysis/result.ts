@@ -48,6 +48,8 @@ export type BudgetId =
   | 'clock'
   | 'flag-width'
   | 'delay-difference'
+  | 'room-T0'
+  | 'room-length'
   | CorrectionId
   | 'knife-edge-distance'
   | 'centre-of-mass-distances'

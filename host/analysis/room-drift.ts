@@ -22,17 +22,19 @@ export interface PeriodPoint {
   /** The period reduced to zero amplitude. */
   readonly T0_s: number;
   /**
-   * The amplitude the reduction used (rad), from the transit time with a fixed length. The length that
-   * follows the temperature changes that amplitude (θ ∝ 1/√L), and so the reduction: T0 reads low by
-   * (θ²/16)·α·ΔT, up to θ²/8 of α (0.14 % at 6°); given, the fit counts it in the uncertainty.
+   * The amplitude the period was reduced with (rad). Given, θ² is a regressor beside the temperature: an error of
+   * the reduction grows with θ² (a flag width off by δw moves T0 by (θ²/8)·δw/w), and the amplitude decays through
+   * the run, so without it such an error would pass into α through the decay's overlap with the temperature cycle.
    */
   readonly amplitude_rad?: number;
 }
 
 export interface LengthDriftFit {
-  /** α of the effective length (1/K) and its standard uncertainty: statistics (autocorrelation included), the air correction, the amplitude reduction. */
+  /** α of the effective length (1/K) and its standard uncertainty: statistics (autocorrelation included) and the air correction. */
   readonly alpha_per_K: number;
   readonly alpha_u_per_K: number;
+  /** The air correction's share of that uncertainty (1/K). */
+  readonly alpha_u_air_per_K: number;
   /** The mean of the readings' temperatures, at which T0_ref holds. */
   readonly reference_temperature_C: number;
   /** T0 at the reference temperature, air factor at the mean conditions included. */
@@ -103,28 +105,28 @@ export function fitLengthDrift(
     raw.push(p.T0_s);
     y.push(p.T0_s / air);
   }
-  const line = (ys: readonly number[]) => linearFit(ys.length, (i) => ys[i]!, [() => 1, (i) => x[i]!]);
+  const withAmp = periods.every((p) => p.amplitude_rad !== undefined);
+  const th2 = withAmp ? periods.reduce((s, p) => s + p.amplitude_rad! ** 2, 0) / periods.length : 0;
+  const basis = [() => 1, (i: number) => x[i]!, ...(withAmp ? [(i: number) => periods[i]!.amplitude_rad! ** 2 - th2] : [])];
+  const line = (ys: readonly number[]) => linearFit(ys.length, (i) => ys[i]!, basis);
   const fit = line(y);
   if (!fit || !(fit.cov[1]![1]! > 0)) return null;
   const [a, b] = fit.params as [number, number];
   const alpha = (2 * b) / a;
-  const resid = y.map((v, i) => v - a - b * x[i]!);
+  const c2 = withAmp ? fit.params[2]! : 0;
+  const resid = y.map((v, i) => v - a - b * x[i]! - (withAmp ? c2 * (periods[i]!.amplitude_rad! ** 2 - th2) : 0));
   const rho = lag1(resid);
   // Correlated residuals carry less information than their number says: inflate by √((1 + ρ)/(1 − ρ)).
   const inflate = Math.sqrt((1 + rho) / (1 - rho));
   const ua = Math.sqrt(fit.cov[0]![0]!) * inflate;
   const uStat = ((2 * Math.sqrt(fit.cov[1]![1]!)) / a) * inflate;
-  // Systematic terms. The air correction's share of α, known to airRelU (bob density and k; 10 %, common
-  // practice, no source). The amplitude reduction used a fixed length: θ from the transit moves with L, and
-  // so the reduced T0 by (θ²/16)·α·ΔT, up to θ²/8 of α (not corrected: its sign depends on how the amplitude
-  // was derived).
+  // The air correction's share of α, known to airRelU (bob density and k; 10 %, common practice, no source).
   const plain = opts.bobDensity ? line(raw) : null;
   const uAir = plain ? Math.abs(alpha - (2 * plain.params[1]!) / plain.params[0]!) * (opts.airRelU ?? 0.1) : 0;
-  const theta2 = periods.reduce((s, p) => s + (p.amplitude_rad ?? 0) ** 2, 0) / periods.length;
-  const uAmp = (theta2 / 8) * Math.abs(alpha);
   return {
     alpha_per_K: alpha,
-    alpha_u_per_K: Math.hypot(uStat, uAir, uAmp),
+    alpha_u_per_K: Math.hypot(uStat, uAir),
+    alpha_u_air_per_K: uAir,
     reference_temperature_C: ref,
     T0_ref_s: a,
     T0_ref_u_s: ua,
@@ -136,3 +138,32 @@ export function fitLengthDrift(
 export function lengthAt(length_m: number, measuredC: number, alphaPerK: number, toC: number): number {
   return length_m * (1 + alphaPerK * (toC - measuredC));
 }
+
+/** One block of the run: its T0 (a line through its own passes, times warped to the reference), u, and mean ΔT. */
+export interface BlockT0 {
+  readonly dT: number;
+  /** Mean θ² of the block's passes (rad²). */
+  readonly theta2: number;
+  readonly T0: number;
+  readonly u: number;
+}
+
+/**
+ * The temperature slope left in warped block T0s: T0_b = a + s·ΔT_b weighted by 1/u_b². Each block's T0 comes from
+ * a line through its pass times, whose uncertainty models white timing noise and a random walk (t0-line-fit.ts);
+ * blocks share no passes, so their errors are independent, which consecutive periods' are not (a period's error
+ * is the difference of two pass times': fitted as independent they overstate the uncertainty some fiftyfold).
+ * The slope's uncertainty is scaled up by the Birge ratio √(χ²/ν) when the blocks scatter more than they claim.
+ */
+export function fitBlocks(blocks: readonly BlockT0[]): { a: number; s: number; u_s: number; birge: number } | null {
+  if (blocks.length < 5) return null;
+  const th = blocks.reduce((s, b) => s + b.theta2, 0) / blocks.length;
+  const fit = linearFit(blocks.length, (i) => blocks[i]!.T0, [() => 1, (i) => blocks[i]!.dT, (i) => blocks[i]!.theta2 - th], (i) => 1 / blocks[i]!.u ** 2);
+  if (!fit || !(fit.cov[1]![1]! > 0)) return null;
+  const [a, s] = fit.params as [number, number];
+  // linearFit scales the covariance by χ²/ν both ways; the blocks' own u are kept as a floor.
+  const birge = Math.sqrt(fit.chi2 / fit.dof);
+  if (!(birge > 0)) return null;
+  return { a, s, u_s: (Math.sqrt(fit.cov[1]![1]!) / birge) * Math.max(1, birge), birge };
+}
+

@@ -40,6 +40,8 @@ export interface BudgetInput {
    * uncertainty and its shift with the flag width (the flag-width row moves both).
    */
   readonly delay: Pick<GateDelay, 'difference_s' | 'difference_u_s' | 'statistical_u_s' | 'width_shift_s' | 'source'>;
+  /** The room's rows (stages/environment.ts) and T0's relative uncertainty from carrying it to the reference temperature. */
+  readonly room?: { readonly rows: readonly BudgetLine[]; readonly T0_rel: number };
 }
 
 /**
@@ -102,10 +104,12 @@ export function uncertaintyBudget(b: BudgetInput): Budget {
           : `assumed ${(dl.difference_s * 1e6).toFixed(1)} ± ${(dl.difference_u_s * 1e6).toPrecision(2)} µs (common practice, no source)`,
     });
   }
-  const T0_u = corrected.T0 * Math.hypot(Number.isFinite(stat.rel) ? stat.rel : 0, uClock, uRedW, uRedD);
+  rows.push(...(b.room?.rows.filter((r) => r.id === 'room-T0') ?? []));
+  const T0_u = corrected.T0 * Math.hypot(Number.isFinite(stat.rel) ? stat.rel : 0, uClock, uRedW, uRedD, b.room?.T0_rel ?? 0);
   const model = corrected.model;
   if (!rig || !model || corrected.g === null) return { rows, T0_u, g_u: null, statRel: stat.rel };
   rows.unshift({ id: 'length', name: 'length L (pivot to bob centre)', u_rel_g: rig.length_u_m / model.L_eff_m, note: `L = ${rig.length_m} ± ${rig.length_u_m} m` });
+  rows.push(...(b.room?.rows.filter((r) => r.id === 'room-length') ?? []));
   for (const l of model.lines) if (l.period_rel !== 0) rows.push(correctionRow(l));
   return { rows, T0_u, g_u: corrected.g * combineBudget(rows), statRel: stat.rel };
 }

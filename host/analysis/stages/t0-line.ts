@@ -17,14 +17,17 @@ export interface T0Estimate {
  * running g. The fixed point of the reduction used the mean; the two differ by far less than the amplitude's
  * sensitivity to ω0 could feel. Slow passes (see periods.ts) are left out.
  */
-export function lineT0(p: SequencedPasses, per: Periods, red: Reduction, rig: Rig | null): T0Estimate {
+export function lineT0(p: SequencedPasses, per: Periods, red: Reduction, rig: Rig | null, range?: readonly [number, number]): T0Estimate {
   if (red.T0mean === null) return { T0: null, line: null };
-  const n = p.t.length;
+  // A range of passes (a block of the run, stages/environment.ts) is fitted on its own.
+  const [lo, hi] = range ?? [0, p.t.length];
+  const cut = (a: ArrayLike<number>): ArrayLike<number> => (range ? Array.from({ length: hi - lo }, (_, i) => a[lo + i]!) : a);
+  const n = hi - lo;
   const use = new Uint8Array(n);
-  for (let c = 0; c < n; c++) use[c] = p.index[c]! >= 0 && !per.slow[c] ? 1 : 0;
+  for (let c = 0; c < n; c++) use[c] = p.index[lo + c]! >= 0 && !per.slow[lo + c] ? 1 : 0;
   const omega0m = (2 * Math.PI) / red.T0mean;
   const line = fitT0Line(
-    { index: p.index, segment: p.segment, t: p.td, amplitude: rig ? red.amp : new Float64Array(n), use },
+    { index: cut(p.index), segment: cut(p.segment), t: cut(p.td), amplitude: rig ? cut(red.amp) : new Float64Array(n), use },
     rig ? (th: number) => midShiftPerMetre(th, omega0m, rig.flag_width_m, rig.length_m) : null,
   );
   return { T0: line && Number.isFinite(line.T0) ? line.T0 : red.T0mean, line };
