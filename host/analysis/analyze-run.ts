@@ -1,6 +1,7 @@
 // The analysis as a composition of pure stages (host/analysis/stages/): passes → periods → amplitudes and the
 // reduction to zero amplitude → T0 line fit → damping → corrections → uncertainty budget → result.
 import { gateOffset } from './gate-offset.ts';
+import { gateSideOf } from './gate-side.ts';
 import type { RunData } from './passes.ts';
 import { fitPeriodLaw } from './period-law.ts';
 import type { AnalysisResult } from './result.ts';
@@ -42,7 +43,8 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const corrected = correctT0(room.rig, T0, decay.damping ? decay.damping.Q : null);
   const budget = uncertaintyBudget({ rig: room.rig, room, passes, periods, reduction, line, T0, corrected, clock, delay: delay ?? { difference_s: prior.s, difference_u_s: prior.u, statistical_u_s: prior.u, width_shift_s: 0, source: 'prior' } });
   const derivedU = derivedUncertainty({ rig, passes, periods, reduction, decay, law, gate, delay, T0 });
-  const warnings = [...d.warnings, ...analysisWarnings({ rig, passes, periods, reduction, T0, decay, law, gate, corrected, budget, clock }), ...delayWarnings(delay)];
+  const gateSide = gate ? gateSideOf(d.quietBeforeFirstPass_s, passes) : null;
+  const warnings = [...d.warnings, ...analysisWarnings({ rig, passes, periods, reduction, T0, decay, law, gate, gateSide, corrected, budget, clock }), ...delayWarnings(delay)];
   return assembleResult(d, {
     periods,
     decay,
@@ -50,6 +52,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
     gate,
     delay,
     derivedU,
+    gateSide,
     corrected,
     budget,
     expected: expectedGravity(rig),

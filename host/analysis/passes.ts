@@ -1,4 +1,5 @@
 // What the analysis receives: passes after sequencing, each with a named status, and the clock that timed them.
+import type { Warning } from './warning.ts';
 import type { RoomReading } from './room-drift.ts';
 import type { RunPlane } from './plane-of-run.ts';
 import type { Rig } from '../../protocol/rig.ts';
@@ -64,7 +65,12 @@ export interface RunData {
   readonly clock: ClockApplied;
   readonly counts: RunCounts;
   readonly run: AnalysisResult['run'];
-  readonly warnings: readonly string[];
+  readonly warnings: readonly Warning[];
+  /**
+   * Seconds the device was seen watching the beam, with no edge, before the first pass (from its hello), or null:
+   * longer than a half-period means the bob was at rest, so the first pass followed the release (gate side known).
+   */
+  readonly quietBeforeFirstPass_s?: number | null;
   readonly settings: AnalysisResult['settings'];
   readonly lineRejections?: AnalysisResult['line_rejections'];
   /** Standard uncertainty of the sensor's blocking − unblocking delay difference, s (default 5 µs). */

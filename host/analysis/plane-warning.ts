@@ -1,8 +1,6 @@
 // How much a one-beam run could be biased by the swing plane turning, and what fixes it.
 import { EARTH_RATE_DEG_PER_H } from './plane-rate.ts';
-
-/** Amplitude bias (fraction low) from which a one-beam run is warned. */
-export const PLANE_BIAS_WARN = 0.005;
+import { WARN } from './warning.ts';
 
 export interface OneBeamPlaneRisk {
   /** Turn of the plane over the run from the Earth alone (°), at the rig's latitude or, without one, at a pole. */
@@ -15,21 +13,11 @@ export interface OneBeamPlaneRisk {
 /**
  * The Earth alone turns a swing on a support that is the same in every direction by 15.04°·sin(latitude) an hour;
  * one beam then reads the amplitude low by cos ψ (docs/two-beam-geometry.md). An anisotropic support can turn it
- * more (or hold it). Null when the bias stays under PLANE_BIAS_WARN.
+ * more (or hold it). Null when the bias stays under WARN.planeBias (its words: host/output/warning-words.ts).
  */
 export function oneBeamPlaneRisk(durationS: number, latitudeDeg?: number): OneBeamPlaneRisk | null {
   const s = latitudeDeg === undefined ? 1 : Math.abs(Math.sin((latitudeDeg * Math.PI) / 180));
   const turn = ((EARTH_RATE_DEG_PER_H * s * durationS) / 3600) % 360;
   const low = 1 - Math.cos(Math.min(90, turn) * (Math.PI / 180));
-  return low >= PLANE_BIAS_WARN ? { turn_deg: turn, amplitude_low: low, latitude_known: latitudeDeg !== undefined } : null;
-}
-
-/** The warning's words: how large the bias could be and what fixes it. */
-export function oneBeamPlaneText(r: OneBeamPlaneRisk): string {
-  const where = r.latitude_known ? 'at the rig\'s latitude' : 'at most (the rig gives no latitude_deg)';
-  return (
-    `one beam over this run: the Earth alone can turn the swing plane ${r.turn_deg.toFixed(0)}° ${where}, so the last amplitudes may read up to ` +
-    `${(100 * r.amplitude_low).toFixed(1)} % low, which looks like damping (an uneven support can turn it faster); a second beam crossed with the first ` +
-    `(rig key "beams", channel 1 on D2; hardware-notes/crossed-gate.md) measures the plane and removes the bias`
-  );
+  return low >= WARN.planeBias ? { turn_deg: turn, amplitude_low: low, latitude_known: latitudeDeg !== undefined } : null;
 }

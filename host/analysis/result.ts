@@ -1,5 +1,6 @@
 // The analysis result: what `analyze --json` prints, what the report draws and what the live view shows.
 // SI units throughout; every `_u` is a standard uncertainty (k = 1).
+import type { GateSide, Warning } from './warning.ts';
 import type { RejectReason } from '../../protocol/records.ts';
 import type { GateDelay } from './delay-fit.ts';
 import type { PlaneSummary } from './plane-rate.ts';
@@ -173,6 +174,8 @@ export interface AnalysisResult {
   readonly clock_source: 'host' | 'pps' | 'nominal' | 'given';
   readonly gate_offset_m: number | null;
   readonly gate_offset_u_m: number | null;
+  /** 'release' when the run recorded the release, so the offset's sign is toward the release side; null when it joined mid-swing (the sign is then toward wherever the bob was before the first pass, which nobody knows). */
+  readonly gate_offset_side: GateSide;
   readonly B: number | null;
   readonly B_u: number | null;
   readonly C: number | null;
@@ -202,7 +205,8 @@ export interface AnalysisResult {
   readonly expected_g_m_s2: number | null;
   /** (g − expected) / combined standard uncertainty, when the expected g is known. */
   readonly g_diff_sigma: number | null;
-  readonly warnings: readonly string[];
+  /** Typed warnings; their words come from host/output/warning-words.ts. */
+  readonly warnings: readonly Warning[];
   /** T0 of the fit T = T0(1 + Bθ0² + Cθ0⁴), for comparison with the exact reduction. */
   readonly T0_fit_s: number | null;
   /** The simple-pendulum values B = 1/16 and C = 11/3072, for comparison. */
@@ -269,6 +273,7 @@ export const EMPTY_RESULT: AnalysisResult = {
   clock_source: 'nominal',
   gate_offset_m: null,
   gate_offset_u_m: null,
+  gate_offset_side: null,
   B: null,
   B_u: null,
   C: null,

@@ -17,6 +17,6 @@ export function reversibleRunResult(r: AnalysisResult, rig: ReversibleRig): Anal
     budget: r.budget.filter((b) => !LENGTH_ONLY.includes(b.id)),
     corrections: r.corrections.filter((c) => c.id === 'damping'),
     plots: { ...r.plots, gRunning: { t_s: [], g: [], g_u: [] } },
-    warnings: [...r.warnings, `reversible pendulum, pivot ${rig.pivot}: g needs the other pivot too: time it about pivot ${other}, then run 'halfswing combine' on both journals`],
+    warnings: [...r.warnings, { kind: 'reversible-other-pivot', pivot: rig.pivot, other }],
   };
 }

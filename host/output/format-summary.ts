@@ -1,7 +1,9 @@
 // The human summary of `halfswing analyze`: the main figures with uncertainties, the budget, counts and warnings.
 import type { AnalysisResult } from '../analysis/result.ts';
 import { duration } from '../report/format.ts';
+import { gateFigure } from './gate-words.ts';
 import { plusMinus } from './value-u.ts';
+import { warningText } from './warning-words.ts';
 
 const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
 
@@ -22,7 +24,7 @@ export function formatSummary(r: AnalysisResult, journalName: string): string {
       `  sensitivity      at ${r.amplitude_sensitivity.at_amplitude_deg.toFixed(2)}°: ${r.amplitude_sensitivity.per_width_deg_per_mm.toFixed(4)}°/mm of flag width, ${r.amplitude_sensitivity.per_delay_difference_deg_per_us.toExponential(2)}°/µs of on/off delay difference`,
     );
   L.push(`  B, C             B = ${plusMinus(r.B, r.B_u)} (1/16 = 0.0625), C = ${plusMinus(r.C, r.C_u)} (11/3072 = 0.003581)`);
-  L.push(`  gate offset      ${r.gate_offset_m === null ? '—' : plusMinus(r.gate_offset_m * 1000, r.gate_offset_u_m !== null ? r.gate_offset_u_m * 1000 : null, ' mm')} (+ toward the side the bob started on)`);
+  L.push(`  gate offset      ${gateFigure(r.gate_offset_m, r.gate_offset_u_m, r.gate_offset_side)}`);
   L.push(`  damping          ${r.damping_model ?? '—'}; Q = ${plusMinus(r.Q, r.Q_u)} at ${fix(r.median_amplitude_deg, 2, '°')}; amplitude time constant ${fix(r.damping_tau_s, 0, ' s')}`);
   if (r.budget.length) {
     L.push('  uncertainty budget (relative standard uncertainty of g):');
@@ -33,6 +35,6 @@ export function formatSummary(r: AnalysisResult, journalName: string): string {
   L.push(
     `  counts           crc errors ${c.crc_errors}, lines lost ${c.lines_lost}, device lost ${c.device_lost}, rejected passes ${c.rejected_passes}, bridged gaps ${c.bridged_gaps}, reboots ${c.reboots}, disconnects ${c.disconnects}`,
   );
-  for (const w of r.warnings) L.push(`  warning: ${w}`);
+  for (const w of r.warnings) L.push(`  warning: ${warningText(w)}`);
   return `${L.join('\n')}\n`;
 }

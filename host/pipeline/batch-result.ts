@@ -2,7 +2,8 @@
 import type { Rig } from '../../protocol/rig.ts';
 import { analyzeRun } from '../analysis/analyze-run.ts';
 import { STATUS_CODE } from '../analysis/passes.ts';
-import { oneBeamPlaneRisk, oneBeamPlaneText } from '../analysis/plane-warning.ts';
+import { oneBeamPlaneRisk } from '../analysis/plane-warning.ts';
+import type { Warning } from '../analysis/warning.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import type { ClockOption } from './clock-choice.ts';
 import type { DeviceIntake } from './device-intake.ts';
@@ -12,7 +13,7 @@ import { sequencePasses, type PassSequence, type SequencingOptions } from './pas
 export interface BatchInputs {
   readonly intake: DeviceIntake;
   readonly rig: Rig | null;
-  readonly warnings: readonly string[];
+  readonly warnings: readonly Warning[];
   readonly startIso: string | null;
   readonly source: string | null;
   readonly lastHostUs: number | null;
@@ -22,12 +23,12 @@ export interface BatchInputs {
   readonly rows: boolean;
 }
 
-/** Passes sequencing left out or split, in words. */
-function sequencingWarnings(seq: PassSequence): string[] {
-  const w: string[] = [];
-  if (seq.rejectedTransit > 0) w.push(`${seq.rejectedTransit} pass(es) rejected: transit time unlike the neighbours' (an object through the beam?)`);
-  if (seq.rejectedTiming > 0) w.push(`${seq.rejectedTiming} pass(es) rejected: off the beat of the swing (an object through the beam?)`);
-  if (seq.longGaps > 0) w.push(`${seq.longGaps} gap(s) too long to bridge: the run is analysed in ${seq.segments} segments`);
+/** Passes sequencing left out or split. */
+function sequencingWarnings(seq: PassSequence): Warning[] {
+  const w: Warning[] = [];
+  if (seq.rejectedTransit > 0) w.push({ kind: 'passes-rejected-transit', count: seq.rejectedTransit });
+  if (seq.rejectedTiming > 0) w.push({ kind: 'passes-rejected-timing', count: seq.rejectedTiming });
+  if (seq.longGaps > 0) w.push({ kind: 'long-gaps', count: seq.longGaps, segments: seq.segments });
   return w;
 }
 
@@ -36,7 +37,7 @@ export function batchResult(b: BatchInputs): AnalysisResult {
   const { intake, rig } = b;
   const tb = intake.timebase;
   const w = [...b.warnings];
-  if (intake.health.malformedLines > 0) w.push(`${intake.health.malformedLines} journal line(s) were not in journal format and were skipped`);
+  if (intake.health.malformedLines > 0) w.push({ kind: 'malformed-journal-lines', count: intake.health.malformedLines });
   const rc = intake.clockInputs.choose(b.clock, tb.count, (x) => tb.hz(x), tb.hz(0), w);
   const joined = tb.joiner(rc.k, rc.offsets);
   const cols = intake.beams.columns(0, joined, (x) => tb.hz(x) * rc.k, rig);
@@ -47,8 +48,8 @@ export function batchResult(b: BatchInputs): AnalysisResult {
   for (let i = 0; i < np; i++) if (seq.status[i] === STATUS_CODE.unsequenced) unsequenced++;
   w.push(...sequencingWarnings(seq));
   const risk = rig && !intake.beams.b && np > 1 ? oneBeamPlaneRisk(t[np - 1]! - t[0]!, rig.latitude_deg) : null;
-  if (risk) w.push(oneBeamPlaneText(risk));
-  if (unsequenced > 0) w.push(`${unsequenced} pass(es) left out: the swing no longer cleared the beam, or too few passes in a row to follow the beat`);
+  if (risk) w.push({ kind: 'one-beam-plane', ...risk });
+  if (unsequenced > 0) w.push({ kind: 'passes-unsequenced', count: unsequenced });
   return analyzeRun({
     rig,
     passes: { t, td, transit, index: seq.index, segment: seq.segment, status: seq.status, bridgedBefore: seq.bridgedBefore },
@@ -61,6 +62,7 @@ export function batchResult(b: BatchInputs): AnalysisResult {
     }),
     run: { start_iso: b.startIso, duration_s: (b.lastHostUs ?? 0) / 1e6, source: b.source, firmware: intake.hello?.fw ?? null, hz_nominal: tb.nominalHz() },
     warnings: w,
+    quietBeforeFirstPass_s: intake.quietBeforeFirstPass_s ?? null,
     lineRejections: intake.health.lineRejections(),
     room: intake.roomOn(joined),
     plane,

@@ -1,4 +1,5 @@
 // Device ticks → seconds, per boot: the boot count, the 48-bit unwrap, each boot's nominal rate and its first anchor.
+import type { Warning } from '../analysis/warning.ts';
 import type { HelloRecord } from '../../protocol/records.ts';
 
 const TWO48 = 2 ** 48;
@@ -21,13 +22,13 @@ export class BootTimebase {
   private readonly first: { hostUs: number; ticks: number }[] = [];
 
   /** Starts boot `index` with the hello's rate (or the last known one); a warning when it began without a hello. */
-  newBoot(index: number, hello: HelloRecord | null): string | null {
+  newBoot(index: number, hello: HelloRecord | null): Warning | null {
     this.boot = index;
     this.wrapBase = 0;
     this.lastRaw = -1;
     if (hello) this.hzNow = hello.hz;
     this.bootHz[index] = this.hzNow;
-    return hello || this.sawHello ? null : `boot ${index} started without a hello: assuming ${this.hzNow} ticks/s`;
+    return hello || this.sawHello ? null : { kind: 'boot-without-hello', boot: index, hz: this.hzNow };
   }
 
   /** A hello within the current boot: its rate is the boot's. */

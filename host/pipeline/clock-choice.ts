@@ -1,6 +1,7 @@
 // Picks the device clock correction for a run: a given ppm, the nominal rate, a 1 PPS input, or the host clock.
 import { clockRateFromHost, clockRateFromPps, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
 import type { ClockApplied } from '../analysis/passes.ts';
+import type { Warning } from '../analysis/warning.ts';
 
 /** What the user asked for: a mode, a rate error in ppm, or nothing (auto: PPS if present, else host if long enough). */
 export type ClockOption = 'host' | 'pps' | 'nominal' | number | undefined;
@@ -30,7 +31,7 @@ export function chooseClock(
   beats: readonly BootHeartbeats[],
   pps: readonly BootPps[],
   hz: number,
-  warnings: string[],
+  warnings: Warning[],
 ): ClockApplied {
   if (typeof option === 'number') return { source: 'given', ppm: option, u_ppm: 0, measured: false, drift_ppm_per_h: null, span_s: null, residuals: none };
   const nominal = (): ClockApplied => ({ source: 'nominal', ppm: 0, u_ppm: NOMINAL_CLOCK_U_PPM, measured: false, drift_ppm_per_h: null, span_s: null, residuals: none });
@@ -39,29 +40,25 @@ export function chooseClock(
   if (option === 'pps' || (option === undefined && pulses >= 5)) {
     const r = clockRateFromPps(pps, hz);
     if (r) return { source: 'pps', ppm: r.ppm, u_ppm: r.u_ppm, measured: true, drift_ppm_per_h: null, span_s: r.span_s, residuals: none };
-    if (option === 'pps') warnings.push(`--clock pps: no usable 1 PPS input (${pulses} pulses); using the host clock instead`);
+    if (option === 'pps') warnings.push({ kind: 'pps-unusable', pulses });
   }
   const h = clockRateFromHost(beats);
   if (h && Math.abs(h.ppm) > MAX_CLOCK_ERROR_PPM) {
     const ratio = 1 + h.ppm * 1e-6;
-    warnings.push(
-      `the device's clock ran ${ratio.toFixed(2)} times as fast as the host's, beyond any board oscillator (a simulator faster than real time, or a wrong tick rate in the hello?): times and periods are on the device clock at its nominal rate`,
-    );
+    warnings.push({ kind: 'clock-foreign-rate', ratio });
     return { ...nominal(), foreign_rate: ratio };
   }
   if (!h) {
-    warnings.push('too few heartbeats to calibrate the device clock against the host: using the nominal rate');
+    warnings.push({ kind: 'clock-too-few-heartbeats' });
     return nominal();
   }
   if (h.span_s < MIN_HOST_SPAN_S && option !== 'host') {
-    warnings.push(
-      `the run is too short (${h.span_s.toFixed(0)} s of heartbeats, under ${MIN_HOST_SPAN_S} s) to trust a host-clock calibration (it gave ${h.ppm.toFixed(1)} ± ${h.u_ppm.toFixed(1)} ppm): using the nominal rate; force it with --clock host`,
-    );
+    warnings.push({ kind: 'clock-run-too-short', span_s: h.span_s, min_span_s: MIN_HOST_SPAN_S, ppm: h.ppm, u_ppm: h.u_ppm });
     return nominal();
   }
-  if (h.span_s < MIN_HOST_SPAN_S) warnings.push(`--clock host over only ${h.span_s.toFixed(0)} s of heartbeats: the rate may be off by more than its stated uncertainty`);
+  if (h.span_s < MIN_HOST_SPAN_S) warnings.push({ kind: 'clock-forced-short', span_s: h.span_s });
   if (h.drift_ppm_per_h !== null && h.drift_u_ppm_per_h !== null && Math.abs(h.drift_ppm_per_h) > 3 * h.drift_u_ppm_per_h && Math.abs(h.drift_ppm_per_h) * (h.span_s / 3600) > 1)
-    warnings.push(`the device clock drifted ${h.drift_ppm_per_h.toFixed(2)} ppm/h during the run (temperature?); the mean rate is used`);
+    warnings.push({ kind: 'clock-drift', drift_ppm_per_h: h.drift_ppm_per_h });
   return { source: 'host', ppm: h.ppm, u_ppm: h.u_ppm, measured: true, drift_ppm_per_h: h.drift_ppm_per_h, span_s: h.span_s, residuals: h.residuals };
 }
 

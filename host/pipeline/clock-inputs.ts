@@ -1,4 +1,5 @@
 // Heartbeats and 1 PPS pulses as the clock fit reads them, and the clock chosen from them for the pass times.
+import type { Warning } from '../analysis/warning.ts';
 import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
 import type { ClockApplied } from '../analysis/passes.ts';
 import type { BootOffsets } from './boot-timebase.ts';
@@ -52,7 +53,7 @@ export class ClockInputs {
   }
 
   /** Chooses the clock as the analysis does (warnings explain fallbacks) and the boots' host offsets under it. */
-  choose(option: ClockOption, boots: number, hz: (b: number) => number, firstHz: number, warnings: string[]): RunClock {
+  choose(option: ClockOption, boots: number, hz: (b: number) => number, firstHz: number, warnings: Warning[]): RunClock {
     const { beats, pulses } = this.perBoot(boots, hz);
     const clock = chooseClock(option, beats, pulses, firstHz, warnings);
     // A foreign timebase is not joined on the host clock: each boot starts at its first line (BootTimebase.joiner).

@@ -1,5 +1,6 @@
 // `combine` over journals already in memory: each reduced by the same pipeline as `analyze` (its own #rig line),
 // then combined by host/analysis/combine.ts, reducing a journal again where the two-length fixed point asks for it.
+import { warningText } from '../output/warning-words.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { isSimpleRig, type AnyRig, type Rig } from '../../protocol/rig.ts';
 import { combineRuns, type CombineOutcome, type CombineRun } from '../analysis/combine.ts';
@@ -25,7 +26,8 @@ function reduceWith(entries: readonly JournalEntry[], rig: Rig | null): { result
 export function loadJournalEntries(file: string, entries: readonly JournalEntry[], stepU?: number): LoadedJournal | string {
   const first = reduceWith(entries, null);
   if (!first.rig) {
-    const why = first.result.warnings.find((w) => w.includes('#rig')) ?? 'the journal has no #rig line';
+    const bad = first.result.warnings.find((w) => w.kind === 'rig-line-unusable');
+    const why = bad ? warningText(bad) : 'the journal has no #rig line';
     return `${file}: no usable rig (${why}); combine takes each journal's rig from its #rig line`;
   }
   const rig = stepU !== undefined && isSimpleRig(first.rig) ? { ...first.rig, length_step_u_m: stepU } : first.rig;

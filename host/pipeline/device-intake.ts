@@ -7,6 +7,7 @@ import { BootTimebase } from './boot-timebase.ts';
 import { ClockInputs } from './clock-inputs.ts';
 import { LinkHealth } from './link-health.ts';
 import type { LiveHello } from './live-state.ts';
+import type { Warning } from '../analysis/warning.ts';
 
 /** Options of the intake. */
 export interface IntakeOptions extends EdgeThresholds {
@@ -28,12 +29,19 @@ export class DeviceIntake {
   /** Input levels bitmask and host time of the last heartbeat. */
   levels: number | null = null;
   lastBeatHostUs: number | null = null;
+  /**
+   * Seconds the device watched the beam with no edge before the first edge of the pendulum's beam (from its hello,
+   * on both clocks; null when no hello came or a line was lost or rejected before it): the gate side's evidence.
+   */
+  quietBeforeFirstPass_s: number | null | undefined;
+  private helloHostUs: number | null = null;
+  private lossSeen = false;
 
   constructor(
     private readonly opts: IntakeOptions,
     private readonly rig: () => Rig | null,
     /** The pipeline's warnings, in order of arrival: a boot without a hello adds one. */
-    private readonly warnings: string[],
+    private readonly warnings: Warning[],
   ) {
     this.beams = new Beams(opts, (b) => this.timebase.hz(b) * (1 + opts.givenPpm * 1e-6));
   }
@@ -42,9 +50,11 @@ export class DeviceIntake {
   data(hostUs: number, line: string): void {
     this.beams.ensure(this.rig());
     const rec = this.health.decode(line);
-    if (!rec) return;
+    if (!rec) return void (this.lossSeen = true);
     const tr = this.health.track(rec);
+    if (tr.gap) this.lossSeen = true;
     if (tr.newBoot) {
+      this.helloHostUs = null;
       this.beams.each((p) => p.newBoot());
       const w = this.timebase.newBoot(tr.bootIndex, rec.kind === 'H' ? rec : null);
       if (w) this.warnings.push(w);
@@ -52,6 +62,7 @@ export class DeviceIntake {
     switch (rec.kind) {
       case 'H':
         this.timebase.hello(rec.hz);
+        this.helloHostUs = hostUs;
         this.hello = { fw: rec.fw, mcu: rec.mcu, hz: rec.hz, ch: rec.ch, proto: rec.proto, boot: rec.boot.toString(16).padStart(4, '0') };
         return;
       case 'E':
@@ -77,6 +88,8 @@ export class DeviceIntake {
     const ticks = this.timebase.timed(hostUs, rec.ticks);
     const rig = this.rig();
     const boot = this.timebase.boot;
+    if (this.quietBeforeFirstPass_s === undefined && rec.ch === (rig ? rig.beams[0].channel : 0))
+      this.quietBeforeFirstPass_s = this.helloHostUs !== null && !this.lossSeen ? Math.min(ticks / this.timebase.hz(boot), (hostUs - this.helloHostUs) / 1e6) : null;
     if (this.beams.edge(rig, rec, boot, ticks, hostUs)) return;
     const ch = this.opts.ppsChannel;
     if (rec.ch === ch && rec.edge === 'r' && !rig?.beams.some((b) => b.channel === ch)) this.clockInputs.pulse(boot, ticks);

@@ -4,6 +4,7 @@
 // `result` runs the full analysis over everything pushed so far without changing the state, so calling it (or
 // `live`) at any moment never changes later numbers. `live` runs the same stages on the newest passes with the
 // clock `result` would choose at that moment (host/pipeline/live-estimator.ts says where the two may differ).
+import type { Warning } from '../analysis/warning.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 import { parseRig, swingView, type AnyRig, type Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
@@ -48,7 +49,7 @@ export interface RunPipeline {
 
 /** Creates a pipeline. */
 export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
-  const warnings: string[] = [];
+  const warnings: Warning[] = [];
   const head = { startIso: null as string | null, source: null as string | null, lastHostUs: null as number | null };
   let journalRig: { view: Rig; file: AnyRig } | null = null;
   const rigNow = (): Rig | null => opts.rig ?? journalRig?.view ?? null;
@@ -60,7 +61,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
     if (opts.rig || journalRig) return;
     const r = parseRig(json);
     if (r.ok) journalRig = { view: swingView(r.rig), file: r.rig };
-    else warnings.push(`the journal's #rig line is not usable (${r.error}); give --rig FILE`);
+    else warnings.push({ kind: 'rig-line-unusable', detail: r.error });
   };
 
   return {

@@ -21,7 +21,7 @@ export type { ReportMeta } from './report-meta.ts';
 
 function plotsSection(r: AnalysisResult): string {
   const s = r.plots;
-  const gate = r.gate_offset_m !== null ? ` The mean difference corresponds to a gate offset of ${(r.gate_offset_m * 1000).toFixed(2)} mm.` : '';
+  const gate = r.gate_offset_m !== null ? ` The mean difference corresponds to a gate offset of ${((r.gate_offset_side === 'release' ? r.gate_offset_m : Math.abs(r.gate_offset_m)) * 1000).toFixed(2)} mm${r.gate_offset_side === 'release' ? ' (+ toward the release side)' : ' (its side is not known: the recording began mid-swing)'}.` : '';
   const clock = r.clock_ppm !== null ? ` The fitted rate error is ${r.clock_ppm.toFixed(1)} ppm.` : '';
   // The log-axis option works without script: a checkbox whose :checked state swaps the two drawings by CSS.
   const toggle = `<input type="checkbox" id="amp-log-toggle" class="toggle"/><label class="toggle-l" for="amp-log-toggle">logarithmic amplitude axis</label>`;

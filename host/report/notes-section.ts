@@ -1,4 +1,5 @@
 // Safety and method notes, each shown only when the run makes it relevant (large angles, heavy bob, off-centre gate…).
+import { gateAdvice } from '../output/gate-words.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import type { Rig } from '../../protocol/rig.ts';
 import { esc } from './escape.ts';
@@ -47,7 +48,7 @@ function notesFor(r: AnalysisResult, rig: Rig | null, law: PeriodLaw): Note[] {
   if (r.gate_offset_m !== null && Math.abs(r.gate_offset_m) > OFFSET_M) {
     notes.push({
       kind: 'method',
-      text: `The beam sits ${sig(Math.abs(r.gate_offset_m) * 1000, 2)} mm ${r.gate_offset_m > 0 ? 'toward' : 'away from'} the release side of the lowest point. Full periods cancel this to first order, but half-periods and amplitudes do not: move the gate toward the bob’s rest position.`,
+      text: `The beam sits ${sig(Math.abs(r.gate_offset_m) * 1000, 2)} mm ${r.gate_offset_side === 'release' ? `${r.gate_offset_m > 0 ? 'toward' : 'away from'} the release side of` : 'from'} the lowest point. Full periods cancel this to first order, but half-periods and amplitudes do not: ${gateAdvice(r.gate_offset_m, r.gate_offset_u_m, r.gate_offset_side)}.`,
     });
   }
   if (r.clock_source === 'nominal') {

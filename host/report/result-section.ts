@@ -63,7 +63,12 @@ export function detailsTable(r: AnalysisResult): string {
   add('C (θ0⁴ coefficient)', r.C !== null ? pm(r.C, r.C_u, 'C', 'C_u') : missing, `simple pendulum: 11/3072 ≈ ${sig(r.C_theory, 4)}`);
   add('T0 of that fit', r.T0_fit_s !== null ? `${num('T0_fit_s', sig(r.T0_fit_s, 8))} s` : missing, 'its intercept; compare with T0 above');
   add('effective length L_eff', r.L_eff_m !== null ? `${num('L_eff_m', sig(r.L_eff_m, 6))} m` : missing, 'pivot to centre of oscillation, after corrections');
-  add('gate offset from the lowest point', r.gate_offset_m !== null ? `${pm(r.gate_offset_m, r.gate_offset_u_m, 'gate_offset_mm', 'gate_offset_u_mm', 1000)} mm` : missing, 'positive: toward the release side');
+  const side = r.gate_offset_side === 'release';
+  add(
+    'gate offset from the lowest point',
+    r.gate_offset_m !== null ? `${pm(side ? r.gate_offset_m : Math.abs(r.gate_offset_m), r.gate_offset_u_m, 'gate_offset_mm', 'gate_offset_u_mm', 1000)} mm` : missing,
+    side ? 'positive: toward the release side' : 'side not known: the recording began mid-swing (move the gate 1 mm either way and re-run)',
+  );
   add(
     'amplitude, first → last swing',
     r.amplitude_start_deg !== null && r.amplitude_end_deg !== null

@@ -1,4 +1,5 @@
 // The uncertainty budget, the corrections considered, the fault counts and the warnings, as tables and lists.
+import { warningText } from '../output/warning-words.ts';
 import type { AnalysisResult, RunCounts } from '../analysis/result.ts';
 import { esc } from './escape.ts';
 import { fixed, sig } from './format.ts';
@@ -76,6 +77,6 @@ export function countsSection(r: AnalysisResult): string {
 
 /** The analysis warnings, or a line saying there are none. */
 export function warningsSection(r: AnalysisResult): string {
-  const body = r.warnings.length === 0 ? '<p class="muted">No warnings.</p>' : `<ul class="warn">${r.warnings.map((w) => `<li>${esc(w)}</li>`).join('')}</ul>`;
+  const body = r.warnings.length === 0 ? '<p class="muted">No warnings.</p>' : `<ul class="warn">${r.warnings.map((w) => `<li data-kind="${esc(w.kind)}">${esc(warningText(w))}</li>`).join('')}</ul>`;
   return `<section id="warnings"><h2>Warnings</h2>${body}</section>`;
 }

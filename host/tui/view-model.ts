@@ -6,7 +6,8 @@ import { periodRatio } from '../analysis/elliptic.ts';
 import { lossRate } from '../analysis/damping.ts';
 import { expectsLines, type FeedStatus } from './feed.ts';
 import { formatBytes, formatDuration, formatFixed, formatSpeed, formatWithU } from './format.ts';
-import { gateHint, warningsFor, type ViewWarning } from './warnings.ts';
+import { gateNote } from '../output/gate-words.ts';
+import { warningsFor, type ViewWarning } from './warnings.ts';
 
 /** Everything the screen is drawn from. */
 export interface ViewInput {
@@ -211,9 +212,10 @@ function numberRows(live: ViewInput['live'], result: ViewInput['result']): Numbe
   numbers.push({ label: 'Q', value: formatWithU(result.Q, result.Q_u, 0), unit: '', note: qAt, tone: 'normal' });
   numbers.push({
     label: 'gate offset',
-    value: result.gate_offset_m !== null ? formatFixed(result.gate_offset_m * 1000, 1, true) : '—',
+    value:
+      result.gate_offset_m === null ? '—' : result.gate_offset_side === 'release' ? formatFixed(result.gate_offset_m * 1000, 1, true) : formatFixed(Math.abs(result.gate_offset_m) * 1000, 1),
     unit: 'mm',
-    note: gateHint(result.gate_offset_m, result.gate_offset_u_m),
+    note: gateNote(result.gate_offset_m, result.gate_offset_u_m, result.gate_offset_side),
     tone: 'normal',
   });
   // The analysis' count of valid passes (what `analyze` reports); the live count only until the first result has any.
@@ -245,9 +247,6 @@ export function buildViewModel(input: ViewInput): ViewModel {
     lastPass_s: lastPass,
     since_s: input.since_s,
     expectedPeriod_s: expectedPeriod(live, result, rig),
-    gateOffset_m: result.gate_offset_m,
-    gateOffset_u_m: result.gate_offset_u_m,
-    budget: result.budget,
     lastHeartbeat_s: live.heartbeatAgeS !== null && live.lastHostUs !== null ? live.lastHostUs / 1e6 - live.heartbeatAgeS : null,
     heartbeatInterval_s: input.heartbeatInterval_s,
     expectingLines: expectsLines(feed.connection),
@@ -256,6 +255,9 @@ export function buildViewModel(input: ViewInput): ViewModel {
     blocked: live.blocked && live.lastPass?.status !== 'unsequenced',
     lastAmplitude_deg: live.amplitudeDeg,
     beamHalfAngle_deg: rig ? Math.asin(Math.min(1, rig.flag_width_m / 2 / rig.length_m)) / RAD : null,
+    length_m: rig?.length_m ?? null,
+    flagWidth_m: rig?.flag_width_m ?? null,
+    analysis: result.warnings,
   });
 
   return {

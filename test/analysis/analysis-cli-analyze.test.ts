@@ -57,7 +57,8 @@ describe('halfswing analyze', () => {
     expect(given.clock_ppm).toBe(42);
     const nominal = JSON.parse((await cli(['analyze', j, '--json', '--clock', 'nominal'])).out) as Record<string, unknown>;
     expect(nominal.clock_ppm).toBe(0);
-    expect((nominal.warnings as string[]).some((w) => /nominal device clock/.test(w))).toBe(true);
+    // Warnings in JSON: the kind and its numbers, with the words beside them.
+    expect((nominal.warnings as { kind: string; text: string }[]).some((w) => w.kind === 'clock-nominal' && /nominal device clock/.test(w.text))).toBe(true);
     const bad = await cli(['analyze', j, '--clock', 'fast']);
     expect(bad.code).toBe(2);
     expect(bad.err.trim().split('\n')).toHaveLength(1);

@@ -1,5 +1,6 @@
 // A run without measurable decay is told so, with the Q it rules out (docs/references.md#ref-damping: A ∝ e^{−γt},
 // Q = ω0/(2γ)), instead of "too few swings" with hundreds of passes.
+import { warningText } from '../../host/output/warning-words.ts';
 import { describe, expect, it } from 'vitest';
 import { decayBound } from '../../host/analysis/decay-bound.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
@@ -49,9 +50,9 @@ describe('an undamped run', () => {
     const r = analyzeEntries([...lines].map(parseJournalLine));
     expect(r.passes).toBeGreaterThan(40);
     expect(r.Q).toBeNull();
-    const w = r.warnings.find((x) => /decay/.test(x)) ?? '';
+    const w = r.warnings.map(warningText).find((x) => /decay/.test(x)) ?? '';
     expect(w).toMatch(/^no measurable decay over the run \(amplitude 60\.0\d° to 60\.0\d°\): Q > \d/);
-    expect(r.warnings.join('\n')).not.toMatch(/too few swings/);
+    expect(r.warnings.map(warningText).join('\n')).not.toMatch(/too few swings/);
   });
 
   it('with sensor jitter: Q is above a bound, not a number of noise (it read Q = 3.9e6 ± 1.6e6 before)', () => {

@@ -1,6 +1,7 @@
 // The one-beam warning: how far the plane could turn, and the bias it would put on the amplitude.
 import { describe, expect, it } from 'vitest';
-import { oneBeamPlaneRisk, oneBeamPlaneText } from '../../host/analysis/plane-warning.ts';
+import { oneBeamPlaneRisk } from '../../host/analysis/plane-warning.ts';
+import { warningText } from '../../host/output/warning-words.ts';
 
 describe('one-beam plane warning', () => {
   it('stays quiet on a short run and warns on a long one with the Earth\'s turn and the cos ψ bias (docs/references.md#ref-swing-plane)', () => {
@@ -9,7 +10,7 @@ describe('one-beam plane warning', () => {
     const r = oneBeamPlaneRisk(7200, 50)!;
     expect(r.turn_deg).toBeCloseTo(23.045, 2);
     expect(r.amplitude_low).toBeCloseTo(1 - Math.cos((23.045 * Math.PI) / 180), 4);
-    const text = oneBeamPlaneText(r);
+    const text = warningText({ kind: 'one-beam-plane', ...r });
     expect(text).toContain('8.0 % low');
     expect(text).toContain('beams');
     expect(text).not.toContain('\n');
@@ -18,7 +19,7 @@ describe('one-beam plane warning', () => {
   it('assumes the worst latitude when the rig gives none, and says so', () => {
     const r = oneBeamPlaneRisk(3600)!;
     expect(r.turn_deg).toBeCloseTo(15.041, 3);
-    expect(oneBeamPlaneText(r)).toContain('no latitude_deg');
+    expect(warningText({ kind: 'one-beam-plane', ...r })).toContain('no latitude_deg');
     // On the equator the Earth does not turn the plane.
     expect(oneBeamPlaneRisk(36000, 0)).toBeNull();
   });

@@ -1,3 +1,4 @@
+import { warningText } from '../../host/output/warning-words.ts';
 import { describe, expect, it } from 'vitest';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { NOMINAL_CLOCK_U_PPM } from '../../host/pipeline/clock-choice.ts';
@@ -29,11 +30,11 @@ describe('choice of the device clock correction', () => {
     const auto = analyzeEntries(b.entries);
     expect(auto.clock_source).toBe('nominal');
     expect(auto.clock_u_ppm).toBeCloseTo(NOMINAL_CLOCK_U_PPM, 6);
-    expect(auto.warnings.some((w) => /too short .* host-clock calibration/.test(w))).toBe(true);
+    expect(auto.warnings.map(warningText).some((w) => /too short .* host-clock calibration/.test(w))).toBe(true);
     const forced = analyzeEntries(b.entries, { clock: 'host' });
     expect(forced.clock_source).toBe('host');
     expect(Math.abs(forced.clock_ppm! - 300)).toBeLessThan(30);
-    expect(forced.warnings.some((w) => /--clock host over only/.test(w))).toBe(true);
+    expect(forced.warnings.map(warningText).some((w) => /--clock host over only/.test(w))).toBe(true);
   });
 
   it('a given rate is applied as it is', () => {

@@ -1,3 +1,4 @@
+import { warningText } from '../../host/output/warning-words.ts';
 import { describe, expect, it } from 'vitest';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { buildJournal, passEdges, type Edge } from './journal-builder.ts';
@@ -66,7 +67,7 @@ describe('edges → passes: bounce, glitches, resync, bridging, objects', () => 
     const r = analyzeEntries(buildJournal({ edges: merged.sort((a, b) => a.t - b.t), durationS: 65 }).entries, { clock: 'nominal' });
     expect(r.counts.rejected_passes).toBe(2);
     expect(r.counts.bridged_gaps).toBe(1);
-    expect(r.warnings.some((w) => /object through the beam/.test(w))).toBe(true);
+    expect(r.warnings.map(warningText).some((w) => /object through the beam/.test(w))).toBe(true);
     expect(periodsOk(r)).toBe(true);
   });
 
@@ -101,8 +102,8 @@ describe('edges → passes: bounce, glitches, resync, bridging, objects', () => 
     expect(r.T0_s!).toBeCloseTo(2 * H, 6);
     expect(r.g_m_s2).toBeNull();
     expect(r.amplitude_start_deg).toBeNull();
-    expect(r.warnings.some((w) => /#rig line is not usable \(unknown rig key "lenght_m"/.test(w))).toBe(true);
-    expect(r.warnings.some((w) => /no rig description/.test(w))).toBe(true);
+    expect(r.warnings.map(warningText).some((w) => /#rig line is not usable \(unknown rig key "lenght_m"/.test(w))).toBe(true);
+    expect(r.warnings.map(warningText).some((w) => /no rig description/.test(w))).toBe(true);
   });
 
   it('a journal with too few passes gives a total result: nulls and warnings, no exception', () => {

@@ -1,3 +1,4 @@
+import { warningText } from '../../host/output/warning-words.ts';
 import { describe, expect, it } from 'vitest';
 import { scenario, simAndAnalyze } from './sim-run.ts';
 
@@ -61,7 +62,7 @@ describe('each injected fault is counted exactly (simulator truth)', () => {
     expect(run.result.counts.glitches).toBe(0);
     expect(run.result.counts.rejected_passes).toBe(f.objects);
     expect(f.objects).toBeGreaterThan(1);
-    expect(run.result.warnings.some((w) => /object through the beam/.test(w))).toBe(true);
+    expect(run.result.warnings.map(warningText).some((w) => /object through the beam/.test(w))).toBe(true);
     periodsSound(run);
   });
 });

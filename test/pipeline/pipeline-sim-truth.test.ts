@@ -1,4 +1,5 @@
 // Single runs against the simulator's truth: amplitude, clock rate, B, a dying swing (coverage over seeds: *-coverage).
+import { warningText } from '../../host/output/warning-words.ts';
 import { describe, expect, it } from 'vitest';
 import { loadScenario } from '../../sim/index.ts';
 import { scenario, simAndAnalyze, truthAmplitudeAt } from './sim-run.ts';
@@ -83,7 +84,7 @@ describe('against the simulator truth', () => {
     expect(r.counts.rejected_passes).toBe(0);
     expect(r.counts.long_gaps).toBe(0);
     expect(r.counts.unsequenced_passes!).toBeGreaterThan(10);
-    expect(r.warnings.some((w) => /no longer cleared the beam/.test(w))).toBe(true);
+    expect(r.warnings.map(warningText).some((w) => /no longer cleared the beam/.test(w))).toBe(true);
     // A resonator 3000 ppm fast drifting 20 ppm/h: the run's mean rate is the mid-run rate.
     expect(Math.abs(r.clock_ppm! - (truth.clock.ppm + (truth.clock.drift_ppm_per_h * sc.duration_s) / 2 / 3600))).toBeLessThan(2);
     expect(Math.abs(r.gate_offset_m! - truth.gate.offset_m)).toBeLessThan(2e-4);

@@ -11,7 +11,7 @@ const SECTIONS = ['run', 'rig', 'result', 'details', 'plots', 'fig-period', 'fig
 
 /** A result of a run too short for any fit: two passes, nothing computed. */
 function tooShort(): AnalysisResult {
-  return { ...EMPTY_RESULT, clock_source: 'host', passes: 2, run: syntheticResult().run, warnings: ['only 2 passes: too few for a period'] };
+  return { ...EMPTY_RESULT, clock_source: 'host', passes: 2, run: syntheticResult().run, warnings: [{ kind: 'no-full-period' }] };
 }
 
 describe('report page', () => {
@@ -43,7 +43,7 @@ describe('report page', () => {
 
   it('escapes every string from the journal and the rig', () => {
     const evil = '<script>alert(1)</script> & "q" \u0007';
-    const r = syntheticResult({ warnings: [`warn ${evil}`], run: { ...syntheticResult().run, source: `src ${evil}`, firmware: `fw ${evil}` } });
+    const r = syntheticResult({ warnings: [{ kind: 'rig-line-unusable', detail: `warn ${evil}` }], run: { ...syntheticResult().run, source: `src ${evil}`, firmware: `fw ${evil}` } });
     const page = renderReport(r, { ...meta, journalName: `j ${evil}`, rig: { ...syntheticRig, name: `rig ${evil}` }, csvName: `c ${evil}.csv` });
     expect(XMLValidator.validate(page)).toBe(true);
     expect(page).not.toContain('<script>');
@@ -62,7 +62,7 @@ describe('report page', () => {
     expect(page).toContain('B and C:');
     expect(page.match(/class="nodata"/g)!.length).toBeGreaterThanOrEqual(6);
     expect(page).not.toContain('class="chart"');
-    expect(page).toContain('only 2 passes: too few for a period');
+    expect(page).toContain('fewer than three passes in a row: no full period yet');
     expectReportMatchesJson(page, JSON.parse(JSON.stringify(r)));
   });
 

@@ -1,4 +1,5 @@
 // The report of simulated runs: every section, the same numbers as the JSON, well-formed, and honest when short.
+import { warningText } from '../../host/output/warning-words.ts';
 import { afterAll, describe, expect, it } from 'vitest';
 import { rmSync } from 'node:fs';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
@@ -28,7 +29,7 @@ describe('report of a simulated run', () => {
     expect(expectReportMatchesJson(html, json)).toBeGreaterThan(35);
     expect(html).toContain(run.meta.journalSha256);
     const page = text(html);
-    for (const w of run.result.warnings) expect(page).toContain(JSON.stringify(w).slice(1, -1));
+    for (const w of run.result.warnings) expect(page).toContain(JSON.stringify(warningText(w)).slice(1, -1));
     for (const c of run.result.corrections) expect(page).toContain(JSON.stringify(c.name).slice(1, -1));
   });
 
@@ -43,7 +44,7 @@ describe('report of a simulated run', () => {
     expect(html).toContain('Damping and Q: need amplitudes over enough swings');
     expect(html).toContain('No plot');
     const page = text(html);
-    for (const w of run.result.warnings) expect(page).toContain(JSON.stringify(w).slice(1, -1));
+    for (const w of run.result.warnings) expect(page).toContain(JSON.stringify(warningText(w)).slice(1, -1));
     expectReportMatchesJson(html, JSON.parse(JSON.stringify(run.result)));
   });
 

@@ -53,8 +53,11 @@ describe('live screen numbers', () => {
     const mm = valueAfter(f, 'gate offset');
     // Issue 5's bound for the gate offset: within 0.2 mm of the truth.
     expect(Math.abs(mm - rec.truth.gate_offset_m * 1000)).toBeLessThan(0.2);
-    // Positive offset = toward the release side (both the analysis' and the simulator's convention).
-    expect(f).toContain(`move ${mm.toFixed(1)} mm away from release side`);
+    // The demo's device boots 0.5 s before the release: too short a quiet (under a half-period) to prove the
+    // release was seen, so no side is stated, only how to find it.
+    expect(rec.snapshot.result.gate_offset_side).toBeNull();
+    expect(f).toContain('side unknown: move 1 mm, re-run');
+    expect(f).not.toMatch(/release side/);
   });
 
   it('counts the faults of the night run: a reboot, line errors and a lost line', async () => {

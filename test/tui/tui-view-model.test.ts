@@ -69,7 +69,8 @@ describe('view model', () => {
   });
 
   it('gives a plain status line without escape codes, with the warnings after it', () => {
-    const line = plainStatusLine(buildViewModel(input({ result: { ...input().result, gate_offset_m: 0.004, gate_offset_u_m: 0.0001 } })));
+    const gate = { kind: 'gate-offset' as const, offset_m: 0.004, u_m: 0.0001, side: null };
+    const line = plainStatusLine(buildViewModel(input({ result: { ...input().result, warnings: [gate] } })));
     expect(line).not.toMatch(/\x1b/);
     expect(line).toMatch(/T0=2\.4549\d+±0\.0000\d+ s/);
     expect(line).toContain('reboots=1');

@@ -1,34 +1,37 @@
-// Warning rules: silence for three expected periods, missing heartbeats, a gate off centre, a clock-dominated budget.
+// Live warning rules: silence for three expected periods, missing heartbeats, a lost link, then the analysis' own
+// warnings (typed, in the words of host/output/warning-words.ts), never a second set of rules.
 import { describe, expect, it } from 'vitest';
-import { clockShare, gateHint, warningsFor, type WarningInput } from '../../host/tui/warnings.ts';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { warningsFor, type WarningInput } from '../../host/tui/warnings.ts';
+import { warningText } from '../../host/output/warning-words.ts';
+import type { Warning } from '../../host/analysis/warning.ts';
 
 const base: WarningInput = {
   now_s: 100,
   lastPass_s: 99,
   since_s: 0,
   expectedPeriod_s: 2,
-  gateOffset_m: 0.0003,
-  gateOffset_u_m: 0.0001,
-  budget: [{ id: 'length' as const, name: 'length', u_rel_g: 1e-3 }],
   lastHeartbeat_s: 99.5,
   heartbeatInterval_s: 1,
   expectingLines: true,
   disconnected: false,
+  analysis: [],
 };
-const reasons = (w: Partial<WarningInput>) => warningsFor({ ...base, ...w }).map((x) => x.reason);
+const kinds = (w: Partial<WarningInput>) => warningsFor({ ...base, ...w }).map((x) => x.kind);
 
-describe('warnings', () => {
+describe('live warnings', () => {
   it('nothing to say about a healthy run', () => {
-    expect(reasons({})).toEqual([]);
+    expect(kinds({})).toEqual([]);
   });
 
   it('no passes for more than three expected periods', () => {
-    expect(reasons({ lastPass_s: 100 - 5.9 })).toEqual([]);
-    expect(reasons({ lastPass_s: 100 - 6.1 })).toEqual(['no-passes']);
+    expect(kinds({ lastPass_s: 100 - 5.9 })).toEqual([]);
+    expect(kinds({ lastPass_s: 100 - 6.1 })).toEqual(['no-passes']);
     // Before the first pass, silence counts from the first line.
-    expect(reasons({ lastPass_s: null, since_s: 93 })).toEqual(['no-passes']);
+    expect(kinds({ lastPass_s: null, since_s: 93 })).toEqual(['no-passes']);
     // A finished replay is not "silent".
-    expect(reasons({ lastPass_s: 50, expectingLines: false })).toEqual([]);
+    expect(kinds({ lastPass_s: 50, expectingLines: false })).toEqual([]);
   });
 
   it('says why the passes stopped when it can tell', () => {
@@ -39,39 +42,32 @@ describe('warnings', () => {
     expect(text({ lastAmplitude_deg: 5, beamHalfAngle_deg: 1.43 })).toMatch(/is it swinging through the beam/);
   });
 
+  it('a bob still swinging inside the flag is said to swing, not to rest (#14 item 5)', () => {
+    // 0.6 m, 30 mm flag: the beam half-angle is asin(0.015/0.6) = 1.43°; the last amplitude 1.43° is ±15 mm.
+    const t = warningsFor({ ...base, lastPass_s: 80, blocked: true, lastAmplitude_deg: 1.4325, beamHalfAngle_deg: 1.4325, length_m: 0.6, flagWidth_m: 0.03 })[0]!.text;
+    expect(t).toContain('the swing (±15 mm) no longer clears the 30 mm flag');
+    expect(t).not.toMatch(/resting/);
+  });
+
   it('heartbeats missing for more than three intervals', () => {
-    expect(reasons({ lastHeartbeat_s: 97.1 })).toEqual([]);
-    expect(reasons({ lastHeartbeat_s: 96.9 })).toEqual(['heartbeats-missing']);
-    expect(reasons({ lastHeartbeat_s: 50, heartbeatInterval_s: 20 })).toEqual([]);
-  });
-
-  it('a gate more than 2 mm off centre, beyond its uncertainty', () => {
-    expect(reasons({ gateOffset_m: 0.0025 })).toEqual(['gate-offset']);
-    expect(reasons({ gateOffset_m: -0.0025 })).toEqual(['gate-offset']);
-    expect(reasons({ gateOffset_m: 0.0025, gateOffset_u_m: 0.002 })).toEqual([]);
-  });
-
-  it('the clock dominating the g budget', () => {
-    const budget = [
-      { id: 'length' as const, name: 'length', u_rel_g: 1e-4 },
-      { id: 'clock' as const, name: 'clock rate', u_rel_g: 2e-4 },
-    ];
-    expect(clockShare(budget)).toBeCloseTo(0.8, 12);
-    expect(reasons({ budget })).toEqual(['clock-dominates']);
-    expect(reasons({ budget: [{ id: 'clock' as const, name: 'clock rate', u_rel_g: 1e-5 }, { id: 'length' as const, name: 'length', u_rel_g: 1e-3 }] })).toEqual([]);
+    expect(kinds({ lastHeartbeat_s: 97.1 })).toEqual([]);
+    expect(kinds({ lastHeartbeat_s: 96.9 })).toEqual(['heartbeats-missing']);
+    expect(kinds({ lastHeartbeat_s: 50, heartbeatInterval_s: 20 })).toEqual([]);
   });
 
   it('a disconnect is reported first and hides the silence rules', () => {
-    expect(reasons({ disconnected: true, lastPass_s: 0, lastHeartbeat_s: 0 })).toEqual(['disconnected']);
+    expect(kinds({ disconnected: true, lastPass_s: 0, lastHeartbeat_s: 0 })).toEqual(['disconnected']);
   });
-});
 
-describe('gate hint', () => {
-  // Sign convention of AnalysisResult.gate_offset_m: positive toward the release side.
-  it('says which way to move, or that it is centred', () => {
-    expect(gateHint(0.0012, 0.0001)).toBe('move 1.2 mm away from release side');
-    expect(gateHint(-0.0012, 0.0001)).toBe('move 1.2 mm toward release side');
-    expect(gateHint(0.0001, 0.0001)).toBe('centred');
-    expect(gateHint(null, null)).toBe('not known yet');
+  it('the analysis\' warnings follow the live ones, in the same words as analyze prints', () => {
+    const analysis: Warning[] = [{ kind: 'clock-nominal', u_ppm: 2886.75 }, { kind: 'gate-offset', offset_m: 0.0025, u_m: 0.0001, side: 'release' }];
+    const w = warningsFor({ ...base, lastPass_s: 80, analysis });
+    expect(w.map((x) => x.kind)).toEqual(['no-passes', 'clock-nominal', 'gate-offset']);
+    expect(w.slice(1).map((x) => x.text)).toEqual(analysis.map(warningText));
+  });
+
+  it('keeps no rules of its own: no threshold, no regex over budget names', () => {
+    const src = readFileSync(fileURLToPath(new URL('../../host/tui/warnings.ts', import.meta.url)), 'utf8');
+    expect(src).not.toMatch(/budget|clock|gate|0\.5\b|RegExp|\/i\b/);
   });
 });

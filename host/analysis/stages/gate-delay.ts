@@ -1,4 +1,5 @@
 // Stage: the gate's on/off delay difference calibrated from the run (delay-fit.ts), the rig's assumed value as a prior.
+import type { Warning } from '../warning.ts';
 import type { Rig } from '../../../protocol/rig.ts';
 import { amplitudeSlopePerTransit, fitDelayDifference, gateDelay, withWidthTerm, type DelayFit, type GateDelay } from '../delay-fit.ts';
 import { amplitudeFromTransit, blockHalfAngle } from '../transit-amplitude.ts';
@@ -74,13 +75,8 @@ function delayAtWidth(p: SequencedPasses, per: Periods, red: Reduction, rig: Rig
   return delta;
 }
 
-/** The warning when the run cannot calibrate the delay (its amplitude range is too narrow). */
-export function delayWarnings(d: GateDelay | null): string[] {
+/** The warning when the run cannot calibrate the delay (its amplitude range is too narrow); words in host/output/warning-words.ts. */
+export function delayWarnings(d: GateDelay | null): Warning[] {
   if (!d || d.source === 'run') return [];
-  const us = (x: number): string => (x * 1e6).toFixed(1);
-  return [
-    `gate delay: the run's amplitude range is too narrow to calibrate the sensor's on/off delay difference` +
-      (d.run_u_s !== null ? ` (the run gives ${us(d.run_s!)} ± ${us(d.run_u_s)} µs)` : '') +
-      `; amplitudes use the assumed ${us(d.prior_s)} ± ${us(d.prior_u_s)} µs. A run from a larger release calibrates it`,
-  ];
+  return [{ kind: 'gate-delay-prior', run_s: d.run_u_s !== null ? d.run_s : null, run_u_s: d.run_u_s, prior_s: d.prior_s, prior_u_s: d.prior_u_s }];
 }

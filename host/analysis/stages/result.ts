@@ -1,6 +1,7 @@
 // Stage: the result object (result.ts) from the outputs of the stages.
 import type { GateDelay } from '../delay-fit.ts';
 import type { GateOffset } from '../gate-offset.ts';
+import type { GateSide, Warning } from '../warning.ts';
 import type { RunData } from '../passes.ts';
 import type { PeriodLawFit } from '../period-law.ts';
 import type { AmplitudeSensitivityReport, AnalysisResult, EnvironmentResult, PlotSeries, SwingRow } from '../result.ts';
@@ -20,11 +21,12 @@ export interface ResultParts {
   readonly gate: GateOffset | null;
   readonly delay: GateDelay | null;
   readonly derivedU: DerivedU | null;
+  readonly gateSide: GateSide;
   readonly corrected: Corrected;
   readonly budget: Budget;
   readonly expected: number | null;
   readonly sensitivity: AmplitudeSensitivityReport | null;
-  readonly warnings: string[];
+  readonly warnings: Warning[];
   readonly swings: SwingRow[];
   readonly plots: PlotSeries;
   readonly environment: EnvironmentResult | null;
@@ -56,6 +58,7 @@ export function assembleResult(d: RunData, r: ResultParts): AnalysisResult {
     clock_source: d.clock.source,
     gate_offset_m: gate ? finiteOrNull(gate.offset_m) : null,
     gate_offset_u_m: gate ? withTerms(du?.gate_offset_m, gate.offset_u_m) : null,
+    gate_offset_side: r.gateSide,
     B: law ? law.B : null,
     B_u: law ? withTerms(du?.B, law.B_u) : null,
     C: law ? law.C : null,

@@ -9,6 +9,7 @@ import type { Corrected } from './corrections.ts';
 import type { Decay } from './decay.ts';
 import type { Periods } from './periods.ts';
 import type { Reduction } from './reduction.ts';
+import { WARN, type GateSide, type Warning } from '../warning.ts';
 
 /** The stage outputs the warnings look at. */
 export interface WarningInput {
@@ -23,6 +24,8 @@ export interface WarningInput {
   readonly corrected: Corrected;
   readonly budget: Budget;
   readonly clock: ClockApplied;
+  /** What the gate offset's sign is relative to (null: the run joined mid-swing). */
+  readonly gateSide: GateSide;
 }
 
 /** Valid passes that are not slow yet have no amplitude: with the right w and L there are none. */
@@ -33,57 +36,63 @@ function fastWithoutAmplitude(w: WarningInput): number {
   return n;
 }
 
-function passWarnings(w: WarningInput): string[] {
+function passWarnings(w: WarningInput): Warning[] {
   const { rig, periods: per, reduction: red, T0 } = w;
-  const out: string[] = [];
-  if (per.slowCount > 0) out.push(`${per.slowCount} pass(es) barely cleared the beam (transit over a third of the half-period): used for amplitudes only`);
-  if (red.T0mean !== null && !rig) out.push('no rig description: amplitudes, the reduction to zero amplitude and g are not available (give --rig FILE)');
-  if (red.clipped > 0) out.push(`${red.clipped} period(s) far from the rest were left out of the mean of periods`);
-  if (T0 === null) out.push(per.validCount === 0 ? 'no valid passes: nothing to analyse' : 'fewer than three passes in a row: no full period yet');
+  const out: Warning[] = [];
+  if (per.slowCount > 0) out.push({ kind: 'passes-slow', count: per.slowCount });
+  if (red.T0mean !== null && !rig) out.push({ kind: 'no-rig' });
+  if (red.clipped > 0) out.push({ kind: 'periods-clipped', count: red.clipped });
+  if (T0 === null) out.push({ kind: per.validCount === 0 ? 'no-valid-passes' : 'no-full-period' });
   const withAmp = w.decay.amplitude.length;
-  if (rig && T0 !== null && per.validCount > 0 && withAmp < per.validCount) {
-    const fastMissing = fastWithoutAmplitude(w);
-    out.push(
-      `${per.validCount - withAmp} pass(es) had a transit longer than a swing that just clears the beam would give: no amplitude for them` +
-        (fastMissing > 0 ? ` (${fastMissing} of them well clear of the beam: check flag_width_m and length_m)` : ' (the swing was dying out)'),
-    );
-  }
+  if (rig && T0 !== null && per.validCount > 0 && withAmp < per.validCount)
+    out.push({ kind: 'passes-without-amplitude', count: per.validCount - withAmp, well_clear: fastWithoutAmplitude(w) });
   return out;
 }
+
+/** Passes with an amplitude a damping fit needs. */
+const DAMPING_MIN_PASSES = 40;
 
 /** Why there is no damping fit: too few amplitudes, or (with enough) no measurable decay, with the Q it rules out. */
-function noDampingWarning(t: readonly number[], a: readonly number[], T0: number): string {
-  const bound = a.length >= 40 ? decayBound(t, a, T0) : null;
-  if (!bound) return `too few swings to fit the damping (needs ≥ 40 passes with an amplitude, had ${a.length})`;
-  const deg = (x: number): string => ((x * 180) / Math.PI).toFixed(2);
-  const q = Number.isFinite(bound.qLower) ? `Q > ${bound.qLower.toPrecision(2)} (two standard uncertainties)` : 'Q unbounded';
-  return `no measurable decay over the run (amplitude ${deg(bound.aMin)}° to ${deg(bound.aMax)}°): ${q}; a longer run shows the damping`;
+function noDampingWarning(t: readonly number[], a: readonly number[], T0: number): Warning {
+  const bound = a.length >= DAMPING_MIN_PASSES ? decayBound(t, a, T0) : null;
+  if (!bound) return { kind: 'damping-too-few', count: a.length, needed: DAMPING_MIN_PASSES };
+  const deg = (x: number): number => (x * 180) / Math.PI;
+  return { kind: 'no-measurable-decay', amplitude_min_deg: deg(bound.aMin), amplitude_max_deg: deg(bound.aMax), q_lower: Number.isFinite(bound.qLower) ? bound.qLower : null };
 }
 
-function fitWarnings(w: WarningInput): string[] {
-  const { rig, T0, law, gate } = w;
-  const out: string[] = [];
-  if (T0 !== null && rig && !w.decay.damping) out.push(noDampingWarning(w.decay.t, w.decay.amplitude, T0));
-  if (T0 !== null && rig && !law) out.push('too few periods or too narrow an amplitude range to fit T = T0(1 + Bθ0² + Cθ0⁴) (B would be uncertain by > 30 %)');
-  else if (law && law.C === null) out.push('C is held at 11/3072: the amplitudes do not reach 20°, or do not pin C down (θ0⁴ cannot be told from θ0² there)');
-  if (gate && gate.alignedSegments > 0) out.push(`gate offset: the side of ${gate.alignedSegments} later segment(s) was matched to the first (passes between segments are not known)`);
+function gateWarnings(w: WarningInput): Warning[] {
+  const { gate } = w;
+  if (!gate) return [];
+  const out: Warning[] = [];
+  if (gate.alignedSegments > 0) out.push({ kind: 'gate-segments-aligned', segments: gate.alignedSegments });
+  const x = Math.abs(gate.offset_m);
+  if (x > WARN.gateOffset_m && x > 2 * gate.offset_u_m) out.push({ kind: 'gate-offset', offset_m: gate.offset_m, u_m: gate.offset_u_m, side: w.gateSide });
   return out;
 }
 
-function gravityWarnings(w: WarningInput): string[] {
+function fitWarnings(w: WarningInput): Warning[] {
+  const { rig, T0, law } = w;
+  const out: Warning[] = [];
+  if (T0 !== null && rig && !w.decay.damping) out.push(noDampingWarning(w.decay.t, w.decay.amplitude, T0));
+  if (T0 !== null && rig && !law) out.push({ kind: 'period-law-unfit' });
+  else if (law && law.C === null) out.push({ kind: 'c-held' });
+  return [...out, ...gateWarnings(w)];
+}
+
+function gravityWarnings(w: WarningInput): Warning[] {
   const { rig, clock } = w;
   const { g } = w.corrected;
   const gU = w.budget.g_u;
-  const out: string[] = [];
-  if (rig && rig.latitude_deg !== undefined && rig.elevation_m === undefined) out.push('expected g assumes elevation 0 m (the rig gives no elevation_m)');
-  if (clock.source === 'nominal' && g !== null) out.push(`g uses the nominal device clock (±${clock.u_ppm.toFixed(0)} ppm assumed): its uncertainty is dominated by the clock`);
+  const out: Warning[] = [];
+  if (rig && rig.latitude_deg !== undefined && rig.elevation_m === undefined) out.push({ kind: 'no-elevation' });
+  if (clock.source === 'nominal' && g !== null) out.push({ kind: 'clock-nominal', u_ppm: clock.u_ppm });
   const clockRow = w.budget.rows.find((b) => b.id === 'clock');
-  if (clock.measured && clockRow && gU !== null && g !== null && clockRow.u_rel_g > 0.5 * (gU / g))
-    out.push('the clock calibration is too uncertain to be negligible: record longer, or give --clock pps / --clock <ppm>');
+  if (clock.measured && clockRow && gU !== null && g !== null && clockRow.u_rel_g > WARN.clockShareOfU * (gU / g))
+    out.push({ kind: 'clock-not-negligible', u_rel_clock: clockRow.u_rel_g, u_rel_g: gU / g });
   return out;
 }
 
 /** The warnings stage. */
-export function analysisWarnings(w: WarningInput): string[] {
+export function analysisWarnings(w: WarningInput): Warning[] {
   return [...passWarnings(w), ...fitWarnings(w), ...gravityWarnings(w)];
 }

@@ -47,7 +47,7 @@ export function HelpPanel({ warnings, width }: { readonly warnings: readonly Vie
         <Text color="green">  none</Text>
       ) : (
         warnings.map((w) => (
-          <Text key={w.reason} wrap="truncate" color="red">
+          <Text key={w.kind} wrap="truncate" color="red">
             {`  ! ${w.text}`}
           </Text>
         ))
