@@ -62,7 +62,7 @@ describe('an undamped run', () => {
     expect(r.Q).toBeNull();
     expect(r.Q_u).toBeNull();
     expect(r.Q_lower_bound!).toBeGreaterThan(1e6);
-    expect(r.warnings.join('\n')).toMatch(/no measurable decay over the run \(amplitude 10\.00° to 10\.00°\): Q > /);
+    expect(r.warnings.map(warningText).join('\n')).toMatch(/no measurable decay over the run \(amplitude 10\.00° to 10\.00°\): Q > /);
   });
 
   it('a weakly damped run keeps its fitted Q (true Q 20 000 within 3 standard uncertainties)', () => {
