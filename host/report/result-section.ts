@@ -66,8 +66,8 @@ export function detailsTable(r: AnalysisResult): string {
   const side = r.gate_offset_side === 'release';
   add(
     'gate offset from the lowest point',
-    r.gate_offset_m !== null ? `${pm(side ? r.gate_offset_m : Math.abs(r.gate_offset_m), r.gate_offset_u_m, 'gate_offset_mm', 'gate_offset_u_mm', 1000)} mm` : missing,
-    side ? 'positive: toward the release side' : 'side not known: the recording began mid-swing (move the gate 1 mm either way and re-run)',
+    r.gate_offset_m !== null ? `${pm(r.gate_offset_m, r.gate_offset_u_m, 'gate_offset_mm', 'gate_offset_u_mm', 1000)} mm` : missing,
+    side ? 'positive: toward the release side' : 'sign toward the side the bob was on before the first pass; that side is not known (the recording began mid-swing): move the gate 1 mm either way and re-run',
   );
   add(
     'amplitude, first → last swing',
