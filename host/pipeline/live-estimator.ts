@@ -13,6 +13,9 @@
 // - a window whose passes are all slow (a swing that barely clears the beam, for hours at the end of a night)
 //   has no usable period, so T0 comes from its raw periods reduced with their median amplitude
 //   (`slowWindowAmplitudes`): at the ≤ 2–3° of such swings the law moves T0 by under 2e-4, and so the amplitudes;
+// - the gate's on/off delay difference is not fitted on the window (its amplitudes span too little to pin it): the
+//   amplitudes are solved with the delay the latest full analysis calibrated (the prior 0 before the first one),
+//   so they move by about the change of that delay over the time since, divided by the transit time;
 // - when the window shows fewer than LIVE_MIN_VALID valid passes (a swing that no longer clears the beam), it is
 //   doubled, up to LIVE_WINDOW_MAX passes, so the latest valid swing stays in view as in the full analysis.
 import type { Rig } from '../../protocol/rig.ts';
@@ -54,7 +57,7 @@ export interface LiveSwing {
  * Amplitudes (rad) of the valid passes of a window without a usable period: ω0 from the median raw period (every
  * second pass, slow ones included), reduced to zero amplitude with the median amplitude, two rounds.
  */
-function slowWindowAmplitudes(p: SequencedPasses, per: Periods, rig: Rig): Float64Array {
+function slowWindowAmplitudes(p: SequencedPasses, per: Periods, rig: Rig, delayS: number): Float64Array {
   const amp = new Float64Array(p.t.length).fill(NaN);
   const raw: number[] = [];
   for (let c = 0; c < p.t.length; c++) if (per.start[c]! >= 0) raw.push(p.td[c]! - p.td[per.start[c]!]!);
@@ -62,7 +65,7 @@ function slowWindowAmplitudes(p: SequencedPasses, per: Periods, rig: Rig): Float
   const phiB = blockHalfAngle(rig.flag_width_m, rig.length_m);
   let t0 = median(raw);
   for (let round = 0; round < 2; round++) {
-    const solve = transitSolver(p.transit, phiB, (2 * Math.PI) / t0);
+    const solve = transitSolver(p.transit, phiB, (2 * Math.PI) / t0, delayS);
     for (let c = 0; c < amp.length; c++) amp[c] = p.index[c]! >= 0 ? solve(c) : NaN;
     const a = median([...amp].filter(Number.isFinite));
     if (!Number.isFinite(a)) break;
@@ -92,14 +95,17 @@ function recentOf(p: SequencedPasses, per: Periods, amp: Float64Array, from: num
   return r;
 }
 
-/** Runs sequencing, periods and the reduction on a window of passes (`cols`, the newest last). */
-export function liveSwing(cols: PassColumnsS, rig: Rig | null, sequencing: SequencingOptions | undefined): LiveSwing {
+/**
+ * Runs sequencing, periods and the reduction on a window of passes (`cols`, the newest last), amplitudes solved with
+ * the gate delay difference `delayS` (s).
+ */
+export function liveSwing(cols: PassColumnsS, rig: Rig | null, sequencing: SequencingOptions | undefined, delayS = 0): LiveSwing {
   const n = cols.t.length;
   const seq = sequencePasses(cols.t, cols.transit, cols.boot, sequencing);
   const p: SequencedPasses = { t: cols.t, td: cols.td, transit: cols.transit, index: seq.index, segment: seq.segment, status: seq.status, bridgedBefore: seq.bridgedBefore };
   const per = findPeriods(p);
-  const red = reduceToZeroAmplitude(p, per, rig);
-  const amp = red.T0mean === null && rig ? slowWindowAmplitudes(p, per, rig) : red.amp;
+  const red = reduceToZeroAmplitude(p, per, rig, delayS);
+  const amp = red.T0mean === null && rig ? slowWindowAmplitudes(p, per, rig, delayS) : red.amp;
   const from = n > LIVE_WARMUP ? LIVE_WARMUP : 0;
   let c = n - 1;
   while (c >= from && seq.index[c]! < 0) c--;

@@ -19,7 +19,8 @@ const CLOCK_REFIT_FRACTION = 1e-3;
 
 /** Builds live snapshots of an intake. */
 export interface LiveSnapshots {
-  snapshot(lastHostUs: number | null, nowHostUs: number | null): LiveState;
+  /** `delayS`: the gate delay difference the latest full analysis calibrated (s), used for the amplitudes. */
+  snapshot(lastHostUs: number | null, nowHostUs: number | null, delayS: number): LiveState;
 }
 
 /** The live clock state of a chosen clock; the host-calibration time only for the automatic choice. */
@@ -49,14 +50,14 @@ export function liveSnapshots(intake: DeviceIntake, rig: () => Rig | null, optio
     return (clock = { rc, live: liveClockOf(option, rc) });
   };
 
-  const currentSwing = (rc: RunClock): LiveSwing => {
-    const key = `${clockKey}:${intake.beams.version()}`;
+  const currentSwing = (rc: RunClock, delayS: number): LiveSwing => {
+    const key = `${clockKey}:${intake.beams.version()}:${delayS}`;
     if (swing && key === swingKey) return swing;
     const n = intake.beams.count();
     let s: LiveSwing;
     for (let w = LIVE_WINDOW; ; w *= 2) {
       const cols = intake.beams.columns(Math.max(0, n - w), tb.joiner(rc.k, rc.offsets), (b) => tb.hz(b) * rc.k, rig());
-      s = liveSwing(cols, rig(), sequencing);
+      s = liveSwing(cols, rig(), sequencing, delayS);
       if (s.recent.t_s.length >= LIVE_MIN_VALID || w >= n || 2 * w > LIVE_WINDOW_MAX) break;
     }
     swingKey = key;
@@ -64,9 +65,9 @@ export function liveSnapshots(intake: DeviceIntake, rig: () => Rig | null, optio
   };
 
   return {
-    snapshot(lastHostUs, nowHostUs) {
+    snapshot(lastHostUs, nowHostUs, delayS) {
       const c = currentClock();
-      const s = currentSwing(c.rc);
+      const s = currentSwing(c.rc, delayS);
       const now = nowHostUs ?? lastHostUs;
       const beat = intake.lastBeatHostUs;
       const a = intake.beams.a;

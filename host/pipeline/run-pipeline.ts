@@ -34,8 +34,12 @@ export interface PipelineOptions extends EdgeThresholds {
 export interface RunPipeline {
   /** Feeds one journal entry. */
   push(entry: JournalEntry): void;
-  /** The live snapshot (cached between passes); `nowHostUs` (µs since `#start`) sets the heartbeat age. */
-  live(nowHostUs?: number): LiveState;
+  /**
+   * The live snapshot (cached between passes); `nowHostUs` (µs since `#start`) sets the heartbeat age. `delayS`: the
+   * gate delay difference of the caller's latest full result (s); default that of this pipeline's latest `result`,
+   * or the prior 0 before one.
+   */
+  live(nowHostUs?: number, delayS?: number): LiveState;
   /**
    * The full analysis of everything pushed so far (deterministic; does not change the pipeline).
    * `rows: false` leaves `swings` empty (faster, for a summary or JSON that does not print them).
@@ -56,6 +60,8 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
   const givenPpm = typeof opts.clock === 'number' ? opts.clock : 0;
   const intake = new DeviceIntake({ glitchS: opts.glitchS, bounceS: opts.bounceS, ppsChannel: opts.ppsChannel ?? 1, givenPpm }, rigNow, warnings);
   const live = liveSnapshots(intake, rigNow, opts.clock, opts.sequencing);
+  // The delay the latest full result calibrated: the live window spans too little amplitude to fit it.
+  let lastDelayS = 0;
 
   const rigLine = (json: string): void => {
     if (opts.rig || journalRig) return;
@@ -88,9 +94,9 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
           return;
       }
     },
-    live: (nowHostUs) => live.snapshot(head.lastHostUs, nowHostUs ?? null),
-    result: (ro = {}) =>
-      batchResult({
+    live: (nowHostUs, delayS) => live.snapshot(head.lastHostUs, nowHostUs ?? null, delayS ?? lastDelayS),
+    result: (ro = {}) => {
+      const r = batchResult({
         intake,
         rig: rigNow(),
         warnings,
@@ -99,7 +105,10 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         sequencing: opts.sequencing,
         delayDifferenceU_s: opts.delayDifferenceU_s,
         rows: ro.rows ?? true,
-      }),
+      });
+      lastDelayS = r.gate_delay?.difference_s ?? 0;
+      return r;
+    },
     rig: rigNow,
     journalRig: () => journalRig?.file ?? null,
   };

@@ -48,11 +48,12 @@ export interface RecorderSummary {
   readonly error?: Error;
 }
 
-type G = { readonly value: number | null; readonly u: number | null };
+/** g of the latest full result, and its gate delay difference (s) for the live amplitudes. */
+type G = { readonly value: number | null; readonly u: number | null; readonly delayS: number };
 
 /** g of every entry fed so far, recomputed no more often than it stays cheap; from the worker when there is one. */
 function gRefresher(o: RecorderOptions, results: WorkerWithFallback) {
-  let g: G = { value: null, u: null };
+  let g: G = { value: null, u: null, delayS: 0 };
   let dueUs = 0;
   let inFlight: Promise<void> | null = null;
   const refresh = async (t: number): Promise<void> => {
@@ -60,7 +61,7 @@ function gRefresher(o: RecorderOptions, results: WorkerWithFallback) {
     const t0 = o.now();
     const fromWorker = await results.result({ rows: false });
     const r = fromWorker ?? o.pipeline.result({ rows: false });
-    g = { value: r.g_m_s2, u: r.g_u_m_s2 };
+    g = { value: r.g_m_s2, u: r.g_u_m_s2, delayS: r.gate_delay?.difference_s ?? 0 };
     // The full analysis grows with the run: in-thread, redo g at most as often as it stays under a tenth of
     // the time; in the worker, under about a quarter of a core.
     const costUs = o.now() - t0;
@@ -163,7 +164,7 @@ export async function runRecorder(o: RecorderOptions): Promise<RecorderSummary> 
       hostUs: t,
       linesPerS: flood.perS,
       link: stats,
-      live: o.pipeline?.live(t),
+      live: o.pipeline?.live(t, g.g().delayS),
       g: g.g(),
       warnings: [...(o.warnings?.() ?? []), ...(flood.warning ? [flood.warning] : [])],
     });

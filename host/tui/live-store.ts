@@ -10,7 +10,7 @@ import { workerWithFallback } from '../pipeline/result-fallback.ts';
 /** The part of the run pipeline (`createRunPipeline`) the store drives. */
 export interface PipelineLike {
   push(entry: JournalEntry): void;
-  live(nowHostUs?: number): LiveState;
+  live(nowHostUs?: number, delayS?: number): LiveState;
   result(opts?: { rows?: boolean }): AnalysisResult;
 }
 
@@ -203,7 +203,9 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       // The full analysis grows with the run: keep it under about a tenth of the time.
       resultGapMs = Math.max(resultMs, RESULT_COST_FACTOR * (opts.nowMs() - now));
     }
-    const live = since ? mergeLive(whole.live(), since.live()) : whole.live();
+    // The live amplitudes use the gate delay the shown result calibrated (it may come from the worker).
+    const d = result.gate_delay?.difference_s ?? 0;
+    const live = since ? mergeLive(whole.live(undefined, d), since.live(undefined, d)) : whole.live(undefined, d);
     snap = {
       live,
       result,

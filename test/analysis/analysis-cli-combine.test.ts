@@ -68,7 +68,8 @@ describe('halfswing combine', () => {
     expect(a.T0_s).toBe(o.journals[1]!.T0_s);
     expect(a.T0_u_s).toBe(o.journals[1]!.T0_u_s);
     expect(a.g_m_s2).toBeNull();
-    expect((a.warnings as string[]).some((w) => w.includes('g needs the other pivot'))).toBe(true);
+    const other = (a.warnings as { kind: string; text: string }[]).find((w) => w.kind === 'reversible-other-pivot');
+    expect(other?.text).toContain('g needs the other pivot');
     // The budget shows each term of Bessel's formula.
     const ids = (o.budget as { id: string }[]).map((b) => b.id);
     for (const id of ['knife-edge-distance', 'centre-of-mass-distances', 'pivot-1-statistics', 'pivot-2-statistics', 'amplitude-reduction', 'clock']) expect(ids).toContain(id);

@@ -1,6 +1,8 @@
 // The live estimate (host/pipeline/live-estimator.ts) against the full result of the same moment, on every bundled
 // scenario at several points of the run and at its end. The full result is the truth here: the live state must show
 // what `analyze` would show for the entries so far. The estimator's header says why each difference below exists.
+// The live amplitudes use the gate delay of the latest full result, as the live view and the recorder pass it: here
+// the result of the same moment is computed first.
 import { describe, expect, it } from 'vitest';
 import { parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import type { AnalysisResult, SwingRow } from '../../host/analysis/result.ts';
@@ -93,7 +95,8 @@ describe('the live state is the full analysis of the newest passes', () => {
         const cut = Math.floor(entries.length * f);
         feed(p, entries, k, cut);
         k = cut;
-        const { shown } = compare(p.live(), p.result(), `${name} at ${f}`);
+        const r = p.result();
+        const { shown } = compare(p.live(), r, `${name} at ${f}`);
         expect(shown).toBeGreaterThan(0);
       }
     }, 120_000);
@@ -104,8 +107,8 @@ describe('the live state is the full analysis of the newest passes', () => {
     const entries = entriesOf('demo-low-q');
     const p = createRunPipeline();
     feed(p, entries, 0, entries.length);
-    const l = p.live();
     const r = p.result();
+    const l = p.live();
     const valid = r.swings.filter((s) => statusOf(s) === 'valid');
     expect(l.lastPass?.status).toBe('unsequenced');
     // Passes kept coming for many swings after the last valid one, all left out.
