@@ -16,6 +16,8 @@
 // - the gate's on/off delay difference is not fitted on the window (its amplitudes span too little to pin it): the
 //   amplitudes are solved with the delay the latest full analysis calibrated (the prior 0 before the first one),
 //   so they move by about the change of that delay over the time since, divided by the transit time;
+// - a two-beam run's plane (azimuth, axes) is the batch's plane stage on the window: its ω0 comes from the window's
+//   paired passes, which moves the figures at second order only;
 // - when the window shows fewer than LIVE_MIN_VALID valid passes (a swing that no longer clears the beam), it is
 //   doubled, up to LIVE_WINDOW_MAX passes, so the latest valid swing stays in view as in the full analysis.
 import type { Rig } from '../../protocol/rig.ts';
@@ -27,7 +29,7 @@ import { reduceToZeroAmplitude } from '../analysis/stages/reduction.ts';
 import { median } from '../analysis/stats.ts';
 import { blockHalfAngle } from '../analysis/transit-amplitude.ts';
 import type { PassColumnsS } from './beams.ts';
-import type { LivePass, LiveRecent } from './live-state.ts';
+import type { LivePass, LivePlane, LiveRecent } from './live-state.ts';
 import { sequencePasses, type SequencingOptions } from './pass-sequencing.ts';
 
 /** Passes the live estimate runs on. */
@@ -51,6 +53,8 @@ export interface LiveSwing {
   readonly lastPass: LivePass | null;
   /** The valid passes of the window after its warm-up, oldest first. */
   readonly recent: LiveRecent;
+  /** Two beams: the plane at those of them that the plane stage measured; null for one beam. */
+  readonly plane: LivePlane | null;
 }
 
 /**
@@ -95,6 +99,20 @@ function recentOf(p: SequencedPasses, per: Periods, amp: Float64Array, from: num
   return r;
 }
 
+/** The plane at the window's valid passes after the warm-up that the plane stage measured. */
+function planeOf(p: SequencedPasses, plane: PassColumnsS['plane'], from: number): LivePlane | null {
+  if (!plane) return null;
+  const r = { t_s: [] as number[], azimuth_deg: [] as number[], minor_axis_m: [] as number[], semi_major_m: [] as number[] };
+  for (let c = from; c < p.t.length; c++) {
+    if (p.index[c]! < 0 || !Number.isFinite(plane.azimuthDeg[c]!)) continue;
+    r.t_s.push(p.t[c]!);
+    r.azimuth_deg.push(plane.azimuthDeg[c]!);
+    r.minor_axis_m.push(plane.minorM[c]!);
+    r.semi_major_m.push(plane.semiMajorM[c]!);
+  }
+  return r;
+}
+
 /**
  * Runs sequencing, periods and the reduction on a window of passes (`cols`, the newest last), amplitudes solved with
  * the gate delay difference `delayS` (s).
@@ -111,7 +129,8 @@ export function liveSwing(cols: PassColumnsS, rig: Rig | null, sequencing: Seque
   while (c >= from && seq.index[c]! < 0) c--;
   const lastPass = n ? { t_s: cols.t[n - 1]!, status: passStatus(seq.status, n - 1) } : null;
   const recent = recentOf(p, per, amp, from);
-  if (c < from) return { halfPeriodsS: [null, null], periodS: null, transitS: null, amplitudeDeg: null, lastPass, recent };
+  const plane = planeOf(p, cols.plane, from);
+  if (c < from) return { halfPeriodsS: [null, null], periodS: null, transitS: null, amplitudeDeg: null, lastPass, recent, plane };
   const prev = previousInBeat(p, c);
   return {
     halfPeriodsS: [prev >= 0 ? orNull(per.half[prev]) : null, orNull(per.half[c])],
@@ -120,5 +139,6 @@ export function liveSwing(cols: PassColumnsS, rig: Rig | null, sequencing: Seque
     amplitudeDeg: orNull(amp[c]! * DEG),
     lastPass,
     recent,
+    plane,
   };
 }

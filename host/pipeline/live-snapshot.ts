@@ -88,6 +88,7 @@ export function liveSnapshots(intake: DeviceIntake, rig: () => Rig | null, optio
         counts: intake.health.counts(a?.counts ?? null),
         lineRejections: intake.health.lineRejections(),
         recent: s.recent,
+        plane: s.plane,
       };
     },
   };

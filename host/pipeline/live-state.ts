@@ -24,6 +24,19 @@ export interface LiveRecent {
   readonly transit_s: readonly number[];
 }
 
+/**
+ * A two-beam run's swing plane at the window's measured valid passes after its warm-up, oldest first: the plane
+ * stage of the batch (host/analysis/plane-of-run.ts) run on the live window. Passes near a beam line are left out.
+ */
+export interface LivePlane {
+  readonly t_s: readonly number[];
+  /** Axis direction, ° counterclockwise from above, in the rig's frame. */
+  readonly azimuth_deg: readonly number[];
+  /** Signed semi-minor axis (m), + when the bob goes round counterclockwise seen from above. */
+  readonly minor_axis_m: readonly number[];
+  readonly semi_major_m: readonly number[];
+}
+
 /** The newest pass and what the sequencing made of it (`unsequenced` when the swing no longer clears the beam). */
 export interface LivePass {
   readonly t_s: number;
@@ -71,4 +84,6 @@ export interface LiveState {
   /** Device lines rejected by the decoder, by reason. */
   readonly lineRejections: Readonly<Partial<Record<RejectReason, number>>>;
   readonly recent: LiveRecent;
+  /** The swing plane of the newest passes; null for a one-beam run. */
+  readonly plane: LivePlane | null;
 }

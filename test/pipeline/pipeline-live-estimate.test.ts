@@ -23,13 +23,20 @@ import { listScenarios, loadScenario, simulateJournal } from '../../sim/index.ts
  * - a pass is slow (amplitude, no period) when its transit exceeds a third of the median half-period, taken from
  *   the window live and from the run in the full result: within SLOW_BAND = ±10 % of that threshold (a gate offset
  *   makes the half-periods alternate by ±5 % at the end of club-resonator) the two may disagree;
- * - passes are matched by time within MATCH_S = 1 ms (a lagging clock moves absolute times by ~1e-5 s at 5 h).
+ * - passes are matched by time within MATCH_S = 1 ms (a lagging clock moves absolute times by ~1e-5 s at 5 h);
+ * - two beams: the plane stage runs on the window, its ω0 from the window's paired passes (second order in the
+ *   azimuth and b): azimuth ≤ 2.0e-5° (plane-anisotropic-push; ≤ 1.8e-6° on the others), AZIMUTH_DEG = 1e-4;
+ *   signed minor axis ≤ 5.3e-9 m (plane-anisotropic-push; ≤ 7e-11 m on the others), MINOR_M = 5e-8; semi-major
+ *   axis ≤ 9.0e-5 relative (plane-anisotropic-push; ≤ 4.8e-6 on the others), SEMI_MAJOR_REL = 3e-4.
  */
 const CLOCK_PPM = 0.05;
 const PERIOD_REL = 1e-7;
 const AMPLITUDE_REL = 1e-4;
 const SLOW_BAND = 0.1;
 const MATCH_S = 1e-3;
+const AZIMUTH_DEG = 1e-4;
+const MINOR_M = 5e-8;
+const SEMI_MAJOR_REL = 3e-4;
 /** Where the live state is compared: fractions of the journal's entries. */
 const POINTS = [0.1, 0.37, 0.64, 0.9, 1];
 
@@ -40,6 +47,29 @@ const rel = (a: number, b: number): number => Math.abs(a / b - 1);
 function medianHalf(r: AnalysisResult): number {
   const h = r.swings.map((s) => s.half_period_s).filter((x): x is number => x !== null).sort((a, b) => a - b);
   return h[h.length >> 1]!;
+}
+
+/** Two beams: the live plane at each pass is the batch's plane stage at that pass (rows and plot series); returns the passes compared. */
+function comparePlane(l: LiveState, r: AnalysisResult, where: string): { passes: number; semiMajor: number } {
+  expect(l.plane === null, where).toBe(r.plane === null || r.plane === undefined);
+  if (!l.plane) return { passes: 0, semiMajor: 0 };
+  let semiMajor = 0;
+  const pl = l.plane;
+  const series = r.plots.plane!;
+  for (let i = 0; i < pl.t_s.length; i++) {
+    const row = r.swings.find((s) => Math.abs(s.t_s - pl.t_s[i]!) < MATCH_S);
+    expect(row?.azimuth_deg, `${where}: plane at ${pl.t_s[i]} s`).toBeTypeOf('number');
+    const dAz = Math.abs(pl.azimuth_deg[i]! - row!.azimuth_deg!);
+    const dB = Math.abs(pl.minor_axis_m[i]! - row!.minor_axis_m!);
+    expect(dAz, where).toBeLessThanOrEqual(AZIMUTH_DEG);
+    expect(dB, where).toBeLessThanOrEqual(MINOR_M);
+    const k = series.t_s.findIndex((t) => Math.abs(t - pl.t_s[i]!) < MATCH_S);
+    // The plot series is thinned to 2000 points on long runs: the semi-major axis where the pass is in it.
+    if (k < 0) continue;
+    expect(rel(pl.semi_major_m[i]!, series.semi_major_m[k]!), where).toBeLessThanOrEqual(SEMI_MAJOR_REL);
+    semiMajor++;
+  }
+  return { passes: pl.t_s.length, semiMajor };
 }
 
 /** Compares one live snapshot with the full result of the same entries; returns what the checks looked at. */
@@ -91,13 +121,24 @@ describe('the live state is the full analysis of the newest passes', () => {
       const entries = entriesOf(name);
       const p = createRunPipeline();
       let k = 0;
+      const plane = { passes: 0, semiMajor: 0 };
       for (const f of POINTS) {
         const cut = Math.floor(entries.length * f);
         feed(p, entries, k, cut);
         k = cut;
+        // The result first: live amplitudes use the gate delay it calibrated.
         const r = p.result();
-        const { shown } = compare(p.live(), r, `${name} at ${f}`);
+        const l = p.live();
+        const { shown } = compare(l, r, `${name} at ${f}`);
+        const c = comparePlane(l, r, `${name} at ${f}`);
+        plane.passes += c.passes;
+        plane.semiMajor += c.semiMajor;
         expect(shown).toBeGreaterThan(0);
+      }
+      // Every two-beam scenario shows its plane live (a window of 160 passes keeps ~100 measured after the warm-up).
+      if (name.startsWith('plane-')) {
+        expect(plane.passes, `${name}: plane passes compared`).toBeGreaterThan(100);
+        expect(plane.semiMajor, `${name}: semi-major axes compared`).toBeGreaterThan(50);
       }
     }, 120_000);
   }
