@@ -26,6 +26,10 @@ export class DeviceIntake {
   /** A readings with the boot and ticks at which the sensor was read (placed on the passes' timebase by `roomOn`). */
   readonly room: (Omit<RoomReading, 't_s'> & { readonly boot: number; readonly ticks: number })[] = [];
   hello: LiveHello | null = null;
+  /** The room sensor's state from its last `S` record since the last hello (0: reading; SENSOR_FAULTS bits), or null. */
+  sensorState: number | null = null;
+  /** Host time of the last `A` record (the live view shows the reading's age). */
+  lastRoomHostUs: number | null = null;
   /** Input levels bitmask and host time of the last heartbeat. */
   levels: number | null = null;
   lastBeatHostUs: number | null = null;
@@ -64,12 +68,18 @@ export class DeviceIntake {
         this.timebase.hello(rec.hz);
         this.helloHostUs = hostUs;
         this.hello = { fw: rec.fw, mcu: rec.mcu, hz: rec.hz, ch: rec.ch, proto: rec.proto, boot: rec.boot.toString(16).padStart(4, '0') };
+        // A device with a room sensor interface follows every hello with its state; one without never sends it.
+        this.sensorState = null;
+        return;
+      case 'S':
+        this.sensorState = rec.state;
         return;
       case 'E':
         return this.edge(hostUs, rec);
       case 'A': {
         const ticks = this.timebase.timed(hostUs, rec.ticks);
         this.room.push({ boot: this.timebase.boot, ticks, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
+        this.lastRoomHostUs = hostUs;
         return;
       }
       case 'T':

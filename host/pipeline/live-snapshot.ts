@@ -7,11 +7,12 @@
 // run this keeps it near a ms per second; the rate it leaves out moves by far less than its uncertainty (a 10 h run's
 // host fit moved 1.3 ppm in 9 h, so a lag of 0.1 % of the run moves periods by ~1e-9).
 import type { Rig } from '../../protocol/rig.ts';
+import { airDensityCipm2007 } from '../analysis/air-density.ts';
 import { hostCalibrationStart, type ClockOption } from './clock-choice.ts';
 import type { RunClock } from './clock-inputs.ts';
 import type { DeviceIntake } from './device-intake.ts';
 import { LIVE_MIN_VALID, LIVE_WINDOW, LIVE_WINDOW_MAX, liveSwing, type LiveSwing } from './live-estimator.ts';
-import type { LiveClock, LiveState } from './live-state.ts';
+import type { LiveClock, LiveRoom, LiveState } from './live-state.ts';
 import type { SequencingOptions } from './pass-sequencing.ts';
 
 /** The live clock is chosen again when the heartbeats and pulses grew by this fraction since the last choice. */
@@ -29,6 +30,15 @@ function liveClockOf(option: ClockOption, rc: RunClock): LiveClock {
   // A foreign timebase (a simulator faster than real time) stays nominal: no calibration is coming.
   const auto = option === undefined && c.foreign_rate === undefined && (c.source === 'nominal' || c.source === 'host');
   return { source: c.source, ppm: c.ppm, u_ppm: c.u_ppm, hostCalibrationFrom_s: auto ? hostCalibrationStart(rc.beats) : null };
+}
+
+/** The room sensor's state and latest reading; null when the run has shown no sensor. */
+function liveRoomOf(intake: DeviceIntake): LiveRoom | null {
+  const last = intake.room.at(-1);
+  if (intake.sensorState === null && !last) return null;
+  const at = intake.lastRoomHostUs;
+  const reading = last && at !== null ? { tempC: last.tempC, pressPa: last.pressPa, rhPct: last.rhPct, airDensity_kg_m3: airDensityCipm2007(last), host_s: at / 1e6 } : null;
+  return { sensorState: intake.sensorState, reading };
 }
 
 /** Live snapshots of `intake` under the pipeline's clock option and sequencing. */
@@ -88,6 +98,7 @@ export function liveSnapshots(intake: DeviceIntake, rig: () => Rig | null, optio
         counts: intake.health.counts(a?.counts ?? null),
         lineRejections: intake.health.lineRejections(),
         recent: s.recent,
+        room: liveRoomOf(intake),
         plane: s.plane,
       };
     },

@@ -37,6 +37,22 @@ export interface LivePlane {
   readonly semi_major_m: readonly number[];
 }
 
+/** The room as the board's sensor reports it: its state and latest reading. */
+export interface LiveRoom {
+  /** From the last `S` record since the last hello: 0 reading, else the fault bits of SENSOR_FAULTS; null when none came. */
+  readonly sensorState: number | null;
+  /** The latest `A` reading as sent, with the air density of those conditions; null before the first one. */
+  readonly reading: {
+    readonly tempC: number;
+    readonly pressPa: number;
+    readonly rhPct: number;
+    /** CIPM-2007 at the reading's conditions (host/analysis/air-density.ts). */
+    readonly airDensity_kg_m3: number;
+    /** When it arrived, host seconds since `#start` (the view shows its age against its own "now"). */
+    readonly host_s: number;
+  } | null;
+}
+
 /** The newest pass and what the sequencing made of it (`unsequenced` when the swing no longer clears the beam). */
 export interface LivePass {
   readonly t_s: number;
@@ -84,6 +100,8 @@ export interface LiveState {
   /** Device lines rejected by the decoder, by reason. */
   readonly lineRejections: Readonly<Partial<Record<RejectReason, number>>>;
   readonly recent: LiveRecent;
+  /** The room sensor; null while the run has shown none (no `S` or `A` record). */
+  readonly room: LiveRoom | null;
   /** The swing plane of the newest passes; null for a one-beam run. */
   readonly plane: LivePlane | null;
 }

@@ -6,7 +6,9 @@ export interface Layout {
   /** Width of the numbers column (left); the plots take the rest. */
   readonly numbersWidth: number;
   readonly plotWidth: number;
-  /** Lines of each of the two stacked charts. */
+  /** Lines between the status lines and the bottom lines: the numbers column and the charts. */
+  readonly bodyHeight: number;
+  /** Lines of the first of the two stacked charts (the second takes the rest of the body). */
   readonly chartHeight: number;
   readonly statusLines: number;
 }
@@ -16,16 +18,19 @@ export const MIN_HEIGHT = 24;
 /** Lines outside the body: status, health, warning, footer (status takes two). */
 const CHROME_LINES = 5;
 
-/** Divides the terminal; never smaller than 80×24 so the frame never outgrows a standard terminal's layout. */
-export function layoutFor(columns: number | undefined, rows: number | undefined): Layout {
+/**
+ * Divides the terminal; never smaller than 80×24 so the frame never outgrows a standard terminal's layout.
+ * `extraLines`: full-width lines shown only for some runs (the room line), taken from the body.
+ */
+export function layoutFor(columns: number | undefined, rows: number | undefined, extraLines = 0): Layout {
   const width = Math.max(MIN_WIDTH, Math.floor(columns ?? MIN_WIDTH));
   // One line short of the terminal: a frame as tall as the screen makes ink clear the scrollback on every render.
   const height = Math.max(MIN_HEIGHT - 1, Math.floor((rows ?? MIN_HEIGHT) - 1));
   const numbersWidth = width >= 120 ? 44 : 38;
   const plotWidth = width - numbersWidth - 1;
-  const body = height - CHROME_LINES;
+  const body = height - CHROME_LINES - extraLines;
   const chartHeight = Math.max(6, Math.floor(body / 2));
-  return { width, height, numbersWidth, plotWidth, chartHeight, statusLines: 2 };
+  return { width, height, numbersWidth, plotWidth, bodyHeight: body, chartHeight, statusLines: 2 };
 }
 
 /** True when a terminal of this size cannot hold the frame (an unknown size is taken as large enough). */

@@ -111,7 +111,7 @@ function isHello(line: string): boolean {
   return d.ok && d.record.kind === 'H';
 }
 
-/** The swing facts of the restarted estimates, with the device and health facts of the whole run. */
+/** The swing facts of the restarted estimates, with the device, room and health facts of the whole run. */
 export function mergeLive(whole: LiveState, since: LiveState): LiveState {
   return {
     ...since,
@@ -122,6 +122,7 @@ export function mergeLive(whole: LiveState, since: LiveState): LiveState {
     levels: whole.levels,
     blocked: whole.blocked,
     counts: whole.counts,
+    room: whole.room,
   };
 }
 

@@ -8,6 +8,8 @@ import { expectsLines, type FeedStatus } from './feed.ts';
 import { formatBytes, formatDuration, formatFixed, formatSpeed, formatWithU } from './format.ts';
 import { gateNote } from '../output/gate-words.ts';
 import { warningsFor, type ViewWarning } from './warnings.ts';
+import { planeView, type PlaneView } from './view-plane.ts';
+import { roomLine, type RoomLine } from './view-room.ts';
 
 /** Everything the screen is drawn from. */
 export interface ViewInput {
@@ -68,6 +70,10 @@ export interface ViewModel {
   /** Amplitude (°) against time (min), and the fitted decay. */
   readonly amplitudePoints: PlotData;
   readonly amplitudeCurve: PlotData;
+  /** Two-beam runs: the swing plane's figures and top view; null for one beam. */
+  readonly plane: PlaneView | null;
+  /** The room sensor's line; null when the run has none. */
+  readonly room: RoomLine | null;
 }
 
 const STANDARD_G = 9.80665;
@@ -267,5 +273,7 @@ export function buildViewModel(input: ViewInput): ViewModel {
     health,
     warnings,
     ...plots(result),
+    plane: planeView(live.plane, result, rig),
+    room: roomLine(live.room, input.now_s),
   };
 }

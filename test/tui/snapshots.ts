@@ -15,7 +15,7 @@ export interface Recorded {
 
 const here = dirname(fileURLToPath(import.meta.url));
 
-export function loadRecorded(name: 'snapshot-demo-120s' | 'snapshot-night-reboot'): Recorded {
+export function loadRecorded(name: 'snapshot-demo-120s' | 'snapshot-night-reboot' | 'snapshot-plane-room'): Recorded {
   return JSON.parse(readFileSync(join(here, 'fixtures', `${name}.json`), 'utf8')) as Recorded;
 }
 

@@ -21,8 +21,8 @@ class FakeTerminal extends EventEmitter {
   };
 }
 
-async function frameAt(columns: number, rows: number, resizeTo?: [number, number]): Promise<string[]> {
-  const rec = loadRecorded('snapshot-night-reboot');
+async function frameAt(columns: number, rows: number, resizeTo?: [number, number], fixture: Parameters<typeof loadRecorded>[0] = 'snapshot-night-reboot'): Promise<string[]> {
+  const rec = loadRecorded(fixture);
   const out = new FakeTerminal(columns, rows);
   const inst = render(<App store={fixedStore(rec.snapshot)} status={() => demoStatus()} nowMs={() => 0} onEffect={() => {}} interactive={false} />, {
     stdout: out as unknown as NodeJS.WriteStream,
@@ -50,6 +50,21 @@ describe('frame size', () => {
     expect(lines.length).toBeLessThanOrEqual(23);
     expect(lines.length).toBeGreaterThanOrEqual(20);
     for (const l of lines) expect(cols(l)).toBeLessThanOrEqual(80);
+  });
+
+  it('fits 80×24 with the plane panel and the room line, the two extras of a two-beam run with a room sensor', async () => {
+    for (const size of [
+      [80, 24],
+      [140, 40],
+    ] as const) {
+      const lines = await frameAt(size[0], size[1], undefined, 'snapshot-plane-room');
+      expect(lines.length).toBeLessThanOrEqual(size[1] - 1);
+      for (const l of lines) expect(cols(l)).toBeLessThanOrEqual(size[0]);
+      // Every part is still there: both charts' x axes, the whole top view box, the room line and the keys.
+      const f = lines.join('\n');
+      for (const part of ['amplitude θ0 (°)', 'time (min)', 'azimuth', 'box', 'room ', 'health', 'q  quit']) expect(f, `${size}: ${part}`).toContain(part);
+      expect(lines.filter((l) => l.startsWith('┌') || l.startsWith('└─')).length).toBeGreaterThanOrEqual(2);
+    }
   });
 
   it('uses a larger terminal: wider plots and taller charts', async () => {

@@ -11,6 +11,8 @@ import { ChartBox } from './chart-box.tsx';
 import { Footer, HealthLine, WarningLine } from './footer.tsx';
 import { HelpPanel } from './help-panel.tsx';
 import { NumbersPanel } from './numbers-panel.tsx';
+import { PlanePanel } from './plane-panel.tsx';
+import { RoomLineView } from './room-line.tsx';
 import { StatusBar } from './status-bar.tsx';
 
 export interface AppProps {
@@ -41,7 +43,7 @@ function chartSpecs(vm: ViewModel, L: Layout): { periodChart: ChartSpec; amplitu
   };
   const amplitudeChart: ChartSpec = {
     width: L.plotWidth,
-    height: L.height - L.statusLines - 3 - L.chartHeight,
+    height: L.bodyHeight - L.chartHeight,
     x: { label: 'time (min)', minSpan: 0.5 },
     y: { label: `amplitude θ0 (°)  ⠂ data  ─ ${vm.amplitudeCurve.xs.length ? 'fitted decay' : 'fit to come'}`, minSpan: 0.5 },
     series: [
@@ -104,19 +106,22 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
     restartedAt_s: snap.restartedAt_s,
     paused: ui.paused,
   });
-  const L = layoutFor(stdout.columns, stdout.rows);
+  const L = layoutFor(stdout.columns, stdout.rows, vm.room ? 1 : 0);
 
   const { periodChart, amplitudeChart } = chartSpecs(vm, L);
 
   return (
     <Box flexDirection="column" width={L.width}>
       <StatusBar title={vm.title} items={vm.status} width={L.width} />
-      <Box flexDirection="row" height={L.height - L.statusLines - 3}>
+      <Box flexDirection="row" height={L.bodyHeight}>
         {ui.mode.kind === 'help' ? (
           <HelpPanel warnings={vm.warnings} width={L.width} />
         ) : (
           <>
-            <NumbersPanel rows={vm.numbers} width={L.numbersWidth} />
+            <Box flexDirection="column" width={L.numbersWidth}>
+              <NumbersPanel rows={vm.numbers} width={L.numbersWidth} />
+              {vm.plane ? <PlanePanel plane={vm.plane} /> : null}
+            </Box>
             <Box width={1} />
             <Box flexDirection="column" width={L.plotWidth}>
               <ChartBox spec={periodChart} />
@@ -125,6 +130,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
           </>
         )}
       </Box>
+      {vm.room ? <RoomLineView room={vm.room} width={L.width} /> : null}
       <HealthLine items={vm.health} />
       <WarningLine warnings={vm.warnings} />
       <Footer ui={ui} />
