@@ -18,6 +18,9 @@ export function plainStatusLine(vm: ViewModel): string {
     `T0=${num('T0')}`,
     `g=${num('g')}`,
     `Q=${num('Q')}`,
+    // Two beams: the swing's axis and its turning rate; a room sensor: its line as on screen.
+    ...(vm.plane ? vm.plane.rows.filter((r) => r.label !== 'box').map((r) => `${r.label.replace(' °/h', '')}=${r.value.replace(/ ± /g, '±')}${r.label.endsWith('°/h') ? ' °/h' : ''}`) : []),
+    ...(vm.room ? [`room=${vm.room.items.map((it) => `${it.label} ${it.value}`).join(', ')}`] : []),
     counts,
   ];
   const warn = vm.warnings.map((w) => `! ${w.text}`).join('  ');

@@ -25,11 +25,12 @@ export interface PlaneView {
 
 const RAD = Math.PI / 180;
 
-/** `+1.2 mm ↺`: the bob goes round counterclockwise seen from above when the minor axis is positive. */
+/** `+1.2 mm ↺`: the bob goes round counterclockwise seen from above when the minor axis is positive; no sense shown at 0.0. */
 function minorText(b_m: number | undefined): string {
   if (b_m === undefined) return '—';
-  const turn = b_m > 0 ? ' ↺' : b_m < 0 ? ' ↻' : '';
-  return `${formatFixed(b_m * 1000, 1, true)} mm${turn}`;
+  const mm = formatFixed(b_m * 1000, 1, true);
+  const turn = Number(mm) > 0 ? ' ↺' : Number(mm) < 0 ? ' ↻' : '';
+  return `${mm} mm${turn}`;
 }
 
 /** Null for a one-beam run (no live plane). The turning rate is the full result's (`plane`), '—' until it has one. */
@@ -44,7 +45,8 @@ export function planeView(plane: LivePlane | null, result: AnalysisResult, rig: 
   const s = result.plane ?? null;
   const rows: PlaneRow[] = [
     { label: 'azimuth', value: n ? `${formatFixed(plane.azimuth_deg[n - 1], 1, true)}°` : '—' },
-    { label: 'turning', value: s ? `${formatWithU(s.precession_deg_per_h, s.precession_u_deg_per_h, 2)} °/h` : '—' },
+    // The unit in the label: a rate known to 1e-3 °/h still fits beside the top view.
+    { label: 'turn °/h', value: s ? formatWithU(s.precession_deg_per_h, s.precession_u_deg_per_h, 2) : '—' },
     { label: 'minor', value: minorText(plane.minor_axis_m.at(-1)) },
     { label: 'box', value: `±${formatFixed(halfSpan_m * 1000, 0)} mm, 0° →` },
   ];

@@ -4,7 +4,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, render } from 'ink-testing-library';
 import { App } from '../../host/tui/components/app.tsx';
 import { plusMinus } from '../../host/output/value-u.ts';
-import { demoStatus, fixedStore, frameWhere, loadRecorded } from './snapshots.ts';
+import { demoStatus, fixedStore, frameWhere, loadRecorded, tick } from './snapshots.ts';
 
 afterEach(() => cleanup());
 
@@ -22,17 +22,17 @@ describe('plane panel and room line on screen', () => {
     const lines = plain(await frameWhere(r.lastFrame, (x) => x.includes('azimuth')));
     const pl = rec.snapshot.live.plane!;
     const s = rec.snapshot.result.plane!;
-    const top = lines.findIndex((l) => l.startsWith('┌──────────┐'));
+    const top = lines.findIndex((l) => l.startsWith('┌────────┐'));
     expect(top).toBeGreaterThan(0);
     // Four lines of braille inside the box, the figures to its right.
     const inside = lines.slice(top + 1, top + 5);
-    for (const l of inside) expect(l).toMatch(/^│[\u2800-\u28ff ]{10}│/);
+    for (const l of inside) expect(l).toMatch(/^│[\u2800-\u28ff ]{8}│/);
     expect(inside.join('')).toMatch(/[\u2801-\u28ff]/);
-    expect(lines[top + 5]).toMatch(/^└──────────┘/);
+    expect(lines[top + 5]).toMatch(/^└────────┘/);
     const f = lines.join('\n');
-    expect(f).toContain(`azimuth +${pl.azimuth_deg.at(-1)!.toFixed(1)}°`);
-    expect(f).toContain(`turning ${plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h)} °/h`);
-    expect(f).toContain(`minor   +${(pl.minor_axis_m.at(-1)! * 1000).toFixed(1)} mm ↺`);
+    expect(f).toContain(`azimuth  +${pl.azimuth_deg.at(-1)!.toFixed(1)}°`);
+    expect(f).toContain(`turn °/h ${plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h)}`);
+    expect(f).toContain(`minor    +${(pl.minor_axis_m.at(-1)! * 1000).toFixed(1)} mm ↺`);
   });
 
   it('shows the room line above the health line', async () => {
@@ -44,11 +44,22 @@ describe('plane panel and room line on screen', () => {
     expect(lines[at]).toContain(`room ${rd.tempC.toFixed(2)} °C · ${(rd.pressPa / 100).toFixed(2)} hPa · ${rd.rhPct.toFixed(1)} %RH · air ${rd.airDensity_kg_m3.toFixed(3)} kg/m³ · read 0:0`);
   });
 
-  it('a one-beam run without a room sensor shows neither', async () => {
-    const { r } = show('snapshot-demo-120s');
-    const f = await frameWhere(r.lastFrame, (x) => x.includes('passes'));
-    expect(f).not.toContain('azimuth');
-    expect(f).not.toContain('┌');
-    expect(plain(f).some((l) => l.startsWith('room '))).toBe(false);
+  it('a one-beam run without a room sensor shows neither, nor their terms in the help', async () => {
+    for (const [name, shown] of [
+      ['snapshot-demo-120s', false],
+      ['snapshot-plane-room', true],
+    ] as const) {
+      const { r } = show(name);
+      const f = await frameWhere(r.lastFrame, (x) => x.includes('passes'));
+      expect(f.includes('azimuth'), name).toBe(shown);
+      expect(f.includes('┌'), name).toBe(shown);
+      expect(plain(f).some((l) => l.startsWith('room ')), name).toBe(shown);
+      await tick();
+      r.stdin.write('?');
+      const help = plain(await frameWhere(r.lastFrame, (x) => x.includes('terms')));
+      expect(help.some((l) => l.startsWith('  top view')), name).toBe(shown);
+      expect(help.some((l) => l.startsWith('  room ')), name).toBe(shown);
+      r.unmount();
+    }
   });
 });

@@ -7,6 +7,7 @@ import { plusMinus } from '../../host/output/value-u.ts';
 import { buildViewModel, type ViewInput } from '../../host/tui/view-model.ts';
 import { TOP_VIEW_PASSES, planeView } from '../../host/tui/view-plane.ts';
 import { roomLine } from '../../host/tui/view-room.ts';
+import { plainStatusLine } from '../../host/tui/plain-status.ts';
 import { demoStatus, loadRecorded } from './snapshots.ts';
 
 function input(name: Parameters<typeof loadRecorded>[0], over: Partial<ViewInput> = {}): ViewInput {
@@ -24,7 +25,7 @@ describe('plane panel (view model)', () => {
     expect(n).toBeGreaterThan(TOP_VIEW_PASSES);
     expect(rowOf(vm.plane!.rows, 'azimuth')).toBe(`${pl.azimuth_deg[n - 1]! >= 0 ? '+' : ''}${pl.azimuth_deg[n - 1]!.toFixed(1)}°`);
     const s = i.result.plane!;
-    expect(rowOf(vm.plane!.rows, 'turning')).toBe(`${plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h)} °/h`);
+    expect(rowOf(vm.plane!.rows, 'turn °/h')).toBe(plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h));
     expect(vm.plane!.paths).toHaveLength(TOP_VIEW_PASSES);
     expect(vm.plane!.paths.at(-1)).toEqual({ azimuth_rad: (pl.azimuth_deg[n - 1]! * Math.PI) / 180, a_m: pl.semi_major_m[n - 1]!, b_m: pl.minor_axis_m[n - 1]! });
     // The rig's beams at ±45°: their lines (square to the normals) at 135° and 45°.
@@ -52,7 +53,9 @@ describe('plane panel (view model)', () => {
     const flipped = { ...pl, minor_axis_m: pl.minor_axis_m.map((b) => -b) };
     const v = planeView(flipped, { ...i.result, plane: null }, i.rig)!;
     expect(rowOf(v.rows, 'minor')).toMatch(/^-\d+\.\d mm ↻$/);
-    expect(rowOf(v.rows, 'turning')).toBe('—');
+    expect(rowOf(v.rows, 'turn °/h')).toBe('—');
+    // A minor axis that rounds to 0.0 mm has no sense to show.
+    expect(rowOf(planeView({ ...pl, minor_axis_m: pl.minor_axis_m.map(() => 3e-5) }, i.result, i.rig)!.rows, 'minor')).toBe('0.0 mm');
     expect(buildViewModel(input('snapshot-demo-120s')).plane).toBeNull();
   });
 });
@@ -106,5 +109,20 @@ describe('room line (view model)', () => {
     expect(roomLine({ sensorState: 0, reading: null }, 0)).toEqual({ items: [{ label: 'room', value: 'sensor ready, first reading to come' }], tone: 'muted' });
     expect(roomLine(null, 0)).toBeNull();
     expect(buildViewModel(input('snapshot-night-reboot')).room).toBeNull();
+  });
+});
+
+describe('plain status line (no terminal)', () => {
+  it('adds the axis, its turning rate and the room to the line of a two-beam run with a sensor, nothing to a one-beam run', () => {
+    const i = input('snapshot-plane-room');
+    const line = plainStatusLine(buildViewModel(i));
+    const pl = i.live.plane!;
+    const s = i.result.plane!;
+    expect(line).toContain(`azimuth=+${pl.azimuth_deg.at(-1)!.toFixed(1)}°`);
+    expect(line).toContain(`turn=${plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h).replace(' ± ', '±')} °/h`);
+    expect(line).toMatch(/minor=\+\d\.\d mm ↺/);
+    expect(line).toContain(`air ${i.live.room!.reading!.airDensity_kg_m3.toFixed(3)} kg/m³`);
+    const one = plainStatusLine(buildViewModel(input('snapshot-demo-120s')));
+    expect(one).not.toMatch(/azimuth=|room=/);
   });
 });

@@ -115,7 +115,7 @@ export function App({ store, status, nowMs, onEffect, interactive }: AppProps): 
       <StatusBar title={vm.title} items={vm.status} width={L.width} />
       <Box flexDirection="row" height={L.bodyHeight}>
         {ui.mode.kind === 'help' ? (
-          <HelpPanel warnings={vm.warnings} width={L.width} />
+          <HelpPanel warnings={vm.warnings} width={L.width} plane={vm.plane !== null} room={vm.room !== null} />
         ) : (
           <>
             <Box flexDirection="column" width={L.numbersWidth}>

@@ -19,7 +19,12 @@ const TERMS: readonly [string, string][] = [
   ['Q', 'quality factor: π·θ0/Δθ0 per cycle at the median amplitude'],
 ];
 
-export function HelpPanel({ warnings, width }: { readonly warnings: readonly ViewWarning[]; readonly width: number }): React.JSX.Element {
+/** Terms of the panels only some runs have: shown only when the run has them. */
+const PLANE_TERM: readonly [string, string] = ['top view', 'from above, 0° to the right; newest pass bright; beam lines dotted'];
+const ROOM_TERM: readonly [string, string] = ['room', 'the board sensor’s latest reading; air: its density by CIPM-2007'];
+
+export function HelpPanel({ warnings, width, plane = false, room = false }: { readonly warnings: readonly ViewWarning[]; readonly width: number; readonly plane?: boolean; readonly room?: boolean }): React.JSX.Element {
+  const terms = [...TERMS, ...(plane ? [PLANE_TERM] : []), ...(room ? [ROOM_TERM] : [])];
   return (
     <Box flexDirection="column" width={width}>
       <Text bold color="cyan">
@@ -34,7 +39,7 @@ export function HelpPanel({ warnings, width }: { readonly warnings: readonly Vie
       <Text bold color="cyan">
         terms
       </Text>
-      {TERMS.map(([k, t]) => (
+      {terms.map(([k, t]) => (
         <Text key={k} wrap="truncate">
           {`  ${k.padEnd(13)}`}
           <Text color="gray">{t}</Text>
