@@ -1,7 +1,7 @@
 // `combine`'s text summary and its --json object (the keys of issue #17's contract, then the budget).
 import type { Combined, ReversibleCombined, TwoLengthCombined } from '../analysis/combine.ts';
 import type { BudgetLine } from '../analysis/result.ts';
-import { plusMinus } from './value-u.ts';
+import { plusMinus, quoteU } from './value-u.ts';
 
 /** The --json object: the contract's keys first, then the budget and the expected g. */
 export function combineJson(c: Combined): Record<string, unknown> {
@@ -38,7 +38,7 @@ function budgetLines(rows: readonly BudgetLine[], extra: (b: BudgetLine) => stri
 }
 
 function gLines(c: Combined): string[] {
-  const out = [`  g                ${plusMinus(c.g_m_s2, c.g_u_m_s2, ' m/s²')}   (k = 1; expanded k = 2: ± ${(2 * c.g_u_m_s2).toPrecision(2)} m/s²)`];
+  const out = [`  g                ${quoteU(c.g_m_s2, c.g_u_m_s2, ' m/s²', { expanded: true })}`];
   out.push(`  relative u       ${(c.g_u_m_s2 / c.g_m_s2).toExponential(1)}`);
   if (c.expected_g_m_s2 !== null)
     out.push(`  expected g       ${c.expected_g_m_s2.toFixed(6)} m/s² (WGS-84 normal gravity; local anomalies are often ~1e-4 g): difference ${((c.g_m_s2 - c.expected_g_m_s2) / c.g_u_m_s2).toFixed(1)} σ`);

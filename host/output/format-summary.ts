@@ -2,7 +2,7 @@
 import type { AnalysisResult } from '../analysis/result.ts';
 import { duration } from '../report/format.ts';
 import { gateFigure } from './gate-words.ts';
-import { plusMinus } from './value-u.ts';
+import { plusMinus, quoteU } from './value-u.ts';
 import { warningText } from './warning-words.ts';
 
 const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
@@ -13,12 +13,12 @@ export function formatSummary(r: AnalysisResult, journalName: string): string {
   L.push(`halfswing analysis of ${journalName}`);
   L.push(`  run              ${r.run.start_iso ?? 'start unknown'}, ${r.run.duration_s >= 3600 ? `${(r.run.duration_s / 3600).toFixed(2)} h` : duration(r.run.duration_s)}, firmware ${r.run.firmware ?? '?'}`);
   L.push(`  passes           ${r.passes} valid, ${r.periods} full periods`);
-  L.push(`  T0               ${plusMinus(r.T0_s, r.T0_u_s, ' s')}   (zero amplitude, exact law 2K/π)`);
-  L.push(`  g                ${plusMinus(r.g_m_s2, r.g_u_m_s2, ' m/s²')}   (k = 1; expanded k = 2: ± ${fix(r.g_u_m_s2 !== null ? 2 * r.g_u_m_s2 : null, 5)})`);
+  L.push(`  T0               ${quoteU(r.T0_s, r.T0_u_s, ' s')}   (zero amplitude, exact law 2K/π)`);
+  L.push(`  g                ${quoteU(r.g_m_s2, r.g_u_m_s2, ' m/s²', { expanded: true })}`);
   if (r.expected_g_m_s2 !== null)
     L.push(`  expected g       ${r.expected_g_m_s2.toFixed(6)} m/s² (WGS-84 normal gravity; local anomalies are often ~1e-4 g): difference ${fix(r.g_diff_sigma, 2)} σ`);
   L.push(`  clock            ${plusMinus(r.clock_ppm, r.clock_u_ppm, ' ppm')} (${r.clock_source})${r.clock_drift_ppm_per_h !== null ? `, drift ${r.clock_drift_ppm_per_h.toFixed(3)} ppm/h` : ''}`);
-  L.push(`  amplitude        ${fix(r.amplitude_start_deg, 3, '°')} → ${fix(r.amplitude_end_deg, 3, '°')}`);
+  L.push(`  amplitude        ${plusMinus(r.amplitude_start_deg, r.amplitude_start_u_deg, '°', 5)} → ${plusMinus(r.amplitude_end_deg, r.amplitude_end_u_deg, '°', 5)}`);
   if (r.amplitude_sensitivity)
     L.push(
       `  sensitivity      at ${r.amplitude_sensitivity.at_amplitude_deg.toFixed(2)}°: ${r.amplitude_sensitivity.per_width_deg_per_mm.toFixed(4)}°/mm of flag width, ${r.amplitude_sensitivity.per_delay_difference_deg_per_us.toExponential(2)}°/µs of on/off delay difference`,
@@ -36,5 +36,6 @@ export function formatSummary(r: AnalysisResult, journalName: string): string {
     `  counts           crc errors ${c.crc_errors}, lines lost ${c.lines_lost}, device lost ${c.device_lost}, rejected passes ${c.rejected_passes}, bridged gaps ${c.bridged_gaps}, reboots ${c.reboots}, disconnects ${c.disconnects}`,
   );
   for (const w of r.warnings) L.push(`  warning: ${warningText(w)}`);
+  L.push('  ± is one standard uncertainty (k = 1); an expanded one is labelled k = 2');
   return `${L.join('\n')}\n`;
 }

@@ -3,7 +3,9 @@
 // Rule (GUM, JCGM 100:2008 §7.2.6): the uncertainty u to two significant digits, the value rounded at the same
 // decimal place; from u ≥ 10 that place is left of the point (6012 ± 312 → 6010 ± 310). From a million up both
 // share a power of ten (1.24e18 ± 0.31e18). Without a usable u, the value alone to `sigWithout` significant digits.
-// Uncertainties are standard (k = 1) unless a caller labels them otherwise.
+// Coverage: every view shows the standard uncertainty u (k = 1); where it also shows the expanded uncertainty
+// U = 2u, that is labelled k = 2 and rounded by the same rule (U to two digits, the value at U's place), through
+// `roundAtK` and `quoteU` below, never by a caller's own toFixed/toPrecision.
 
 /** From here up, digits stop being readable: value and u get a shared power of ten. */
 const BIG = 1e6;
@@ -11,7 +13,9 @@ const BIG = 1e6;
 /** Decimal places that show `u` to two significant digits (negative: round to tens, hundreds…). */
 export function decimalsForU(u: number): number {
   if (!(u > 0) || !Number.isFinite(u)) return 0;
-  return 1 - Math.floor(Math.log10(u));
+  const d = 1 - Math.floor(Math.log10(u));
+  // A carry to a third digit (0.0998 → 0.100) moves the place one left: two digits, 0.10.
+  return Math.round(u * 10 ** d) >= 100 ? d - 1 : d;
 }
 
 /** `v` with `d` ≥ 0 decimals, "-0" shown as "0". */
@@ -50,4 +54,25 @@ export function plusMinus(v: number | null | undefined, u: number | null | undef
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
   const r = roundWithU(v, u, sigWithout);
   return `${r.value}${r.u !== null ? ` ± ${r.u}` : ''}${unit}`;
+}
+
+/** Coverage factor of a shown uncertainty: 1 for the standard uncertainty u, 2 for the expanded U = 2u. */
+export type Coverage = 1 | 2;
+
+const usable = (u: number | null | undefined): u is number => u !== null && u !== undefined && u > 0 && Number.isFinite(u);
+
+/** Value and k·u rounded together by the rule above (k = 2: U gets its own two digits, the value U's place). */
+export function roundAtK(v: number, u: number | null | undefined, k: Coverage, sigWithout = 6): { value: string; u: string | null } {
+  return roundWithU(v, usable(u) ? k * u : null, sigWithout);
+}
+
+/**
+ * The labelled form for a headline figure: "9.81272 ± 0.00056 m/s² (k = 1)", with `expanded` followed by
+ * "; expanded 9.8127 ± 0.0011 m/s² (k = 2)". Without a usable u the value alone, unlabelled.
+ */
+export function quoteU(v: number | null | undefined, u: number | null | undefined, unit = '', opts: { readonly expanded?: boolean } = {}): string {
+  const one = plusMinus(v, u, unit);
+  if (v === null || v === undefined || !Number.isFinite(v) || !usable(u)) return one;
+  const U = roundAtK(v, u, 2);
+  return `${one} (k = 1)${opts.expanded ? `; expanded ${U.value} ± ${U.u}${unit} (k = 2)` : ''}`;
 }

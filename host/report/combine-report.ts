@@ -3,7 +3,7 @@
 import type { Combined, ReversibleCombined, TwoLengthCombined } from '../analysis/combine.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import { polyAt } from '../analysis/tuning-series.ts';
-import { plusMinus } from '../output/value-u.ts';
+import { plusMinus, quoteU } from '../output/value-u.ts';
 import { esc } from './escape.ts';
 import { figure, linspace } from './plots/figure.ts';
 import { STYLES } from './styles.ts';
@@ -13,7 +13,7 @@ import { budgetTable } from './tables-section.ts';
 function resultBox(c: Combined): string {
   const rows: [string, string][] = [
     ['method', c.method === 'two-length' ? 'two lengths of one bob (only the differences of the readings count)' : c.crossing_position_m !== undefined ? "reversible pendulum, tuning series (g at the crossing T1 = T2)" : "reversible pendulum, Bessel's formula"],
-    ['g', `${plusMinus(c.g_m_s2, c.g_u_m_s2, ' m/s²')} (k = 1); expanded ± ${(2 * c.g_u_m_s2).toPrecision(2)} m/s² (k = 2)`],
+    ['g', quoteU(c.g_m_s2, c.g_u_m_s2, ' m/s²', { expanded: true })],
   ];
   if (c.method === 'two-length') rows.push(['length offset', plusMinus(c.length_offset_m * 1000, c.length_offset_u_m * 1000, ' mm')]);
   if (c.method === 'reversible' && c.crossing_position_m !== undefined && c.series) {

@@ -1,6 +1,6 @@
 // Number formatting for the report: a value and its uncertainty rounded together, fixed units, durations.
 
-import { roundWithU, significant } from '../output/value-u.ts';
+import { roundAtK, significant, type Coverage } from '../output/value-u.ts';
 
 const MINUS = '\u2212';
 
@@ -15,9 +15,9 @@ export function fixed(v: number, d: number): string {
   return signed(/^-0(\.0*)?$/.test(s) ? s.slice(1) : s);
 }
 
-/** Value ± uncertainty by the one rule of host/output/value-u.ts, with the report's typographic minus. */
-export function valueU(v: number, u: number | null): { value: string; u: string | null } {
-  const r = roundWithU(v, u);
+/** Value ± k·u by the one rule of host/output/value-u.ts (k = 1 unless asked), with the report's typographic minus. */
+export function valueU(v: number, u: number | null, k: Coverage = 1): { value: string; u: string | null } {
+  const r = roundAtK(v, u, k);
   return { value: signed(r.value), u: r.u === null ? null : signed(r.u) };
 }
 

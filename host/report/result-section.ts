@@ -1,4 +1,4 @@
-// The result box: T0, g with its expanded uncertainty, the expected local g, the clock correction; then the
+// The result box: T0 and g ± u (k = 1), g's expanded uncertainty (k = 2), the expected local g, the clock correction; then the
 // secondary results (B, C, gate offset, amplitudes, Q) and what could not be computed and why.
 import type { AnalysisResult } from '../analysis/result.ts';
 import { esc } from './escape.ts';
@@ -16,6 +16,8 @@ function pm(v: number, u: number | null, keyV: string, keyU: string, scale = 1):
 }
 
 const missing = '<span class="muted">not available</span>';
+/** The headline's coverage label: each ± there says its k (host/output/value-u.ts). */
+const K1 = ' <span class="k">(k = 1)</span>';
 
 const CLOCK_SOURCE: Record<AnalysisResult['clock_source'], string> = {
   host: 'fitted from heartbeats against the host clock (lower envelope of delay)',
@@ -26,15 +28,13 @@ const CLOCK_SOURCE: Record<AnalysisResult['clock_source'], string> = {
 
 /** The headline box. */
 export function resultBox(r: AnalysisResult): string {
-  const T0 = r.T0_s !== null ? `${pm(r.T0_s, r.T0_u_s, 'T0_s', 'T0_u_s')} s` : missing;
+  const T0 = r.T0_s !== null ? `${pm(r.T0_s, r.T0_u_s, 'T0_s', 'T0_u_s')} s${r.T0_u_s !== null ? K1 : ''}` : missing;
   let g = missing;
   if (r.g_m_s2 !== null) {
-    const U = r.g_u_m_s2 !== null ? 2 * r.g_u_m_s2 : null;
-    const f = valueU(r.g_m_s2, U);
-    const u = r.g_u_m_s2 !== null ? valueU(r.g_m_s2, r.g_u_m_s2).u : null;
+    const U = valueU(r.g_m_s2, r.g_u_m_s2, 2);
     g =
-      `${num('g_m_s2', f.value)}${f.u !== null ? ` <span class="pm">±</span> ${num('g_U_k2', f.u)}` : ''} m/s²` +
-      (u !== null ? `<span class="sub">U at k = 2; standard uncertainty u = ${num('g_u_m_s2', u)} m/s²</span>` : '');
+      `${pm(r.g_m_s2, r.g_u_m_s2, 'g_m_s2', 'g_u_m_s2')} m/s²${r.g_u_m_s2 !== null ? K1 : ''}` +
+      (U.u !== null ? `<span class="sub">expanded: ${num('g_m_s2', U.value)} <span class="pm">±</span> ${num('g_U_k2', U.u)} m/s² (k = 2)</span>` : '');
   }
   let expected = '<span class="muted">unknown: add latitude_deg and elevation_m to the rig file</span>';
   if (r.expected_g_m_s2 !== null) {
@@ -51,7 +51,7 @@ export function resultBox(r: AnalysisResult): string {
     `<div class="big"><dt>g, local acceleration of gravity</dt><dd>${g}</dd></div>` +
     `<div><dt>expected local g (WGS-84 normal gravity, free-air)</dt><dd>${expected}</dd></div>` +
     `<div><dt>clock correction used</dt><dd>${clock}</dd></div>` +
-    `</dl><p class="small">Uncertainties after “±” are standard uncertainties (k = 1) unless marked k = 2.</p></section>`
+    `</dl><p class="small">Uncertainties after “±” are standard uncertainties (k = 1); an expanded uncertainty is labelled k = 2.</p></section>`
   );
 }
 

@@ -27,7 +27,8 @@ code{font:13px "DejaVu Sans Mono",ui-monospace,monospace}
 .result dd .muted{font-size:13.5px}
 .result .big dd{font:600 26px/1.2 "DejaVu Sans",system-ui,sans-serif}
 .num{font-variant-numeric:tabular-nums}
-.pm{color:var(--muted);font-weight:400}
+.pm,.k{color:var(--muted);font-weight:400}
+.k{font-size:.55em}
 .sub{display:block;font:400 12.5px/1.35 "DejaVu Sans",system-ui,sans-serif;color:var(--muted);margin-top:2px}
 .missing{border:1px dashed var(--warn);padding:4px 18px 10px;margin-top:18px}
 .missing h2{color:var(--warn);border-bottom-color:transparent}

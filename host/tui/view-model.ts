@@ -187,6 +187,13 @@ function statusItems(input: ViewInput): StatusItem[] {
   return status;
 }
 
+/** The coverage label of a value shown with its standard uncertainty (as the summary and the report label it). */
+function coverage(v: number | null, u: number | null): string | undefined {
+  return v !== null && u !== null && u > 0 && Number.isFinite(u) ? 'k = 1' : undefined;
+}
+
+const joinNotes = (...notes: (string | undefined)[]): string | undefined => notes.filter(Boolean).join('; ') || undefined;
+
 /** The numbers panel: the live swing, then the full result's T0, g, local g, Q, gate offset and passes. */
 function numberRows(live: ViewInput['live'], result: ViewInput['result']): NumberRow[] {
   const [h1, h2] = live.halfPeriodsS;
@@ -195,13 +202,16 @@ function numberRows(live: ViewInput['live'], result: ViewInput['result']): Numbe
     { label: 'half-periods', value: `${formatFixed(h1, 5)}  ${formatFixed(h2, 5)}`, unit: 's', tone: 'normal' },
     { label: 'period', value: formatFixed(live.periodS, 5), unit: 's', tone: 'normal' },
     { label: 'amplitude', value: formatFixed(live.amplitudeDeg, 2), unit: '°', tone: 'normal' },
-    { label: 'T0', value: formatWithU(result.T0_s, result.T0_u_s, 5), unit: 's', tone: result.T0_s !== null ? 'accent' : 'muted' },
+    { label: 'T0', value: formatWithU(result.T0_s, result.T0_u_s, 5), unit: 's', note: coverage(result.T0_s, result.T0_u_s), tone: result.T0_s !== null ? 'accent' : 'muted' },
     {
       label: 'g',
       value: formatWithU(result.g_m_s2, result.g_u_m_s2, 4),
       unit: 'm/s²',
       // Until the host-clock fit starts, g carries the nominal clock's ±2887 ppm, and it moves when the fit starts.
-      note: result.clock_source === 'nominal' && live.clock.source === 'nominal' && live.clock.hostCalibrationFrom_s !== null ? `nominal clock until ${formatDuration(live.clock.hostCalibrationFrom_s)}` : undefined,
+      note: joinNotes(
+        coverage(result.g_m_s2, result.g_u_m_s2),
+        result.clock_source === 'nominal' && live.clock.source === 'nominal' && live.clock.hostCalibrationFrom_s !== null ? `nominal clock until ${formatDuration(live.clock.hostCalibrationFrom_s)}` : undefined,
+      ),
       tone: result.g_m_s2 !== null ? 'accent' : 'muted',
     },
   ];

@@ -4,6 +4,7 @@ import { renderReport, type ReportMeta } from '../../host/report/index.ts';
 import { EMPTY_RESULT, type AnalysisResult } from '../../host/analysis/result.ts';
 import { syntheticResult, syntheticRig } from './fixture-result.ts';
 import { expectReportMatchesJson } from './report-numbers.ts';
+import { roundAtK } from '../../host/output/value-u.ts';
 
 const meta: ReportMeta = { journalName: 'bench-a.journal', journalSha256: 'c0ffee'.padEnd(64, '0'), rig: syntheticRig, csvName: 'bench-a.csv' };
 
@@ -39,6 +40,25 @@ describe('report page', () => {
   it('shows the same numbers as the JSON of the same result, to the precision shown', () => {
     const json = JSON.parse(JSON.stringify(syntheticResult())) as Record<string, unknown>;
     expect(expectReportMatchesJson(html, json)).toBeGreaterThan(30);
+  });
+
+  it('the headline: T0 and g ± u labelled k = 1, the expanded U labelled k = 2 and rounded by the same rule (#14 item 8)', () => {
+    // Fixture: g_u = 0.00123 m/s², so U = 0.00246 → 0.0025 and g at the fourth decimal; u → 0.0012 at the fourth too.
+    const r = syntheticResult();
+    const box = /<section class="result" id="result">.*?<\/section>/.exec(html)![0];
+    const text = box.replace(/<[^>]+>/g, '');
+    const g1 = roundAtK(r.g_m_s2!, r.g_u_m_s2, 1);
+    const g2 = roundAtK(r.g_m_s2!, r.g_u_m_s2, 2);
+    expect(g2.u).toBe('0.0025');
+    expect(text).toContain(`${g1.value} ± ${g1.u} m/s² (k = 1)`);
+    expect(text).toContain(`expanded: ${g2.value} ± ${g2.u} m/s² (k = 2)`);
+    const t0 = roundAtK(r.T0_s!, r.T0_u_s, 1);
+    expect(text).toContain(`${t0.value} ± ${t0.u} s (k = 1)`);
+    // Every ± in the big figures says its k: no bare 2u beside a k = 1 value.
+    for (const dd of box.match(/<div class="big">.*?<\/div>/g)!) {
+      const t = dd.replace(/<[^>]+>/g, '');
+      expect(t.match(/±/g)!.length, t).toBe(t.match(/k = [12]/g)!.length);
+    }
   });
 
   it('escapes every string from the journal and the rig', () => {
