@@ -19,6 +19,8 @@ export const command: Command = {
   details: `
 Following: reads what is in the journal, then shows each new line as the recorder appends it; waits for the
 file with --wait if the recorder has not created it yet. The port stays with the recorder: start and stop watch freely.
+A journal that ends with the recorder's stop is a finished recording: the view says when it ended, its run
+clock stops there, and no "no passes" or "no heartbeat" warning counts the time since.
 Replaying (--speed): plays the journal at its own pace, N times faster, and stops at its end.
 Keys: q quit, p pause the display, r restart the estimates from now, ? help.`,
   async run(args, io) {
