@@ -62,7 +62,8 @@ const WORDS: Words = {
 function noPassesWhy(w: Extract<Warning, { kind: 'no-passes' }>): string {
   switch (w.why) {
     case 'small-swing':
-      return `the swing (±${w.swing_mm!.toFixed(0)} mm) no longer clears the ${w.flag_mm!.toFixed(0)} mm flag: release it again, then press r`;
+      // The size is the last measured swing's; the swing has only shrunk since: "at most".
+      return `the bob swings inside the ${w.flag_mm!.toFixed(0)} mm flag (at most ±${w.swing_mm!.toFixed(0)} mm, its last measured swing) and no longer clears the beam: release it again, then press r`;
     case 'blocked':
       return 'the beam stays blocked: is the bob resting in it?';
     case 'dying':

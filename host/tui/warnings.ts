@@ -40,7 +40,8 @@ const RAD = Math.PI / 180;
 /** Why no pass came: the bob swinging inside the flag, resting in the beam, a swing died down, or unknown. */
 function noPassesWhy(w: WarningInput): Pick<Extract<Warning, { kind: 'no-passes' }>, 'why' | 'swing_mm' | 'flag_mm'> {
   const dying = w.lastAmplitude_deg != null && w.beamHalfAngle_deg != null && w.lastAmplitude_deg < WARN.dyingSwingFactor * w.beamHalfAngle_deg;
-  if (w.blocked && dying && w.length_m && w.flagWidth_m)
+  // A swing down to the flag's width is still a swing, blocked beam or not: say its size, never "resting".
+  if (dying && w.length_m && w.flagWidth_m)
     return { why: 'small-swing', swing_mm: w.length_m * Math.sin(w.lastAmplitude_deg! * RAD) * 1000, flag_mm: w.flagWidth_m * 1000 };
   if (w.blocked) return { why: 'blocked' };
   return { why: dying ? 'dying' : 'unknown' };

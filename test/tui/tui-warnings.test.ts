@@ -45,8 +45,11 @@ describe('live warnings', () => {
   it('a bob still swinging inside the flag is said to swing, not to rest (#14 item 5)', () => {
     // 0.6 m, 30 mm flag: the beam half-angle is asin(0.015/0.6) = 1.43°; the last amplitude 1.43° is ±15 mm.
     const t = warningsFor({ ...base, lastPass_s: 80, blocked: true, lastAmplitude_deg: 1.4325, beamHalfAngle_deg: 1.4325, length_m: 0.6, flagWidth_m: 0.03 })[0]!.text;
-    expect(t).toContain('the swing (±15 mm) no longer clears the 30 mm flag');
+    expect(t).toContain('the bob swings inside the 30 mm flag (at most ±15 mm, its last measured swing)');
     expect(t).not.toMatch(/resting/);
+    // The same when the beam is open between the swing's one-sided passes (the newest pass left out).
+    const open = warningsFor({ ...base, lastPass_s: 80, blocked: false, lastAmplitude_deg: 1.4325, beamHalfAngle_deg: 1.4325, length_m: 0.6, flagWidth_m: 0.03 })[0]!.text;
+    expect(open).toBe(t);
   });
 
   it('heartbeats missing for more than three intervals', () => {
