@@ -2,12 +2,12 @@
 // live view, the report and the `text` of analyze --json. Flag names and advice belong here, not in the core.
 import type { Warning, WarningKind } from '../analysis/warning.ts';
 import { gateAdvice } from './gate-words.ts';
+import { plusMinus } from './value-u.ts';
 
 type Words = { readonly [K in WarningKind]: (w: Extract<Warning, { kind: K }>) => string };
 
 const deg = (x: number): string => x.toFixed(2);
 const int = (x: number): string => x.toFixed(0);
-const us = (x: number): string => (x * 1e6).toFixed(1);
 
 const WORDS: Words = {
   'boot-without-hello': (w) => `boot ${w.boot} started without a hello: assuming ${w.hz} ticks/s`,
@@ -16,7 +16,7 @@ const WORDS: Words = {
   'pps-unusable': (w) => `--clock pps: no usable 1 PPS input (${w.pulses} pulses); using the host clock instead`,
   'clock-too-few-heartbeats': () => 'too few heartbeats to calibrate the device clock against the host: using the nominal rate',
   'clock-run-too-short': (w) =>
-    `the run is too short (${int(w.span_s)} s of heartbeats, under ${int(w.min_span_s)} s) to trust a host-clock calibration (it gave ${w.ppm.toFixed(1)} ± ${w.u_ppm.toFixed(1)} ppm): using the nominal rate; force it with --clock host`,
+    `the run is too short (${int(w.span_s)} s of heartbeats, under ${int(w.min_span_s)} s) to trust a host-clock calibration (it gave ${plusMinus(w.ppm, w.u_ppm, ' ppm')}): using the nominal rate; force it with --clock host`,
   'clock-forced-short': (w) => `--clock host over only ${int(w.span_s)} s of heartbeats: the rate may be off by more than its stated uncertainty`,
   'clock-drift': (w) => `the device clock drifted ${w.drift_ppm_per_h.toFixed(2)} ppm/h during the run (temperature?); the mean rate is used`,
   'clock-foreign-rate': (w) =>
@@ -43,8 +43,8 @@ const WORDS: Words = {
   'c-held': () => 'C is held at 11/3072: the amplitudes do not reach 20°, or do not pin C down (θ0⁴ cannot be told from θ0² there)',
   'gate-delay-prior': (w) =>
     `gate delay: the run's amplitude range is too narrow to calibrate the sensor's on/off delay difference` +
-    (w.run_u_s !== null && w.run_s !== null ? ` (the run gives ${us(w.run_s)} ± ${us(w.run_u_s)} µs)` : '') +
-    `; amplitudes use the assumed ${us(w.prior_s)} ± ${us(w.prior_u_s)} µs. A run from a larger release calibrates it`,
+    (w.run_u_s !== null && w.run_s !== null ? ` (the run gives ${plusMinus(w.run_s * 1e6, w.run_u_s * 1e6, ' µs')})` : '') +
+    `; amplitudes use the assumed ${plusMinus(w.prior_s * 1e6, w.prior_u_s * 1e6, ' µs')}. A run from a larger release calibrates it`,
   'gate-segments-aligned': (w) => `gate offset: the side of ${w.segments} later segment(s) was matched to the first (passes between segments are not known)`,
   'gate-offset': (w) => `gate ${(Math.abs(w.offset_m) * 1000).toFixed(1)} mm off the lowest point: ${gateAdvice(w.offset_m, w.u_m, w.side)}`,
   'no-elevation': () => 'expected g assumes elevation 0 m (the rig gives no elevation_m)',

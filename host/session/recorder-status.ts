@@ -1,4 +1,5 @@
 // The recorder's status: one snapshot type, the stderr status line and the JSON for --status.
+import { plusMinus } from '../output/value-u.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
 import type { LinkStats } from '../link/device-link.ts';
 
@@ -79,7 +80,8 @@ const fix = (v: number | null, d: number, unit = ''): string => (v === null ? '�
 /** The one-line stderr status: passes, last period, amplitude, g so far, line errors, lost, reconnects. */
 export function statusLine(s: RecorderStatus): string {
   const hms = s.updated_iso.slice(11, 19);
-  const g = s.g_m_s2 === null ? '–' : `${s.g_m_s2.toFixed(4)}${s.g_u_m_s2 !== null ? ` ± ${s.g_u_m_s2.toFixed(4)}` : ''}`;
+  // By the one rule of host/output/value-u.ts (u to two digits), as the summary and the live view show g.
+  const g = s.g_m_s2 === null ? '–' : plusMinus(s.g_m_s2, s.g_u_m_s2, '', 5);
   const parts = [
     `${hms} ${s.state}`,
     `passes ${s.passes}`,

@@ -28,7 +28,7 @@ describe('recorder status', () => {
       warnings: ['no sleep inhibitor'],
     });
     expect(statusLine(s)).toBe(
-      '12:34:56 connected  passes 0  T –  amp –  g 9.8123 ± 0.0004  line errors 3  lost 0+0  reconnects 2  ! no sleep inhibitor',
+      '12:34:56 connected  passes 0  T –  amp –  g 9.81234 ± 0.00042  line errors 3  lost 0+0  reconnects 2  ! no sleep inhibitor',
     );
     expect(s).toMatchObject({ uptime_s: 3600, line_errors: 3, reconnects: 2, g_m_s2: 9.81234 });
   });
