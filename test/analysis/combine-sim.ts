@@ -23,3 +23,21 @@ export function combineSession(name: string, seed: number, durationS?: number): 
   });
   return { truth, loaded, outcome: combineLoaded(loaded) };
 }
+
+/** How many of `seeds` put the truth inside ± 2u, and the rms of (value − truth)/u (1 when the budget is right). */
+export function coverageOver(
+  session: string,
+  seeds: number,
+  pick: (s: CombinedSession & { outcome: { ok: true } }) => { v: number; u: number; truth: number },
+): { inside: number; rms: number } {
+  let inside = 0;
+  let z2 = 0;
+  for (let seed = 1; seed <= seeds; seed++) {
+    const s = combineSession(session, seed);
+    if (!s.outcome.ok) throw new Error(s.outcome.error);
+    const { v, u, truth } = pick(s as CombinedSession & { outcome: { ok: true } });
+    if (Math.abs(v - truth) <= 2 * u) inside++;
+    z2 += ((v - truth) / u) ** 2;
+  }
+  return { inside, rms: Math.sqrt(z2 / seeds) };
+}
