@@ -53,7 +53,7 @@ describe('npm run bench --quick', () => {
     const written = JSON.parse(readFileSync(out, 'utf8')) as { results: FigureResult[]; machine: { cores: number } };
     expect(written.results.map((r) => r.id)).toEqual(printed.results.map((r) => r.id));
     expect(written.machine.cores).toBeGreaterThan(0);
-    expect(printed.results.map((r) => r.id)).toEqual(['start', 'ingest', 'live', 'sim', 'firmware', 'estimator', 'hand']);
+    expect(printed.results.map((r) => r.id)).toEqual(['start', 'ingest', 'live', 'sim', 'firmware', 'estimator', 'hand', 'combine']);
     for (const r of printed.results) {
       if (r.id === 'firmware' && missing.length > 0 && process.env.CI !== 'true') continue;
       expect(r.notMeasured, `${r.id}: ${r.notMeasured}`).toBeUndefined();
