@@ -30,7 +30,7 @@ export function analyzeRun(d: RunData): AnalysisResult {
   const prior = { s: 0, u: d.delayDifferenceU_s ?? 5e-6 };
   const { reduction, delay } = reduceWithDelay(passes, periods, rig, prior);
   // With room readings: T0 at the reference temperature, the length and air density there (stages/environment.ts).
-  const room = roomStage(d.room, passes, periods, reduction, rig, prior.u);
+  const room = roomStage(d.room, passes, periods, reduction, rig, prior.u, d.clock.track);
   const { T0, line } = room.t0 ?? lineT0(passes, periods, reduction, rig);
   const omega0 = T0 !== null ? (2 * Math.PI) / T0 : NaN;
   // The damping comes before the corrections: its Q sizes the damping correction of T0.

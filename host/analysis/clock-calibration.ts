@@ -140,10 +140,15 @@ function predict(pf: NonNullable<ReturnType<typeof pooledFit>>, m: Minimum, quad
  */
 export function bootOffsets(boots: readonly BootHeartbeats[], ppm: number): Map<number, number> {
   const k = 1 / (1 + ppm * 1e-6);
+  return bootOffsetsWith(boots, (_, x) => x * k);
+}
+
+/** The same lower envelope for any map of nominal device seconds to seconds of a boot (a tracked rate). */
+export function bootOffsetsWith(boots: readonly BootHeartbeats[], seconds: (boot: number, x: number) => number): Map<number, number> {
   const out = new Map<number, number>();
   for (const b of boots) {
     let best = Infinity;
-    for (let i = 0; i < b.deviceS.length; i++) best = Math.min(best, b.hostS[i]! - b.deviceS[i]! * k);
+    for (let i = 0; i < b.deviceS.length; i++) best = Math.min(best, b.hostS[i]! - seconds(b.boot, b.deviceS[i]!));
     if (Number.isFinite(best)) out.set(b.boot, best);
   }
   return out;

@@ -1,4 +1,5 @@
 // What the analysis receives: passes after sequencing, each with a named status, and the clock that timed them.
+import type { RateTrack } from './clock-track.ts';
 import type { Warning } from './warning.ts';
 import type { RoomReading } from './room-drift.ts';
 import type { RunPlane } from './plane-of-run.ts';
@@ -56,6 +57,11 @@ export interface ClockApplied {
    * clock, each boot anchored at its first line, not joined on the host clock.
    */
   readonly foreign_rate?: number;
+  /**
+   * The rate tracked through the run (clock-track.ts), when the heartbeats show it moving: pass times then follow
+   * its integral, and `ppm`, `u_ppm` are its mean over the heartbeats' span.
+   */
+  readonly track?: RateTrack;
 }
 
 /** Everything the analysis needs. */

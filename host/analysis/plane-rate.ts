@@ -1,6 +1,7 @@
 // The swing plane over a run: the azimuth's rate with an uncertainty that allows for correlated residuals, the
 // Foucault rate expected at the rig's latitude, and the Airy precession the measured ellipse implies.
 import { linearFit } from './least-squares.ts';
+import { lag1 } from './stats.ts';
 import type { PlanePass } from './plane-passes.ts';
 
 /** Earth's rotation, °/h (docs/references.md#ref-swing-plane). */
@@ -29,17 +30,6 @@ export function unwrapAxis(az: readonly number[]): number[] {
     out.push(x);
   }
   return out;
-}
-
-/** Lag-1 autocorrelation of a series. */
-export function lag1(r: readonly number[]): number {
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < r.length; i++) {
-    den += r[i]! * r[i]!;
-    if (i > 0) num += r[i]! * r[i - 1]!;
-  }
-  return den > 0 ? num / den : 0;
 }
 
 /**

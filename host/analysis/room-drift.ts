@@ -8,6 +8,7 @@
 // against T (the residuals would follow dT/dt), which the test runs would see as a biased coefficient.
 import { airDensityCipm2007 } from './air-density.ts';
 import { linearFit } from './least-squares.ts';
+import { lag1 } from './stats.ts';
 
 export interface RoomReading {
   /** Seconds on the same time axis as the periods. */
@@ -66,17 +67,6 @@ export function roomAtTime(readings: readonly RoomReading[], t: number): RoomRea
   return { t_s: t, tempC: mix(a.tempC, b.tempC), pressPa: mix(a.pressPa, b.pressPa), rhPct: mix(a.rhPct, b.rhPct) };
 }
 
-/** Lag-1 autocorrelation of a series (0 when it cannot be estimated). */
-function lag1(r: readonly number[]): number {
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < r.length; i++) {
-    den += r[i]! * r[i]!;
-    if (i > 0) num += r[i]! * r[i - 1]!;
-  }
-  return den > 0 ? Math.max(0, Math.min(0.99, num / den)) : 0;
-}
-
 /**
  * Fits T0 against temperature after removing the air's share (when the bob density is known). Needs periods
  * spanning a temperature range; returns null with fewer than 10 periods or no temperature spread.
@@ -115,7 +105,7 @@ export function fitLengthDrift(
   const alpha = (2 * b) / a;
   const c2 = withAmp ? fit.params[2]! : 0;
   const resid = y.map((v, i) => v - a - b * x[i]! - (withAmp ? c2 * (periods[i]!.amplitude_rad! ** 2 - th2) : 0));
-  const rho = lag1(resid);
+  const rho = Math.max(0, Math.min(0.99, lag1(resid)));
   // Correlated residuals carry less information than their number says: inflate by √((1 + ρ)/(1 − ρ)).
   const inflate = Math.sqrt((1 + rho) / (1 - rho));
   const ua = Math.sqrt(fit.cov[0]![0]!) * inflate;

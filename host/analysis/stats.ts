@@ -69,3 +69,14 @@ export function everyKth(xs: ArrayLike<number>, max: number): Float64Array {
   for (let i = 0, k = 0; i < xs.length; i += stride) out[k++] = xs[i]!;
   return out;
 }
+
+/** Lag-1 autocorrelation of a series (0 when it cannot be estimated); callers clamp it to the range they model. */
+export function lag1(r: readonly number[]): number {
+  let num = 0;
+  let den = 0;
+  for (let i = 0; i < r.length; i++) {
+    den += r[i]! * r[i]!;
+    if (i > 0) num += r[i]! * r[i - 1]!;
+  }
+  return den > 0 ? num / den : 0;
+}

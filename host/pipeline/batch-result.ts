@@ -39,8 +39,8 @@ export function batchResult(b: BatchInputs): AnalysisResult {
   const w = [...b.warnings];
   if (intake.health.malformedLines > 0) w.push({ kind: 'malformed-journal-lines', count: intake.health.malformedLines });
   const rc = intake.clockInputs.choose(b.clock, tb.count, (x) => tb.hz(x), tb.hz(0), w);
-  const joined = tb.joiner(rc.k, rc.offsets);
-  const cols = intake.beams.columns(0, joined, (x) => tb.hz(x) * rc.k, rig);
+  const joined = tb.joiner(rc.k, rc.offsets, rc.since);
+  const cols = intake.beams.columns(0, joined, (x) => tb.hz(x) * rc.k, rig, rc.since);
   const { t, td, transit, plane } = cols;
   const np = t.length;
   const seq = sequencePasses(t, transit, cols.boot, b.sequencing);

@@ -105,8 +105,11 @@ export class Beams {
     return `${v(this.a)}:${v(this.b)}`;
   }
 
-  /** Beam A's passes from `from` on, timed by `joined` (ticks of a boot → s) at `tps` ticks per second per boot. */
-  columns(from: number, joined: (b: number, ticks: number) => number, tps: (b: number) => number, rig: Rig | null): PassColumnsS {
+  /**
+   * Beam A's passes from `from` on, timed by `joined` (ticks of a boot → s) at `tps` ticks per second per boot, or
+   * by `since` (seconds since the boot's tick 0) when the clock's rate was tracked through the run.
+   */
+  columns(from: number, joined: (b: number, ticks: number) => number, tps: (b: number) => number, rig: Rig | null, since: ((b: number, ticks: number) => number) | null = null): PassColumnsS {
     const pb = this.a;
     const pend = pb?.pendingPass() ?? null;
     const total = this.count();
@@ -122,7 +125,7 @@ export class Beams {
       const b = fromPending ? pend.boot : pb!.passes.boot.at(q);
       const s = fromPending ? pend.start : pb!.passes.start.at(q);
       const e = fromPending ? pend.end : pb!.passes.end.at(q);
-      td[i] = (0.5 * (s + e)) / tps(b);
+      td[i] = since ? since(b, 0.5 * (s + e)) : (0.5 * (s + e)) / tps(b);
       t[i] = joined(b, 0) + td[i]!;
       transit[i] = (e - s) / tps(b);
       boot[i] = b;

@@ -67,10 +67,12 @@ export class BootTimebase {
   }
 
   /**
-   * Ticks of a boot → seconds on the host-joined timebase, with the nominal rates scaled by `k` (1 + ppm·1e-6):
-   * the boot's host offset when the clock fit gave one, else its first anchor.
+   * Ticks of a boot → seconds on the host-joined timebase, with the nominal rates scaled by `k` (1 + ppm·1e-6), or
+   * through `since` (a tracked rate: seconds since the boot's tick 0): the boot's host offset when the clock fit gave
+   * one, else its first anchor.
    */
-  joiner(k: number, offsets: BootOffsets): (b: number, ticks: number) => number {
+  joiner(k: number, offsets: BootOffsets, since: ((b: number, ticks: number) => number) | null = null): (b: number, ticks: number) => number {
+    if (since) return (b, ticks) => (offsets.get(b) ?? this.first[b]!.hostUs / 1e6 - since(b, this.first[b]!.ticks)) + since(b, ticks);
     return (b, ticks) => {
       const tps = this.hz(b) * k;
       const first = this.first[b]!;

@@ -1,6 +1,7 @@
 // Picks the device clock correction for a run: a given ppm, the nominal rate, a 1 PPS input, or the host clock.
 import { clockRateFromHost, clockRateFromPps, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
 import type { ClockApplied } from '../analysis/passes.ts';
+import { meanExcursion, trackClockRate } from '../analysis/clock-track.ts';
 import type { Warning } from '../analysis/warning.ts';
 
 /** What the user asked for: a mode, a rate error in ppm, or nothing (auto: PPS if present, else host if long enough). */
@@ -59,7 +60,16 @@ export function chooseClock(
   if (h.span_s < MIN_HOST_SPAN_S) warnings.push({ kind: 'clock-forced-short', span_s: h.span_s });
   if (h.drift_ppm_per_h !== null && h.drift_u_ppm_per_h !== null && Math.abs(h.drift_ppm_per_h) > 3 * h.drift_u_ppm_per_h && Math.abs(h.drift_ppm_per_h) * (h.span_s / 3600) > 1)
     warnings.push({ kind: 'clock-drift', drift_ppm_per_h: h.drift_ppm_per_h });
-  return { source: 'host', ppm: h.ppm, u_ppm: h.u_ppm, measured: true, drift_ppm_per_h: h.drift_ppm_per_h, span_s: h.span_s, residuals: h.residuals };
+  const host: ClockApplied = { source: 'host', ppm: h.ppm, u_ppm: h.u_ppm, measured: true, drift_ppm_per_h: h.drift_ppm_per_h, span_s: h.span_s, residuals: h.residuals };
+  return withTrack(host, beats);
+}
+
+/** The host fit with the rate tracked through the run when the heartbeats show it moving (clock-track.ts). */
+function withTrack(host: ClockApplied, beats: readonly BootHeartbeats[]): ClockApplied {
+  const track = trackClockRate(beats, host.ppm);
+  if (!track) return host;
+  const m = meanExcursion(track, track.from_s, track.to_s);
+  return { ...host, ppm: (track.k0 * (1 + m.e) - 1) * 1e6, u_ppm: track.k0 * m.u * 1e6, track };
 }
 
 /**

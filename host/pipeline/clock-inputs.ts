@@ -1,6 +1,7 @@
 // Heartbeats and 1 PPS pulses as the clock fit reads them, and the clock chosen from them for the pass times.
 import type { Warning } from '../analysis/warning.ts';
-import { bootOffsets, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
+import { bootOffsets, bootOffsetsWith, type BootHeartbeats, type BootPps } from '../analysis/clock-calibration.ts';
+import { trackedSeconds } from '../analysis/clock-track.ts';
 import type { ClockApplied } from '../analysis/passes.ts';
 import type { BootOffsets } from './boot-timebase.ts';
 import { chooseClock, type ClockOption } from './clock-choice.ts';
@@ -13,6 +14,8 @@ export interface RunClock {
   readonly k: number;
   /** The heartbeats it was fitted on, per boot. */
   readonly beats: readonly BootHeartbeats[];
+  /** With a tracked rate: seconds since a boot's tick 0 for its ticks (the integrated rate); null: ticks/(hz·k). */
+  readonly since: ((boot: number, ticks: number) => number) | null;
 }
 
 /** Heartbeats (boot, ticks, host µs) and PPS pulses (boot, ticks) in arrival order, as compact columns. */
@@ -58,6 +61,12 @@ export class ClockInputs {
     const clock = chooseClock(option, beats, pulses, firstHz, warnings);
     // A foreign timebase is not joined on the host clock: each boot starts at its first line (BootTimebase.joiner).
     const offsets = clock.foreign_rate === undefined ? bootOffsets(beats, clock.ppm) : new Map<number, number>();
-    return { clock, offsets, k: 1 + clock.ppm * 1e-6, beats };
+    const track = clock.track;
+    if (!track) return { clock, offsets, k: 1 + clock.ppm * 1e-6, beats, since: null };
+    // Tick 0 of each boot on the host clock from the constant rate locates the track (E moves by ppm per second).
+    const t0 = bootOffsets(beats, (track.k0 - 1) * 1e6);
+    const since = (b: number, ticks: number): number => trackedSeconds(track, t0.get(b) ?? track.from_s, ticks / hz(b));
+    const tracked = bootOffsetsWith(beats, (b, x) => since(b, x * hz(b)));
+    return { clock, offsets: tracked, k: track.k0, beats, since };
   }
 }

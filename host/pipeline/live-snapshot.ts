@@ -66,7 +66,7 @@ export function liveSnapshots(intake: DeviceIntake, rig: () => Rig | null, optio
     const n = intake.beams.count();
     let s: LiveSwing;
     for (let w = LIVE_WINDOW; ; w *= 2) {
-      const cols = intake.beams.columns(Math.max(0, n - w), tb.joiner(rc.k, rc.offsets), (b) => tb.hz(b) * rc.k, rig());
+      const cols = intake.beams.columns(Math.max(0, n - w), tb.joiner(rc.k, rc.offsets, rc.since), (b) => tb.hz(b) * rc.k, rig(), rc.since);
       s = liveSwing(cols, rig(), sequencing, delayS);
       if (s.recent.t_s.length >= LIVE_MIN_VALID || w >= n || 2 * w > LIVE_WINDOW_MAX) break;
     }

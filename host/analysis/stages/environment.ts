@@ -7,6 +7,7 @@
 // coefficient is fitted once on the reduction's amplitudes, the amplitudes are solved again with L(T) and ω0(T),
 // and the coefficient fitted again (a second round would move it by θ²/8 of the first round's change: nothing).
 import { airDensityCipm2007 } from '../air-density.ts';
+import { temperatureSlope, type RateTrack } from '../clock-track.ts';
 import type { SequencedPasses } from '../passes.ts';
 import { stokesAddedMassK } from '../pendulum-corrections.ts';
 import { reducePeriods } from '../period-law.ts';
@@ -132,7 +133,7 @@ function airModel(rig: Rig | null, rho: number, T0: number | null): { bobDensity
  * solved again with it, then α from blocks of warped pass times (its statistics), and the systematic terms: the
  * air's share and the reduction's (the transit read 5 µs long, the flag width off by its u) through the periods.
  */
-function coefficientAndT0(c: RoomContext, fit0: LengthDriftFit, delayU_s: number) {
+function coefficientAndT0(c: RoomContext, fit0: LengthDriftFit, delayU_s: number, uClock: number) {
   const periodAlpha = (a: { P0: ArrayLike<number>; pAmp: ArrayLike<number> }) => fitLengthDrift(periodPoints(c.passes, c.periods, c.red, a.P0, a.pAmp, c.sorted), c.sorted, c.air);
   // Amplitudes with α from the periods: the later α differ from it by far less than would move an amplitude.
   const amps = roomAmplitudes(c, fit0.alpha_per_K);
@@ -142,15 +143,24 @@ function coefficientAndT0(c: RoomContext, fit0: LengthDriftFit, delayU_s: number
   const moved = (shift: { dTransit?: number; dWidth?: number }): number =>
     Math.abs((periodAlpha(roomAmplitudes(c, fit0.alpha_per_K, shift))?.alpha_per_K ?? fit1.alpha_per_K) - fit1.alpha_per_K);
   const uRed = Math.hypot(moved({ dTransit: delayU_s }), moved({ dWidth: c.rig.flag_width_u_m }));
-  const u = blocks ? Math.hypot(blocks.u, fit1.alpha_u_air_per_K, uRed) : fit1.alpha_u_per_K;
+  const u = Math.hypot(blocks ? Math.hypot(blocks.u, fit1.alpha_u_air_per_K, uRed) : fit1.alpha_u_per_K, uClock);
   const [t0] = warpedLines(c, alpha, amps, [undefined]) as [T0Estimate];
   const [t0moved] = warpedLines(c, alpha + u, amps, [undefined]) as [T0Estimate];
   const T0_rel = t0.T0 !== null && t0moved.T0 !== null ? Math.abs(t0moved.T0 / t0.T0 - 1) : 0;
   return { alpha, u, t0, T0_rel };
 }
 
+/**
+ * The tracked clock rate's share of u(α): the pass times follow the tracked rate, so its error that moves with the
+ * temperature, slope s against the readings' ΔT, reads as 2s of coefficient; u(s) from the track's covariance.
+ */
+function clockAlphaU(track: RateTrack | undefined, sorted: readonly RoomReading[], Tref: number): number {
+  const slope = track ? temperatureSlope(track, sorted.map((r) => r.t_s), sorted.map((r) => r.tempC - Tref)) : null;
+  return slope ? 2 * slope.u : 0;
+}
+
 /** The room stage; without readings (or without a temperature spread) it changes nothing downstream. */
-export function roomStage(room: readonly RoomReading[] | undefined, passes: SequencedPasses, periods: Periods, red: Reduction, rig: Rig | null, delayU_s: number): RoomStage {
+export function roomStage(room: readonly RoomReading[] | undefined, passes: SequencedPasses, periods: Periods, red: Reduction, rig: Rig | null, delayU_s: number, clock?: RateTrack): RoomStage {
   const none = { t0: null, rig, T0_rel: 0, rows: [] };
   if (!room || room.length === 0) return { environment: null, ...none };
   const sorted = [...room].sort((a, b) => a.t_s - b.t_s);
@@ -166,7 +176,7 @@ export function roomStage(room: readonly RoomReading[] | undefined, passes: Sequ
   if (fit0 && rig && red.T0mean !== null) {
     const lengthC = rig.length_temp_C ?? Tref;
     const cond = passConditions(passes.t, sorted, Tref, air);
-    const r = coefficientAndT0({ passes, periods, red, rig, sorted, Tref, lengthC, air, cond }, fit0, delayU_s);
+    const r = coefficientAndT0({ passes, periods, red, rig, sorted, Tref, lengthC, air, cond }, fit0, delayU_s, clockAlphaU(clock, sorted, Tref));
     coeff = r;
     const rows: BudgetLine[] = [
       { id: 'room-T0', name: 'T0 carried to the reference temperature', u_rel_g: 2 * r.T0_rel, note: `α = ${(r.alpha * 1e6).toFixed(2)} ± ${(r.u * 1e6).toFixed(2)} ppm/K to ${Tref.toFixed(2)} °C` },
