@@ -19,7 +19,7 @@ export function plainStatusLine(vm: ViewModel): string {
     `g=${num('g')}`,
     `Q=${num('Q')}`,
     // Two beams: the swing's axis and its turning rate; a room sensor: its line as on screen.
-    ...(vm.plane ? vm.plane.rows.filter((r) => r.label !== 'box').map((r) => `${r.label.replace(' °/h', '')}=${r.value.replace(/ ± /g, '±')}${r.label.endsWith('°/h') ? ' °/h' : ''}`) : []),
+    ...(vm.plane ? vm.plane.rows.filter((r) => r.label !== 'box').map((r) => `${r.label.replace('°/h', '')}=${r.value.replace(/ ± /g, '±')}${r.label.endsWith('°/h') ? ' °/h' : ''}`) : []),
     ...(vm.room ? [`room=${vm.room.items.map((it) => `${it.label} ${it.value}`).join(', ')}`] : []),
     counts,
   ];

@@ -46,7 +46,7 @@ export function planeView(plane: LivePlane | null, result: AnalysisResult, rig: 
   const rows: PlaneRow[] = [
     { label: 'azimuth', value: n ? `${formatFixed(plane.azimuth_deg[n - 1], 1, true)}°` : '—' },
     // The unit in the label: a rate known to 1e-3 °/h still fits beside the top view.
-    { label: 'turn °/h', value: s ? formatWithU(s.precession_deg_per_h, s.precession_u_deg_per_h, 2) : '—' },
+    { label: 'turn°/h', value: s ? formatWithU(s.precession_deg_per_h, s.precession_u_deg_per_h, 2) : '—' },
     { label: 'minor', value: minorText(plane.minor_axis_m.at(-1)) },
     { label: 'box', value: `±${formatFixed(halfSpan_m * 1000, 0)} mm, 0° →` },
   ];

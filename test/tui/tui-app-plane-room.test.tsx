@@ -30,9 +30,18 @@ describe('plane panel and room line on screen', () => {
     expect(inside.join('')).toMatch(/[\u2801-\u28ff]/);
     expect(lines[top + 5]).toMatch(/^└────────┘/);
     const f = lines.join('\n');
-    expect(f).toContain(`azimuth  +${pl.azimuth_deg.at(-1)!.toFixed(1)}°`);
-    expect(f).toContain(`turn °/h ${plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h)}`);
-    expect(f).toContain(`minor    +${(pl.minor_axis_m.at(-1)! * 1000).toFixed(1)} mm ↺`);
+    expect(f).toContain(`azimuth +${pl.azimuth_deg.at(-1)!.toFixed(1)}°`);
+    expect(f).toContain(`turn°/h ${plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h)}`);
+    expect(f).toContain(`minor   +${(pl.minor_axis_m.at(-1)! * 1000).toFixed(1)} mm ↺`);
+  });
+
+  it('a steady Foucault turning known to 1e-3 °/h still fits whole beside the top view at 80 columns', async () => {
+    // The figures of a 10 min watch of plane-foucault-50n with a room: −11.47737 ± 0.00086 °/h.
+    const rec = loadRecorded('snapshot-plane-room');
+    const snapshot = { ...rec.snapshot, result: { ...rec.snapshot.result, plane: { ...rec.snapshot.result.plane!, precession_deg_per_h: -11.477371, precession_u_deg_per_h: 0.000861 } } };
+    const r = render(<App store={fixedStore(snapshot)} status={() => demoStatus()} nowMs={() => 0} onEffect={() => {}} interactive={false} />);
+    const f = await frameWhere(r.lastFrame, (x) => x.includes('turn°/h'));
+    expect(f).toContain('turn°/h -11.47737 ± 0.00086');
   });
 
   it('shows the room line above the health line', async () => {

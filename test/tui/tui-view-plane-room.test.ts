@@ -25,7 +25,7 @@ describe('plane panel (view model)', () => {
     expect(n).toBeGreaterThan(TOP_VIEW_PASSES);
     expect(rowOf(vm.plane!.rows, 'azimuth')).toBe(`${pl.azimuth_deg[n - 1]! >= 0 ? '+' : ''}${pl.azimuth_deg[n - 1]!.toFixed(1)}°`);
     const s = i.result.plane!;
-    expect(rowOf(vm.plane!.rows, 'turn °/h')).toBe(plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h));
+    expect(rowOf(vm.plane!.rows, 'turn°/h')).toBe(plusMinus(s.precession_deg_per_h, s.precession_u_deg_per_h));
     expect(vm.plane!.paths).toHaveLength(TOP_VIEW_PASSES);
     expect(vm.plane!.paths.at(-1)).toEqual({ azimuth_rad: (pl.azimuth_deg[n - 1]! * Math.PI) / 180, a_m: pl.semi_major_m[n - 1]!, b_m: pl.minor_axis_m[n - 1]! });
     // The rig's beams at ±45°: their lines (square to the normals) at 135° and 45°.
@@ -53,7 +53,7 @@ describe('plane panel (view model)', () => {
     const flipped = { ...pl, minor_axis_m: pl.minor_axis_m.map((b) => -b) };
     const v = planeView(flipped, { ...i.result, plane: null }, i.rig)!;
     expect(rowOf(v.rows, 'minor')).toMatch(/^-\d+\.\d mm ↻$/);
-    expect(rowOf(v.rows, 'turn °/h')).toBe('—');
+    expect(rowOf(v.rows, 'turn°/h')).toBe('—');
     // A minor axis that rounds to 0.0 mm has no sense to show.
     expect(rowOf(planeView({ ...pl, minor_axis_m: pl.minor_axis_m.map(() => 3e-5) }, i.result, i.rig)!.rows, 'minor')).toBe('0.0 mm');
     expect(buildViewModel(input('snapshot-demo-120s')).plane).toBeNull();

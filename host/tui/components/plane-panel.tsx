@@ -5,10 +5,10 @@ import { renderTopView } from '../plot/top-view.ts';
 import type { PlaneView } from '../view-plane.ts';
 import { colourLine } from './chart-box.tsx';
 
-/** Cells of the top view's drawing: a square of 16×16 dots, beside 27 columns of figures in the narrowest numbers column (38). */
+/** Cells of the top view's drawing: a square of 16×16 dots, beside 27 columns of figures (8 of labels) in the narrowest numbers column (38). */
 const VIEW_COLS = 8;
 const VIEW_ROWS = 4;
-const LABEL_W = 9;
+const LABEL_W = 8;
 
 export function PlanePanel({ plane }: { readonly plane: PlaneView }): React.JSX.Element {
   const lines = renderTopView({ cols: VIEW_COLS, rows: VIEW_ROWS, halfSpan_m: plane.halfSpan_m, beamLines_rad: plane.beamLines_rad, paths: plane.paths });
