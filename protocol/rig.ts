@@ -58,6 +58,8 @@ export interface ReversibleRig extends RigCommon {
   readonly cm_distance_m: number;
   readonly cm_distance_u_m: number;
   readonly flag_radius_m: number;
+  /** Standard uncertainty of flag_radius_m; folded into the flag width's by swingView (the transit reads w/R). */
+  readonly flag_radius_u_m?: number;
   readonly mass_position_m?: number;
   readonly body_volume_m3?: number;
   readonly body_mass_kg?: number;
@@ -257,6 +259,8 @@ export function assumedNote(rig: AnyRig): string | null {
 export function swingView(rig: AnyRig): Rig {
   if (isSimpleRig(rig)) return rig;
   const { name, flag_width_m, flag_width_u_m, blocked_level, beams, air_density_kg_m3, latitude_deg, elevation_m } = rig;
-  const view: Rig = { flag_width_m, flag_width_u_m, blocked_level, beams, air_density_kg_m3, length_m: rig.flag_radius_m, length_u_m: 0 };
+  // The amplitude from a transit depends on the flag width over its radius only, so their relative errors add in quadrature.
+  const u = Math.hypot(flag_width_u_m, (flag_width_m * (rig.flag_radius_u_m ?? 0)) / rig.flag_radius_m);
+  const view: Rig = { flag_width_m, flag_width_u_m: u, blocked_level, beams, air_density_kg_m3, length_m: rig.flag_radius_m, length_u_m: 0 };
   return { ...view, ...(name !== undefined ? { name } : {}), ...(latitude_deg !== undefined ? { latitude_deg } : {}), ...(elevation_m !== undefined ? { elevation_m } : {}) };
 }

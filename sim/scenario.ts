@@ -374,7 +374,7 @@ export interface ScenarioOverrides {
 /** A scenario with overrides applied, validated again. */
 /** The fields of a reversible rig the gate and device need, in the ordinary rig's shape (length = flag radius). */
 function asFlagRadius(r: ReversibleRig): Rig {
-  const { pendulum: _p, pivot: _v, edge_distance_m: _e, edge_distance_u_m: _eu, cm_distance_m: _c, cm_distance_u_m: _cu, flag_radius_m, mass_position_m: _m, body_volume_m3: _bv, body_mass_kg: _bm, ...common } = r;
+  const { pendulum: _p, pivot: _v, edge_distance_m: _e, edge_distance_u_m: _eu, cm_distance_m: _c, cm_distance_u_m: _cu, flag_radius_m, flag_radius_u_m: _fu, mass_position_m: _m, body_volume_m3: _bv, body_mass_kg: _bm, ...common } = r;
   return { ...common, length_m: flag_radius_m, length_u_m: 0 };
 }
 
