@@ -36,7 +36,11 @@ export function fillPeriodAmplitudes(
     const c = per.ends[k]!;
     const a = per.start[c]!;
     const m = per.mid[c]!;
-    if (stride > 1) for (const q of [a, m, c]) if (q >= 0) amp[q] = solve(q);
+    if (stride > 1) {
+      if (a >= 0) amp[a] = solve(a);
+      if (m >= 0) amp[m] = solve(m);
+      amp[c] = solve(c);
+    }
     pAmp[k] = periodAmplitude(amp, a, m, c);
   }
 }

@@ -22,7 +22,11 @@ export interface DelayPrior {
 export function delayFitAt(p: SequencedPasses, per: Periods, amp: ArrayLike<number>, pAmp: ArrayLike<number>, keep: ArrayLike<number>, phiB: number, omega0: number, delta0: number): DelayFit | null {
   const slope = new Float64Array(p.t.length).fill(NaN);
   for (let c = 0; c < slope.length; c++) if (Number.isFinite(amp[c]!)) slope[c] = amplitudeSlopePerTransit(p.transit[c]! + delta0, phiB, omega0);
-  const pSlope = Float64Array.from(per.ends, (c) => periodAmplitude(slope, per.start[c]!, per.mid[c]!, c));
+  const pSlope = new Float64Array(per.ends.length);
+  for (let k = 0; k < pSlope.length; k++) {
+    const c = per.ends[k]!;
+    pSlope[k] = periodAmplitude(slope, per.start[c]!, per.mid[c]!, c);
+  }
   return fitDelayDifference(per.P, pAmp, pSlope, keep, delta0);
 }
 

@@ -68,7 +68,12 @@ function markSlow(p: SequencedPasses, half: Float64Array, period: Float64Array, 
 export function findPeriods(p: SequencedPasses): Periods {
   const iv = intervals(p);
   const { slow, slowCount } = markSlow(p, iv.half, iv.period, iv.start);
-  const ends: number[] = [];
-  for (let c = 0; c < iv.period.length; c++) if (Number.isFinite(iv.period[c]!)) ends.push(c);
-  return { ...iv, slow, slowCount, ends: Int32Array.from(ends), P: Float64Array.from(ends, (c) => iv.period[c]!) };
+  // Counted first and filled in place: a week has ~300 000 periods, and typed-array `from` over an iterable
+  // builds a boxed copy of every element first.
+  let count = 0;
+  for (let c = 0; c < iv.period.length; c++) if (Number.isFinite(iv.period[c]!)) count++;
+  const ends = new Int32Array(count);
+  const P = new Float64Array(count);
+  for (let c = 0, k = 0; c < iv.period.length; c++) if (Number.isFinite(iv.period[c]!)) (ends[k] = c), (P[k++] = iv.period[c]!);
+  return { ...iv, slow, slowCount, ends, P };
 }
