@@ -12,9 +12,10 @@
 // latency, with x the nominal device seconds, h the host time, E(t) = ∫ e dt the integral of the rate's fractional
 // excursion e = k(t)/k0 − 1, e piecewise linear between knots equally spaced in host time (E a quadratic spline).
 // The fit runs on window minima as the constant fit does. Knot spacing: the shortest of a ladder for which one
-// interval's rate, from the minima it holds, has a standard uncertainty ≤ TARGET_RATE_U (σ of the minima from their
-// residuals of the finest knots, which follow any rate a resonator can have). The track is kept only when it fits the minima
-// significantly better than the constant rate (an F test), so a constant-rate run keeps its one rate.
+// interval's rate, from the minima it holds, has a standard uncertainty ≤ TARGET_RATE_U (σ of the minima from the
+// residuals of the finest knots, which follow any rate a resonator can have). The track is kept only when it fits the
+// minima significantly better than the constant rate (an F test), so a constant-rate run keeps its one rate. Figures and
+// reasoning: docs/room-clock.md, docs/references.md#ref-room-clock.
 import { linearFit } from './least-squares.ts';
 import { lag1, robustSigma } from './stats.ts';
 import type { BootHeartbeats } from './clock-calibration.ts';
@@ -37,7 +38,7 @@ export interface RateTrack {
   readonly windows: number;
 }
 
-/** One interval's rate is aimed at this standard uncertainty (1e-7 = 0.1 ppm, 0.01 K of a 10 ppm/K resonator). */
+/** One interval's rate is aimed at this standard uncertainty (0.3 ppm, 0.03 K of a 10 ppm/K resonator; α averages many). */
 export const TARGET_RATE_U = 3e-7;
 /** Knot spacings tried, shortest first (s). */
 const LADDER_S = [600, 900, 1200, 1800, 2700, 3600, 5400, 7200];

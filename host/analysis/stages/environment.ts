@@ -6,6 +6,11 @@
 // with the temperature (θ ∝ L^(−1/2)); with a fixed L the reduction hides θ²/8 of α (0.5 % at 11°). So the
 // coefficient is fitted once on the reduction's amplitudes, the amplitudes are solved again with L(T) and ω0(T),
 // and the coefficient fitted again (a second round would move it by θ²/8 of the first round's change: nothing).
+//
+// No lag between the air and the string is modelled: a wire follows the air with τ = ρc·r/(2h), under a minute for a
+// 0.2 mm steel wire, against blocks of ≥ 10 min and a room that moves over hours (docs/room-clock.md,
+// docs/references.md#ref-string-lag). The device clock's rate is tracked through the run before this stage
+// (host/analysis/clock-track.ts); its uncertainty's slope against the temperature joins u(α).
 import { airDensityCipm2007 } from '../air-density.ts';
 import { temperatureSlope, type RateTrack } from '../clock-track.ts';
 import type { SequencedPasses } from '../passes.ts';
