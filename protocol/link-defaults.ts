@@ -82,3 +82,7 @@ export const COMMAND_MAX_BYTES = 16;
 export const HEARTBEAT_DEFAULT_MS = 1000;
 export const HEARTBEAT_MIN_MS = 100;
 export const HEARTBEAT_MAX_MS = 60_000;
+
+/** Room readings: every 10 s after boot; `A` takes 0 (off) to 3600 s (firmware/src/room.h, command.h AIR_MAX_S). */
+export const AIR_DEFAULT_S = 10;
+export const AIR_MAX_S = 3600;

@@ -1,7 +1,8 @@
-// The device model: captures pin edges in ticks, sends H/E/T/R (and, with a room, S/A) lines like the firmware, reboots, stalls and drops.
+// The device model: captures pin edges in ticks, sends H/E/T/R/S (and, with a room, A) lines like the firmware, reboots, stalls and drops.
 import { encodeRecord } from '../protocol/encode.ts';
 import { SEQ_MODULO, type DeviceRecord } from '../protocol/records.ts';
-import { CHANNEL_LATENCY_TICKS, COMMAND_MAX_BYTES, HEARTBEAT_MAX_MS, HEARTBEAT_MIN_MS } from '../protocol/link-defaults.ts';
+import { AIR_DEFAULT_S, AIR_MAX_S, CHANNEL_LATENCY_TICKS, COMMAND_MAX_BYTES, HEARTBEAT_MAX_MS, HEARTBEAT_MIN_MS } from '../protocol/link-defaults.ts';
+import { SENSOR_FAULTS } from '../protocol/records.ts';
 import { DeviceClock } from './device-clock.ts';
 import type { FaultSchedule, Window } from './fault-schedule.ts';
 import type { PinEdge } from './optics.ts';
@@ -36,6 +37,8 @@ interface Pending {
   body: Body | undefined;
   /** Set when the line was sealed early (a reboot kept it in the UART while seq restarted). */
   line: string | undefined;
+  /** For an S line a reading sent: the sensor state before it, restored if a command undoes the reading. */
+  reading?: { readonly prior: number | undefined };
 }
 
 type Input = 'edge' | 'heartbeat' | 'air' | 'check' | 'reboot' | 'ready' | 'stall' | 'resume';
@@ -52,7 +55,10 @@ export interface DeviceOptions {
   readonly boots: BootTruth[];
   /** No line is formed after this host time. */
   readonly tEnd: number;
-  /** A room sensor reading this room (host time since #start), as the firmware's BME280 does. */
+  /**
+   * A room sensor reading this room (host time since #start), as the firmware's BME280 does. Without one the
+   * device is the reference board with no sensor fitted: its sensor interface says `absent` (S 1).
+   */
   readonly room?: RoomSetup;
 }
 
@@ -77,6 +83,8 @@ export class DeviceModel {
   private airTicksPer = 0;
   private nextAirTicks = Infinity;
   private nextAirAt = Infinity;
+  /** The room sensor's state as last reported in S (undefined at boot until the first reading or probe). */
+  private airState: number | undefined;
   private stalledUntil: number | undefined;
   private stallQueued = 0;
   /** Keeps lines released at the end of a stall in their original order. */
@@ -123,30 +131,58 @@ export class DeviceModel {
     const cmdLine = text.replace(/\r$/, '');
     if (cmdLine.length === 0) return;
     const body = this.reply(cmdLine, t);
-    this.queue(Math.max(t + REPLY_LATENCY_S, this.lastAt), body);
-    if (body.kind === 'H' || (body.kind === 'R' && body.ok && body.cmd === 'A')) this.sensorState(t + REPLY_LATENCY_S);
+    const sent = this.queue(Math.max(t + REPLY_LATENCY_S, this.lastAt), body);
+    // The firmware's main loop sends the sensor's state right behind a hello, and behind an `A` reply that
+    // changed it: off at once; on with no sensor fitted, the probe fails at once and it is `absent` again.
+    if (body.kind === 'H' && this.airState !== undefined) this.queue(sent.at, { kind: 'S', state: this.airState });
+    if (body.kind === 'R' && body.ok && body.cmd === 'A' && (this.airTicksPer === 0 || !this.o.room)) {
+      this.noteSensor(this.airTicksPer === 0 ? SENSOR_FAULTS.off : SENSOR_FAULTS.absent, sent.at);
+    }
   }
 
-  /** The S line the firmware sends after a hello and when readings are switched on or off. */
-  private sensorState(t: number): void {
-    if (this.o.room) this.queue(Math.max(t, this.lastQueued()), { kind: 'S', state: this.airTicksPer > 0 ? 0 : 8 });
+  /**
+   * The room sensor's state as the firmware reports it (firmware/src/room.c): an S line at `at` only when it
+   * changes (and after a hello). `readingAt`: the reading that found it, which a later command may undo.
+   */
+  private noteSensor(state: number, at: number, readingAt?: number): void {
+    if (state === this.airState) return;
+    const prior = this.airState;
+    this.airState = state;
+    const p = this.queue(at, { kind: 'S', state }, readingAt);
+    if (readingAt !== undefined) p.reading = { prior };
   }
 
-  /** Readings every `s` seconds of device time from `fromTicks` (0: off). */
+  /** Readings every `s` seconds of device time from `fromTicks` (0: off); none without a sensor fitted. */
   private setAir(s: number, fromTicks: number): void {
     this.airTicksPer = this.cfg.hz * s;
-    this.nextAirTicks = s > 0 ? fromTicks : Infinity;
-    this.nextAirAt = s > 0 ? this.clock!.timeAt(this.nextAirTicks) : Infinity;
+    this.nextAirTicks = s > 0 && this.o.room ? fromTicks : Infinity;
+    this.nextAirAt = this.clock!.timeAt(this.nextAirTicks);
   }
 
-  /** A reading rounded as the firmware sends it: hundredths of °C, Pa, thousandths of %RH. */
+  /**
+   * A reading rounded as the firmware sends it: hundredths of °C, Pa, thousandths of %RH. The firmware
+   * finishes it (measurement, read-out, compensation) about 11 ms after the trigger and sends a changed
+   * state in the same pass, just before the A line.
+   */
   private onAir(t: number): void {
     const c = roomAt(this.o.room!, t);
     const ticks = Math.floor(this.clock!.ticksAt(t)) % TICKS_MAX;
     const hum = Math.min(100_000, Math.max(0, Math.round(c.rhPct * 1000)));
-    this.queue(Math.max(t + 0.011 + this.emitLatency(), this.lastQueued()), { kind: 'A', ticks, temp: Math.round(c.tempC * 100), press: Math.round(c.pressPa), hum });
-    this.nextAirTicks += this.airTicksPer;
+    const at = Math.max(t + 0.011 + this.emitLatency(), this.lastQueued());
+    this.noteSensor(this.airTicksPer > 0 ? 0 : SENSOR_FAULTS.off, at, t);
+    this.queue(at, { kind: 'A', ticks, temp: Math.round(c.tempC * 100), press: Math.round(c.pressPa), hum }, t);
+    this.nextAirTicks = this.airTicksPer > 0 ? this.nextAirTicks + this.airTicksPer : Infinity;
     this.nextAirAt = this.clock!.timeAt(this.nextAirTicks);
+  }
+
+  /** Readings the model took ahead of a command at t (see undoLookahead) never happened on the firmware. */
+  private undoReadingsAfter(t: number): void {
+    for (let i = this.pending.length - 1; i >= 0; i--) {
+      const p = this.pending[i]!;
+      if (p.line !== undefined || p.ev <= t || (p.body!.kind !== 'A' && !p.reading)) continue;
+      if (p.reading) this.airState = p.reading.prior;
+      this.pending.splice(i, 1);
+    }
   }
 
   /** The firmware's grammar (firmware/src/command.c): numbers of any length saturate, so huge values are `range`. */
@@ -156,11 +192,13 @@ export class DeviceModel {
     const err = (reason: string): Body => ({ kind: 'R', ok: false, cmd, reason, fields: [] });
     if (text.length > MAX_COMMAND_CHARS) return err('too-long');
     if (c === '?') return text === '?' ? this.hello() : err('syntax');
-    if (c === 'A' && this.o.room) {
+    if (c === 'A') {
       const a = /^A ([0-9]+)$/.exec(text);
       if (!a) return err('syntax');
       const s = Number(a[1]);
-      if (s > 3600) return err('range');
+      if (s > AIR_MAX_S) return err('range');
+      this.undoReadingsAfter(t);
+      // The next reading is taken at once (the firmware makes it due now).
       this.setAir(s, this.clock!.ticksAt(t));
       return { kind: 'R', ok: true, cmd, fields: [`s=${s}`] };
     }
@@ -214,10 +252,12 @@ export class DeviceModel {
     return line;
   }
 
-  private queue(at: number, body: Body, ev = at): void {
+  private queue(at: number, body: Body, ev = at): Pending {
     let i = this.pending.length;
     while (i > 0 && this.pending[i - 1]!.at > at) i--;
-    this.pending.splice(i, 0, { at, ev, body, line: undefined });
+    const p: Pending = { at, ev, body, line: undefined };
+    this.pending.splice(i, 0, p);
+    return p;
   }
 
   private emitLatency(): number {
@@ -451,11 +491,11 @@ export class DeviceModel {
     this.queue(helloAt, this.hello());
     // The firmware schedules its first heartbeat one period after it has queued the hello.
     this.setHeartbeat(this.cfg.heartbeat_ms, this.clock.ticksAt(helloAt));
-    if (this.o.room) {
-      // The firmware probes the sensor at boot: first reading and its state a few ms after the hello.
-      this.setAir(this.o.room.interval_s, phase + 0.035 * this.cfg.hz);
-      this.sensorState(t);
-    }
+    this.airState = undefined;
+    // The firmware probes the sensor right after the hello: with one fitted, the first reading (and its state)
+    // follows a few ms later; with none, both addresses go unanswered at once and it says `absent`.
+    this.setAir(this.o.room?.interval_s ?? AIR_DEFAULT_S, phase + 0.035 * this.cfg.hz);
+    if (!this.o.room) this.noteSensor(SENSOR_FAULTS.absent, helloAt);
   }
 
   private onStall(w: Window): void {

@@ -26,25 +26,6 @@ function data(lines: Iterable<string>): Line[] {
   return out;
 }
 
-/**
- * Documented difference 5 (pending): with no sensor fitted the firmware says so (`S`, state absent) after each
- * hello; the model sends S lines only for a scenario with a room. Those lines are taken out, and the seq of the
- * lines after them moved back, before the journals are compared.
- */
-function withoutAbsentSensor<T extends { r: DeviceRecord }>(lines: T[]): T[] {
-  let removed = 0;
-  const out: T[] = [];
-  for (const l of lines) {
-    if (l.r.kind === 'H' && l.r.seq === 0) removed = 0; // a boot restarts seq
-    if (l.r.kind === 'S' && l.r.state === SENSOR_FAULTS.absent) {
-      removed++;
-      continue;
-    }
-    out.push({ ...l, r: { ...l.r, seq: l.r.seq - removed } });
-  }
-  return out;
-}
-
 const key = (r: DeviceRecord): string => (r.kind === 'E' ? `E${r.ch}${r.edge}` : r.kind);
 
 /**
@@ -79,7 +60,7 @@ async function both(sc: Scenario, opts: { seed: number; durationS?: number }) {
   for await (const l of fwRun.lines) fwLines.push(l);
   const m = simulateJournal(sc, opts);
   const mLines = [...m.lines];
-  return { fw: withoutAbsentSensor(data(fwLines)), model: data(mLines), fwTruth: fwRun.truth, modelTruth: m.truth };
+  return { fw: data(fwLines), model: data(mLines), fwTruth: fwRun.truth, modelTruth: m.truth };
 }
 
 describeFirmware('device model vs firmware: the same journal but for the documented differences', () => {
@@ -95,6 +76,7 @@ describeFirmware('device model vs firmware: the same journal but for the documen
     let worstEdge = 0;
     let worstUs = 0;
     let worstBeat = 0;
+    let sensorLines = 0;
     for (const [f, m] of pairs) {
       worstUs = Math.max(worstUs, Math.abs(f.us - m.us));
       if (f.r.kind === 'H' && m.r.kind === 'H') {
@@ -113,23 +95,28 @@ describeFirmware('device model vs firmware: the same journal but for the documen
         expect(late).toBeGreaterThanOrEqual(0);
         expect(late).toBeLessThanOrEqual(8000);
         expect([f.r.lost, f.r.levels]).toEqual([m.r.lost, m.r.levels]);
+      } else {
+        expect(f.r).toEqual(m.r); // S (the sensor's state after each hello): the same line, seq and state
+        sensorLines++;
       }
     }
     // Difference 3: the heartbeat grid starts at the hello, which leaves at a slightly different time.
     expect(Math.abs(beatOffset - edgeOffset)).toBeLessThan(0.0005 * 16e6);
-    // Host times agree to a few USB frames: both paths draw USB latencies from one stream, which the extra S
-    // line of the firmware shifts by one draw.
-    expect(worstUs).toBeLessThanOrEqual(3000);
+    // Host times agree to a few USB frames (both paths draw USB latencies from one stream, line for line).
+    expect(worstUs).toBeLessThanOrEqual(2000);
+    expect(sensorLines).toBe(fwTruth.clock.boots.length); // no sensor fitted: `absent` once per boot
     expect(swaps).toBeLessThanOrEqual(2);
     expect(fwTruth.faults.counts.bounce_pulses).toBeGreaterThan(0);
     expect(fwTruth.faults.counts.edges_captured).toBe(modelTruth.faults.counts.edges_captured);
     console.log(`model vs firmware: ${pairs.length} lines, ${swaps} heartbeat/edge swaps, edges within ${worstEdge} ticks, heartbeats read up to ${worstBeat} ticks late, host times within ${worstUs} µs`);
   }, 60_000);
 
-  it('replies to the host commands are the same lines (seq, fields) in the same place', async () => {
+  it('replies to the host commands and the sensor states (S) are the same lines (seq, fields) in the same place', async () => {
     const sc = loadScenario('ideal-60deg');
-    const opts = { seed: 3, durationS: 8, no_faults: true };
-    const commands = ['?', 'P 250', 'P 50', 'C 1', 'C 7', 'C 3', 'X', '? 1', `P ${'9'.repeat(30)}`, 'P 1000'];
+    const durationS = 14;
+    const opts = { seed: 3, durationS, no_faults: true };
+    const commands = ['?', 'P 250', 'P 50', 'C 1', 'C 7', 'C 3', 'X', '? 1', `P ${'9'.repeat(30)}`, 'P 1000',
+      'A 0', 'A 0', '?', 'A 5', 'A 5', 'A 05', 'A x', 'A 3601', 'A 1 2', `A ${'9'.repeat(12)}`];
     // Off the heartbeat grids (a command and a heartbeat deadline at the same instant may go either way).
     const at = (i: number) => 1.3 + i * 0.613;
     const fwDev = new FirmwareDevice(prepareFirmwareRun(sc, opts));
@@ -140,7 +127,7 @@ describeFirmware('device model vs firmware: the same journal but for the documen
         for (const l of await fwDev.advance(at(i) - 0.002)) fwRecs.push((decodeLine(l.line) as { record: DeviceRecord }).record);
         fwDev.command(at(i), commands[i]!);
       }
-      for (const l of await fwDev.advance(8)) fwRecs.push((decodeLine(l.line) as { record: DeviceRecord }).record);
+      for (const l of await fwDev.advance(durationS)) fwRecs.push((decodeLine(l.line) as { record: DeviceRecord }).record);
     } finally {
       await fwDev.close();
     }
@@ -150,13 +137,18 @@ describeFirmware('device model vs firmware: the same journal but for the documen
       while (device.peekTime() <= at(i)) mRecs.push((decodeLine(device.pop()!.line) as { record: DeviceRecord }).record);
       device.command(at(i), commands[i]!);
     }
-    for (let l = device.pop(); l && l.t <= 8; l = device.pop()) mRecs.push((decodeLine(l.line) as { record: DeviceRecord }).record);
-    const replies = (rs: DeviceRecord[]) => rs.flatMap((r) => (r.kind === 'R' || r.kind === 'H' ? [{ ...r, ...(r.kind === 'H' ? { boot: 0 } : {}) }] : []));
-    const fwOnly = withoutAbsentSensor(fwRecs.map((r) => ({ r }))).map((l) => l.r);
-    expect(replies(fwOnly)).toEqual(replies(mRecs));
-    expect(replies(fwOnly)).toHaveLength(commands.length + 1); // the boot hello and one line per command
+    for (let l = device.pop(); l && l.t <= durationS; l = device.pop()) mRecs.push((decodeLine(l.line) as { record: DeviceRecord }).record);
+    const replies = (rs: DeviceRecord[]) => rs.flatMap((r) => (r.kind === 'R' || r.kind === 'H' || r.kind === 'S' ? [{ ...r, ...(r.kind === 'H' ? { boot: 0 } : {}) }] : []));
+    expect(replies(mRecs)).toEqual(replies(fwRecs));
+    expect(replies(fwRecs).filter((r) => r.kind !== 'S')).toHaveLength(commands.length + 1); // the boot hello and one line per command
+    // The firmware's states, as protocol/SPEC.md section 4.6 says: no sensor fitted, so `absent` right after
+    // each hello (the line after it); `A 0` turns readings off (`off`, once: the second changes nothing); `A 5`
+    // probes at once, finds nothing and says `absent` (once); errors change nothing.
+    const { absent, off } = SENSOR_FAULTS;
+    const states = fwRecs.flatMap((r, i) => (r.kind === 'S' ? [[r.state, fwRecs[i - 1]!.kind === 'H' ? 'H' : (fwRecs[i - 1] as { cmd?: string }).cmd]] : []));
+    expect(states).toEqual([[absent, 'H'], [absent, 'H'], [off, 'A'], [off, 'H'], [absent, 'A']]);
     // Heartbeats follow the new periods the same way: same count, same seq.
     const beats = (rs: DeviceRecord[]) => rs.flatMap((r) => (r.kind === 'T' ? [r.seq] : []));
-    expect(beats(fwOnly)).toEqual(beats(mRecs));
+    expect(beats(mRecs)).toEqual(beats(fwRecs));
   }, 60_000);
 });
