@@ -46,10 +46,14 @@ const FIRMWARE_HELLO_S = 0.0332;
 
 /**
  * A run prepared for the emulated firmware: the toolchain checked and built, the truth's capture latency
- * the emulated part's (simavr models no synchroniser or noise canceller: ch0 reads 0, not 4), and the link
- * at the shipped build's baud rate, whatever the scenario's device says.
+ * the emulated part's (simavr models no synchroniser or noise canceller: ch0 reads 0, not 4). The link runs
+ * at the shipped build's baud rate; a scenario asking for another is refused (the shipped HEX is built for
+ * one rate, and a run at a rate the firmware does not speak would not be that firmware's run).
  */
 export function prepareFirmwareRun(base: Scenario, opts: SimOptions): Run {
+  if (base.device.baud !== DEFAULT_BAUD) {
+    throw new EmulatorUnavailable(`the shipped firmware links at ${DEFAULT_BAUD} baud, the scenario's device at ${base.device.baud}: set device.baud to ${DEFAULT_BAUD} in the scenario, or run without --firmware`);
+  }
   ensureEmulator();
   const device = { ...base.device, capture_latency_ticks: EMULATOR_CHANNEL_LATENCY_TICKS[0], baud: DEFAULT_BAUD };
   const emulated = { ...base, device };
