@@ -7,6 +7,7 @@
 // run this keeps it near a ms per second; the rate it leaves out moves by far less than its uncertainty (a 10 h run's
 // host fit moved 1.3 ppm in 9 h, so a lag of 0.1 % of the run moves periods by ~1e-9).
 import type { Rig } from '../../protocol/rig.ts';
+import { SENSOR_FAULTS } from '../../protocol/records.ts';
 import { airDensityCipm2007 } from '../analysis/air-density.ts';
 import { hostCalibrationStart, type ClockOption } from './clock-choice.ts';
 import type { RunClock } from './clock-inputs.ts';
@@ -32,10 +33,13 @@ function liveClockOf(option: ClockOption, rc: RunClock): LiveClock {
   return { source: c.source, ppm: c.ppm, u_ppm: c.u_ppm, hostCalibrationFrom_s: auto ? hostCalibrationStart(rc.beats) : null };
 }
 
-/** The room sensor's state and latest reading; null when the run has shown no sensor. */
+/**
+ * The room sensor's state and latest reading; null when the run has shown no sensor: no S at all, or only
+ * `absent` and never a reading (the reference board with no sensor fitted says `absent` after each hello).
+ */
 function liveRoomOf(intake: DeviceIntake): LiveRoom | null {
   const last = intake.room.at(-1);
-  if (intake.sensorState === null && !last) return null;
+  if (!last && (intake.sensorState === null || intake.sensorState === SENSOR_FAULTS.absent)) return null;
   const at = intake.lastRoomHostUs;
   const reading = last && at !== null ? { tempC: last.tempC, pressPa: last.pressPa, rhPct: last.rhPct, airDensity_kg_m3: airDensityCipm2007(last), host_s: at / 1e6 } : null;
   return { sensorState: intake.sensorState, reading };
