@@ -10,7 +10,9 @@ export type ConnectionState =
   | { readonly kind: 'reconnecting'; readonly retries: number }
   | { readonly kind: 'following' }
   | { readonly kind: 'replaying' }
-  | { readonly kind: 'ended'; readonly why: string };
+  | { readonly kind: 'ended'; readonly why: string; readonly short?: string }
+  /** A followed journal that has stopped growing without the recorder's stop (it may grow again). */
+  | { readonly kind: 'not-written'; readonly why: string; readonly short: string };
 
 export interface FeedStatus {
   readonly sourceKind: 'demo' | 'live' | 'watch';

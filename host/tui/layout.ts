@@ -61,17 +61,25 @@ function itemsWidth(items: readonly { label: string; value: string }[]): number 
 }
 
 /**
- * Fits `label value` items, joined by ` · `, into one line of `width` columns. Values marked `shrink` (paths)
- * lose their beginning first, marked with `…`, so the end of a path stays readable; then items drop from the end.
+ * Fits `label value` items, joined by ` · `, into one line of `width` columns. Values with a `short` wording take it
+ * first (the longest first); values marked `shrink` (paths) then lose their beginning, marked with `…`, so the end
+ * of a path stays readable; then items drop, those marked `dropFirst` before the others, each from the end.
  */
-export function fitItems<T extends { label: string; value: string; shrink?: boolean }>(items: readonly T[], width: number): T[] {
+export function fitItems<T extends { label: string; value: string; shrink?: boolean; short?: string; dropFirst?: boolean }>(items: readonly T[], width: number): T[] {
   const out = items.map((it) => ({ ...it }));
   const len = (v: string): number => [...v].length;
   for (let guard = 0; guard < 200 && out.length > 0 && itemsWidth(out) > width; guard++) {
     const over = itemsWidth(out) - width;
+    const shorter = out.map((it, i) => [it, i] as const).filter(([it]) => it.short !== undefined && len(it.short) < len(it.value));
+    if (shorter.length > 0) {
+      const [it, i] = shorter.reduce((a, b) => (len(b[0].value) > len(a[0].value) ? b : a));
+      out[i] = { ...it, value: it.short!, short: undefined };
+      continue;
+    }
     const candidates = out.map((it, i) => [it, i] as const).filter(([it]) => it.shrink && len(it.value) > 8);
     if (candidates.length === 0) {
-      out.pop();
+      const first = out.findLastIndex((it) => it.dropFirst);
+      out.splice(first >= 0 ? first : out.length - 1, 1);
       continue;
     }
     const [it, i] = candidates.reduce((a, b) => (len(b[0].value) > len(a[0].value) ? b : a));

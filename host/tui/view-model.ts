@@ -38,6 +38,10 @@ export interface StatusItem {
   readonly line: 1 | 2;
   /** A path that may lose its beginning when the line is too narrow. */
   readonly shrink?: boolean;
+  /** A shorter wording for a narrow line. */
+  readonly short?: string;
+  /** Dropped before the other items when the line is still too narrow. */
+  readonly dropFirst?: boolean;
 }
 
 export interface NumberRow {
@@ -97,7 +101,9 @@ function connectionItem(feed: FeedStatus): StatusItem {
     case 'replaying':
       return { label: 'mode', value: 'replaying', tone: 'good', line: 2 };
     case 'ended':
-      return { label: feed.sourceKind === 'watch' ? 'mode' : 'link', value: `ended: ${c.why}`, tone: 'muted', line: 2 };
+      return { label: feed.sourceKind === 'watch' ? 'mode' : 'link', value: `ended: ${c.why}`, ...(c.short ? { short: c.short } : {}), tone: 'muted', line: 2 };
+    case 'not-written':
+      return { label: 'mode', value: c.why, short: c.short, tone: 'muted', line: 2 };
   }
 }
 
@@ -158,7 +164,9 @@ function clockItem(c: LiveClock): StatusItem {
     c.source === 'nominal'
       ? `nominal (±${formatFixed(c.u_ppm, 0)} ppm)${from ? `, host fit at ${from}` : ''}`
       : `${formatWithU(c.ppm, c.u_ppm, 1).replace(/^(?=\d)/, '+')} ppm (${c.source}${c.source === 'host' && from ? ` since ${from}` : ''})`;
-  return { label: 'clock', value, tone: c.source === 'nominal' ? 'muted' : 'normal', line: 2 };
+  // On a narrow line the clock keeps its rate and u, and gives way before the run time does.
+  const short = c.source === 'nominal' ? `nominal (±${formatFixed(c.u_ppm, 0)} ppm)` : `${formatWithU(c.ppm, c.u_ppm, 1).replace(/^(?=\d)/, '+')} ppm`;
+  return { label: 'clock', value, short, dropFirst: true, tone: c.source === 'nominal' ? 'muted' : 'normal', line: 2 };
 }
 
 /** The status bar: source, speed, device, connection (line 1); clock, run time, estimates, journal (line 2). */

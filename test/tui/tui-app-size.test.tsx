@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { render } from 'ink';
 import { App } from '../../host/tui/components/app.tsx';
 import { demoStatus, fixedStore, loadRecorded, tick } from './snapshots.ts';
+import { formatDuration } from '../../host/tui/format.ts';
 
 /** A fake terminal of a given size that keeps the last frame written. */
 class FakeTerminal extends EventEmitter {
@@ -21,10 +22,10 @@ class FakeTerminal extends EventEmitter {
   };
 }
 
-async function frameAt(columns: number, rows: number, resizeTo?: [number, number], fixture: Parameters<typeof loadRecorded>[0] = 'snapshot-night-reboot'): Promise<string[]> {
+async function frameAt(columns: number, rows: number, resizeTo?: [number, number], fixture: Parameters<typeof loadRecorded>[0] = 'snapshot-night-reboot', status = demoStatus()): Promise<string[]> {
   const rec = loadRecorded(fixture);
   const out = new FakeTerminal(columns, rows);
-  const inst = render(<App store={fixedStore(rec.snapshot)} status={() => demoStatus()} nowMs={() => 0} onEffect={() => {}} interactive={false} />, {
+  const inst = render(<App store={fixedStore(rec.snapshot)} status={() => status} nowMs={() => 0} onEffect={() => {}} interactive={false} />, {
     stdout: out as unknown as NodeJS.WriteStream,
     debug: true,
     patchConsole: false,
@@ -65,6 +66,21 @@ describe('frame size', () => {
       for (const part of ['amplitude θ0 (°)', 'time (min)', 'azimuth', 'box', 'room ', 'health', 'q  quit']) expect(f, `${size}: ${part}`).toContain(part);
       expect(lines.filter((l) => l.startsWith('┌') || l.startsWith('└─')).length).toBeGreaterThanOrEqual(2);
     }
+  });
+
+  it('a watched journal that is not being written: at 80×24 the status line keeps that, and the run time stopped at its last line', async () => {
+    const status = demoStatus({
+      sourceKind: 'watch',
+      sourceLabel: 'run.journal',
+      speed: null,
+      journal: { path: 'run.journal', bytes: 123_456 },
+      connection: { kind: 'not-written', why: 'not being written since 2026-01-05 09:03:20 UTC', short: 'not written since 2026-01-05 09:03:20 UTC' },
+    });
+    const rec = loadRecorded('snapshot-demo-120s');
+    const lines = await frameAt(80, 24, undefined, 'snapshot-demo-120s', status);
+    for (const l of lines) expect(cols(l)).toBeLessThanOrEqual(80);
+    expect(lines[1]).toContain('mode not written since 2026-01-05 09:03:20 UTC');
+    expect(lines[1]).toContain(`run ${formatDuration(rec.snapshot.lastHost_s!)}`);
   });
 
   it('uses a larger terminal: wider plots and taller charts', async () => {

@@ -37,7 +37,8 @@ describe('journal feed (watch)', () => {
     appendFileSync(path, `2000 ${encodeRecord({ kind: 'T', seq: 1, ticks: 16_000_000, lost: 0, levels: 1 })}\n#@2500 note moved the gate\n`);
     const more = await take(it, 2);
     expect(more.map((e) => e.kind)).toEqual(['data', 'annotation']);
-    now = 5000;
+    // Two seconds after the last line: still being written (quiet for 3 heartbeats + 1 s, it would not be).
+    now = 2000;
     const st = feed.status();
     expect(st.connection.kind).toBe('following');
     expect(st.journal?.bytes).toBe(readFileSync(path).length);

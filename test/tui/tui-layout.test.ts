@@ -29,10 +29,21 @@ describe('fitItems', () => {
     expect(out[1]!.value.endsWith('night.journal (12.3 MB)')).toBe(true);
   });
 
+  it('takes the short wordings first, then drops the items marked to go first, keeping the run time', () => {
+    const items = [
+      { label: 'mode', value: 'ended: recording ended 2026-01-05 09:03:20 UTC (shutdown (SIGTERM))', short: 'ended 2026-01-05 09:03:20 UTC' },
+      { label: 'clock', value: 'nominal (±2887 ppm), host fit at 5:01', short: 'nominal (±2887 ppm)', dropFirst: true },
+      { label: 'run', value: '3:20' },
+    ];
+    expect(fitItems(items, 62).map((i) => `${i.label} ${i.value}`)).toEqual(['mode ended 2026-01-05 09:03:20 UTC', 'run 3:20']);
+    expect(fitItems(items, 80).map((i) => i.value)).toEqual(['ended 2026-01-05 09:03:20 UTC', 'nominal (±2887 ppm)', '3:20']);
+    expect(fitItems(items, 200).map((i) => i.value)).toEqual(items.map((i) => i.value));
+  });
+
   it('always fits, whatever the items', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ label: fc.string({ minLength: 1, maxLength: 8 }), value: fc.string({ maxLength: 60 }), shrink: fc.boolean() }), { maxLength: 8 }),
+        fc.array(fc.record({ label: fc.string({ minLength: 1, maxLength: 8 }), value: fc.string({ maxLength: 60 }), shrink: fc.boolean(), short: fc.option(fc.string({ maxLength: 60 }), { nil: undefined }), dropFirst: fc.boolean() }), { maxLength: 8 }),
         fc.integer({ min: 10, max: 120 }),
         (items, w) => {
           expect(width(fitItems(items, w))).toBeLessThanOrEqual(w);

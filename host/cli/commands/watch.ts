@@ -20,7 +20,9 @@ export const command: Command = {
 Following: reads what is in the journal, then shows each new line as the recorder appends it; waits for the
 file with --wait if the recorder has not created it yet. The port stays with the recorder: start and stop watch freely.
 A journal that ends with the recorder's stop is a finished recording: the view says when it ended, its run
-clock stops there, and no "no passes" or "no heartbeat" warning counts the time since.
+clock stops there, and no "no passes" or "no heartbeat" warning counts the time since. A journal that ends
+without one (sim output, a recorder killed or cut off) is shown as "not being written since" its last line once
+it has not grown for a few seconds and that line is older than three heartbeat periods; it is live again when it grows.
 Replaying (--speed): plays the journal at its own pace, N times faster, and stops at its end.
 Keys: q quit, p pause the display, r restart the estimates from now, ? help.`,
   async run(args, io) {
@@ -44,6 +46,7 @@ Keys: q quit, p pause the display, r restart the estimates from now, ? help.`,
         }
       },
       nowMs: pio.nowMs,
+      wallMs: () => Date.now(),
     });
     return runLiveView({ feed, createPipeline: () => createRunPipeline(), ...pio });
   },
