@@ -71,35 +71,34 @@ export function besselG(x: BesselInput): BesselResult | null {
   const dA_dT1 = T1 / l + (air * T1) / dh;
   const dA_dT2 = T2 / l - (air * T2) / dh;
   const rel = (dA: number): number => Math.abs(dA) / A;
-  const ms = (s: number): string => `${(s * 1e6).toPrecision(3)} µs`;
   const budget: BudgetLine[] = [
-    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: `l = ${Number(l.toPrecision(8))} ± ${x.l_u_m} m` },
+    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: rel(dA_dl * x.l_u_m), note: { kind: 'length', symbol: 'l', m: l, u_m: x.l_u_m } },
     {
       id: 'centre-of-mass-distances',
       name: 'centre-of-mass distances h1 − h2',
       u_rel_g: rel(dA_ddh * x.dh_u_m),
-      note: `h1 − h2 = ${dh.toFixed(4)} ± ${x.dh_u_m} m; T1 − T2 = ${ms(T1 - T2)}`,
+      note: { kind: 'centre-of-mass', m: dh, u_m: x.dh_u_m, period_difference_s: T1 - T2 },
     },
-    { id: 'pivot-1-statistics', name: 'T1 (pivot 1, statistics)', u_rel_g: rel(dA_dT1 * x.pivot1.u_stat_s), note: `T1 = ${T1.toFixed(7)} s ± ${ms(x.pivot1.u_stat_s)}` },
-    { id: 'pivot-2-statistics', name: 'T2 (pivot 2, statistics)', u_rel_g: rel(dA_dT2 * x.pivot2.u_stat_s), note: `T2 = ${T2.toFixed(7)} s ± ${ms(x.pivot2.u_stat_s)}` },
+    { id: 'pivot-1-statistics', name: 'T1 (pivot 1, statistics)', u_rel_g: rel(dA_dT1 * x.pivot1.u_stat_s), note: { kind: 'period', symbol: 'T1', s: T1, u_s: x.pivot1.u_stat_s } },
+    { id: 'pivot-2-statistics', name: 'T2 (pivot 2, statistics)', u_rel_g: rel(dA_dT2 * x.pivot2.u_stat_s), note: { kind: 'period', symbol: 'T2', s: T2, u_s: x.pivot2.u_stat_s } },
     {
       id: 'amplitude-reduction',
       name: 'amplitude reduction (both pivots, same flag and gate)',
       u_rel_g: rel(dA_dT1 * x.pivot1.u_amp_s + dA_dT2 * x.pivot2.u_amp_s),
-      note: `${ms(x.pivot1.u_amp_s)} and ${ms(x.pivot2.u_amp_s)}, taken together`,
+      note: { kind: 'both-pivots', pivot1_u_s: x.pivot1.u_amp_s, pivot2_u_s: x.pivot2.u_amp_s },
     },
     // A common clock factor (1 + ε) scales A by (1 + 2ε) exactly; each journal's own calibration error moves its period alone.
     {
       id: 'clock',
       name: 'device clock (each journal calibrated on its own, and any common part)',
       u_rel_g: Math.hypot(2 * x.clock_u_rel, rel(dA_dT1 * (x.pivot1.u_clock_s ?? 0)), rel(dA_dT2 * (x.pivot2.u_clock_s ?? 0))),
-      note: `${ms(x.pivot1.u_clock_s ?? 0)} and ${ms(x.pivot2.u_clock_s ?? 0)}${x.clock_u_rel > 0 ? `; common ${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` : ''}`,
+      note: { kind: 'pivot-clocks', pivot1_u_s: x.pivot1.u_clock_s ?? 0, pivot2_u_s: x.pivot2.u_clock_s ?? 0, common_u_rel: x.clock_u_rel },
     },
   ];
   // Applied only with the body's volume and mass; 10 % of it as its u (common practice, no source).
   if (air < 1) {
     const shift = ((1 - air) * Math.abs(T1 * T1 - T2 * T2)) / (2 * Math.abs(dh)) / A;
-    budget.push({ id: 'air', name: 'correction: air buoyancy on the difference term (cancels at T1 = T2)', u_rel_g: 0.1 * shift, note: `ρ_air·V/M = ${(1 - air).toExponential(2)}, moves g by ${shift.toExponential(1)}` });
+    budget.push({ id: 'air', name: 'correction: air buoyancy on the difference term (cancels at T1 = T2)', u_rel_g: 0.1 * shift, note: { kind: 'buoyancy-difference', ratio: 1 - air, g_rel: shift } });
   }
   return {
     g_m_s2: g,

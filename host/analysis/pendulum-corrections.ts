@@ -68,14 +68,14 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
     name: 'finite bob (sphere, I = M(L² + 2r²/5))',
     period_rel: Math.sqrt(sphereOnly / L) - 1,
     applied: r !== undefined,
-    why: r !== undefined ? `r = ${(r * 1000).toFixed(2)} mm` : 'not applied: the rig gives no bob_diameter_m',
+    why: r !== undefined ? { kind: 'bob-radius', m: r } : { kind: 'not-applied', correction: 'finite-bob' },
   });
   lines.push({
     id: 'string-mass',
     name: 'string mass (uniform rod to the bob)',
     period_rel: Math.sqrt(full / sphereOnly) - 1,
     applied: haveMasses,
-    why: haveMasses ? `m_s/M = ${(rig.string_mass_kg! / rig.bob_mass_kg!).toExponential(2)}` : 'not applied: needs bob_mass_kg and string_mass_kg',
+    why: haveMasses ? { kind: 'string-to-bob-mass', ratio: rig.string_mass_kg! / rig.bob_mass_kg! } : { kind: 'not-applied', correction: 'string-mass' },
   });
   const haveDensity = rig.bob_density_kg_m3 !== undefined;
   // The added-mass coefficient of a real swing lies between potential flow (k = 1/2) and Stokes' oscillating
@@ -91,9 +91,7 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
     period_rel: air,
     u_rel: haveDensity ? Math.hypot(0.1 * airLo, (airHi - airLo) / 2 / Math.sqrt(3)) : Math.abs(air) / Math.sqrt(3),
     applied: haveDensity,
-    why: haveDensity
-      ? `ρ_air/ρ_bob = ${(rig.air_density_kg_m3 / rig.bob_density_kg_m3!).toExponential(2)}`
-      : 'not applied: no bob_density_kg_m3 (size shown for a steel bob; counted in the budget)',
+    why: haveDensity ? { kind: 'air-to-bob-density', ratio: rig.air_density_kg_m3 / rig.bob_density_kg_m3! } : { kind: 'not-applied', correction: 'air' },
   });
   const damp = q !== null && q > 0.5 ? dampingPeriodRel(q) : 0;
   lines.push({
@@ -101,7 +99,7 @@ export function pendulumModel(rig: Rig, omega0: number, q: number | null): Pendu
     name: 'damping (viscous form 1/(8Q²))',
     period_rel: damp,
     applied: q !== null,
-    why: q !== null ? `Q = ${q.toPrecision(3)} measured` : 'not applied: Q unknown',
+    why: q !== null ? { kind: 'q-measured', q } : { kind: 'not-applied', correction: 'damping' },
   });
   return { L_eff_m: full, air_rel: haveDensity ? air : 0, unapplied_rel: haveDensity ? 0 : air, lines };
 }

@@ -5,6 +5,7 @@ import type { RejectReason } from '../../protocol/records.ts';
 import type { GateDelay } from './delay-fit.ts';
 import type { PlaneSummary } from './plane-rate.ts';
 import type { DerivedU } from './stages/derived-uncertainty.ts';
+import type { BudgetNote, CorrectionNote } from './budget-note.ts';
 
 /** Fault and health counts of a run. */
 export interface RunCounts {
@@ -68,8 +69,8 @@ export interface BudgetLine {
   /** Display text. */
   readonly name: string;
   readonly u_rel_g: number;
-  /** Human note: the input's value and standard uncertainty. */
-  readonly note?: string;
+  /** What the input is: its value and standard uncertainty, or its counts (worded by host/output/budget-words.ts). */
+  readonly note?: BudgetNote;
 }
 
 /** A correction considered for g: its size, and whether it was applied. */
@@ -80,7 +81,8 @@ export interface CorrectionLine {
   /** Relative change of the period it accounts for (ΔT/T0). */
   readonly period_rel: number;
   readonly applied: boolean;
-  readonly why: string;
+  /** What it was computed from, or why not applied (worded by host/output/budget-words.ts). */
+  readonly why: CorrectionNote;
   /** Its standard uncertainty as a relative period change, where it is not the default 10 % of its size. */
   readonly u_rel?: number;
 }

@@ -136,10 +136,10 @@ export function tuningCrossing(x: TuningInput): TuningResult {
   const g = (4 * Math.PI * Math.PI * x.l_m) / (c0.T * c0.T);
   const uT = Math.sqrt(vt);
   const budget: BudgetLine[] = [
-    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: `l = ${Number(x.l_m.toPrecision(8))} ± ${x.l_u_m} m` },
-    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2: statistics, clock calibration of each run)', u_rel_g: (2 * uT) / c0.T, note: `T = ${c0.T.toFixed(7)} s ± ${(uT * 1e6).toFixed(2)} µs` },
+    { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: { kind: 'length', symbol: 'l', m: x.l_m, u_m: x.l_u_m } },
+    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2: statistics, clock calibration of each run)', u_rel_g: (2 * uT) / c0.T, note: { kind: 'period', symbol: 'T', s: c0.T, u_s: uT } },
     { id: 'amplitude-reduction', name: 'amplitude reduction (every run, same flag and gate)', u_rel_g: 2 * x.amp_u_rel },
-    ...(x.clock_u_rel > 0 ? [{ id: 'clock' as const, name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: `${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` }] : []),
+    ...(x.clock_u_rel > 0 ? [{ id: 'clock', name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: { kind: 'common-clock', u_rel: x.clock_u_rel } } satisfies BudgetLine] : []),
   ];
   return {
     ok: true,

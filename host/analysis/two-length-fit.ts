@@ -147,15 +147,15 @@ export function twoLengthFit(x: TwoLengthInput): TwoLengthResult | null {
   const corrC = Math.abs(shifted.b / shifted.a - b / a);
   const g = (4 * Math.PI * Math.PI * (1 + x.air_rel) ** 2) / a;
   const budget: BudgetLine[] = [
-    { id: 'length-differences', name: 'length differences (one scale)', u_rel_g: px.ua, note: `each reading ± ${(ux * 1e6).toFixed(1)} µm (length_step_u_m/√2)` },
-    { id: 'length-t0', name: 'T0 of each length (statistics, amplitude reduction)', u_rel_g: py.ua, note: `${n} lengths` },
-    { id: 'length-corrections', name: 'corrections per length (finite bob, string mass)', u_rel_g: corrA, note: `${(x.correction_u_frac * 100).toFixed(0)} % of each, taken together` },
+    { id: 'length-differences', name: 'length differences (one scale)', u_rel_g: px.ua, note: { kind: 'scale-reading', u_m: ux } },
+    { id: 'length-t0', name: 'T0 of each length (statistics, amplitude reduction)', u_rel_g: py.ua, note: { kind: 'lengths', count: n } },
+    { id: 'length-corrections', name: 'corrections per length (finite bob, string mass)', u_rel_g: corrA, note: { kind: 'correction-fraction', fraction: x.correction_u_frac } },
     { id: 'air', name: 'air buoyancy and added mass (same bob throughout)', u_rel_g: 2 * x.air_u_rel },
     {
       id: 'clock',
       name: 'device clock (each run calibrated on its own, and any common part)',
       u_rel_g: Math.hypot(2 * x.clock_u_rel, pk.ua),
-      ...(x.clock_u_rel > 0 ? { note: `common ${(x.clock_u_rel * 1e6).toPrecision(2)} ppm` } : {}),
+      ...(x.clock_u_rel > 0 ? { note: { kind: 'common-clock', u_rel: x.clock_u_rel } } : {}),
     },
   ];
   return {

@@ -1,11 +1,12 @@
 // `combine`'s text summary and its --json object (the keys of issue #17's contract, then the budget).
 import type { Combined, ReversibleCombined, TwoLengthCombined } from '../analysis/combine.ts';
 import type { BudgetLine } from '../analysis/result.ts';
+import { budgetLineJson, noteText } from './budget-words.ts';
 import { plusMinus, quoteU } from './value-u.ts';
 
 /** The --json object: the contract's keys first, then the budget and the expected g. */
 export function combineJson(c: Combined): Record<string, unknown> {
-  const tail = { budget: c.budget, expected_g_m_s2: c.expected_g_m_s2 };
+  const tail = { budget: c.budget.map(budgetLineJson), expected_g_m_s2: c.expected_g_m_s2 };
   if (c.method === 'two-length')
     return {
       method: c.method,
@@ -33,7 +34,7 @@ const mm = (v: number, u: number): string => plusMinus(v * 1000, u * 1000, ' mm'
 
 function budgetLines(rows: readonly BudgetLine[], extra: (b: BudgetLine) => string[] = () => []): string[] {
   const out = ['  uncertainty budget (relative standard uncertainty of g):'];
-  for (const b of rows) out.push(`      ${b.u_rel_g.toExponential(2)}  ${b.name}${b.note ? ` (${b.note})` : ''}`, ...extra(b));
+  for (const b of rows) out.push(`      ${b.u_rel_g.toExponential(2)}  ${b.name}${b.note ? ` (${noteText(b.note)})` : ''}`, ...extra(b));
   return out;
 }
 

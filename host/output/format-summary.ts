@@ -4,6 +4,7 @@ import { duration } from '../report/format.ts';
 import { gateFigure } from './gate-words.ts';
 import { plusMinus, quoteU } from './value-u.ts';
 import { warningText } from './warning-words.ts';
+import { noteText } from './budget-words.ts';
 
 const fix = (v: number | null | undefined, d: number, unit = ''): string => (v === null || v === undefined ? '—' : `${v.toFixed(d)}${unit}`);
 
@@ -28,7 +29,7 @@ export function formatSummary(r: AnalysisResult, journalName: string): string {
   L.push(`  damping          ${r.damping_model ?? '—'}; Q = ${plusMinus(r.Q, r.Q_u)} at ${fix(r.median_amplitude_deg, 2, '°')}; amplitude time constant ${fix(r.damping_tau_s, 0, ' s')}`);
   if (r.budget.length) {
     L.push('  uncertainty budget (relative standard uncertainty of g):');
-    for (const b of r.budget) L.push(`    ${b.u_rel_g.toExponential(2).padStart(9)}  ${b.name}${b.note ? ` (${b.note})` : ''}`);
+    for (const b of r.budget) L.push(`    ${b.u_rel_g.toExponential(2).padStart(9)}  ${b.name}${b.note ? ` (${noteText(b.note)})` : ''}`);
     if (r.g_m_s2 !== null && r.g_u_m_s2 !== null) L.push(`    ${(r.g_u_m_s2 / r.g_m_s2).toExponential(2).padStart(9)}  combined (k = 1)`);
   }
   const c = r.counts;

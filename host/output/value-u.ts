@@ -5,7 +5,8 @@
 // share a power of ten (1.24e18 ± 0.31e18). Without a usable u, the value alone to `sigWithout` significant digits.
 // Coverage: every view shows the standard uncertainty u (k = 1); where it also shows the expanded uncertainty
 // U = 2u, that is labelled k = 2 and rounded by the same rule (U to two digits, the value at U's place), through
-// `roundAtK` and `quoteU` below, never by a caller's own toFixed/toPrecision.
+// `roundAtK` and `quoteU` below, never by a caller's own toFixed/toPrecision. An uncertainty shown alone (`uAlone`)
+// gets the same two digits.
 
 /** From here up, digits stop being readable: value and u get a shared power of ten. */
 const BIG = 1e6;
@@ -54,6 +55,11 @@ export function plusMinus(v: number | null | undefined, u: number | null | undef
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
   const r = roundWithU(v, u, sigWithout);
   return `${r.value}${r.u !== null ? ` ± ${r.u}` : ''}${unit}`;
+}
+
+/** An uncertainty shown without its value ("1.2 µs" of a pivot's period): two significant digits by the same rule. */
+export function uAlone(u: number, unit = ''): string {
+  return `${roundWithU(u, u).u ?? significant(u, 2)}${unit}`;
 }
 
 /** Coverage factor of a shown uncertainty: 1 for the standard uncertainty u, 2 for the expanded U = 2u. */

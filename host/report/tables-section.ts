@@ -1,4 +1,5 @@
 // The uncertainty budget, the corrections considered, the fault counts and the warnings, as tables and lists.
+import { noteText } from '../output/budget-words.ts';
 import { warningText } from '../output/warning-words.ts';
 import type { AnalysisResult, RunCounts } from '../analysis/result.ts';
 import { esc } from './escape.ts';
@@ -22,7 +23,7 @@ export function budgetTable(r: Pick<AnalysisResult, 'budget' | 'g_m_s2' | 'g_u_m
     .sort((a, b) => b.u_rel_g - a.u_rel_g)
     .map((b) => {
       const share = sumSq > 0 ? b.u_rel_g ** 2 / sumSq : 0;
-      return `<tr data-budget="${esc(b.name)}"><th scope="row">${esc(b.name)}</th><td class="note">${esc(b.note ?? '')}</td><td class="n" data-key="u_rel_g">${esc(ppm(b.u_rel_g))}</td><td class="n">${share > 0 && share < 0.0005 ? '&lt; 0.1 %' : `${esc(fixed(share * 100, 1))} %`}</td><td>${bar(share)}</td></tr>`;
+      return `<tr data-budget="${esc(b.name)}"><th scope="row">${esc(b.name)}</th><td class="note">${esc(b.note ? noteText(b.note) : '')}</td><td class="n" data-key="u_rel_g">${esc(ppm(b.u_rel_g))}</td><td class="n">${share > 0 && share < 0.0005 ? '&lt; 0.1 %' : `${esc(fixed(share * 100, 1))} %`}</td><td>${bar(share)}</td></tr>`;
     });
   const combined =
     r.g_m_s2 !== null && r.g_u_m_s2 !== null
@@ -40,7 +41,7 @@ export function correctionsTable(r: AnalysisResult): string {
   if (r.corrections.length === 0) return `<section id="corrections"><h2>Corrections</h2><p class="muted">No corrections were considered (no T0).</p></section>`;
   const rows = r.corrections.map(
     (c) =>
-      `<tr data-correction="${esc(c.name)}"><th scope="row">${esc(c.name)}</th><td class="n" data-key="period_rel">${esc(ppm(c.period_rel))}</td><td class="n">${esc(ppm(-2 * c.period_rel))}</td><td class="${c.applied ? 'yes' : 'no'}">${c.applied ? 'applied' : 'not applied'}</td><td class="note">${esc(c.why)}</td></tr>`,
+      `<tr data-correction="${esc(c.name)}"><th scope="row">${esc(c.name)}</th><td class="n" data-key="period_rel">${esc(ppm(c.period_rel))}</td><td class="n">${esc(ppm(-2 * c.period_rel))}</td><td class="${c.applied ? 'yes' : 'no'}">${c.applied ? 'applied' : 'not applied'}</td><td class="note">${esc(noteText(c.why))}</td></tr>`,
   );
   return (
     `<section id="corrections"><h2>Corrections</h2><table class="tbl"><thead><tr><th>correction</th><th class="n">ΔT/T0 (ppm)</th><th class="n">effect on g (ppm)</th><th>status</th><th>why</th></tr></thead>` +

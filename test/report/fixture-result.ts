@@ -49,13 +49,13 @@ export function syntheticResult(over: Partial<AnalysisResult> = {}, n = 300, a0D
     periods: n,
     counts: { crc_errors: 2, bad_lines: 0, lines_lost: 3, device_lost: 0, rejected_passes: 1, bridged_gaps: 1, reboots: 0, disconnects: 0, unknown_kinds: 0, glitches: 4, bounces: 0, edge_resyncs: 0, unsequenced_passes: 0, long_gaps: 0, malformed_journal_lines: 0 },
     budget: [
-      { id: 'length', name: 'length L', u_rel_g: 0.001, note: 'L = 1.0000 m, u = 1.0 mm' },
-      { id: 'statistics', name: 'timing', u_rel_g: 3.1e-6, note: 'from the scatter of periods' },
-      { id: 'clock', name: 'clock rate', u_rel_g: 1.6e-6, note: '−1234.5 ± 0.8 ppm' },
+      { id: 'length', name: 'length L', u_rel_g: 0.001, note: { kind: 'length', symbol: 'L', m: 1, u_m: 0.001 } },
+      { id: 'statistics', name: 'timing', u_rel_g: 3.1e-6, note: { kind: 'periods', count: n } },
+      { id: 'clock', name: 'clock rate', u_rel_g: 1.6e-6, note: { kind: 'clock-rate', ppm: -1234.5, u_ppm: 0.8 } },
     ],
     corrections: [
-      { id: 'finite-bob', name: 'finite bob (physical pendulum)', period_rel: 1.0e-4, applied: true, why: 'bob diameter given' },
-      { id: 'air', name: 'air buoyancy', period_rel: 7.5e-5, applied: false, why: 'bob density not given' },
+      { id: 'finite-bob', name: 'finite bob (physical pendulum)', period_rel: 1.0e-4, applied: true, why: { kind: 'bob-radius', m: 0.0127 } },
+      { id: 'air', name: 'air buoyancy', period_rel: 7.5e-5, applied: false, why: { kind: 'not-applied', correction: 'air' } },
     ],
     expected_g_m_s2: 9.8105,
     g_diff_sigma: (g - 9.8105) / 0.00123,

@@ -91,24 +91,20 @@ export function uncertaintyBudget(b: BudgetInput): Budget {
       id: 'statistics',
       name: 'period timing (statistics)',
       u_rel_g: 2 * stat.rel,
-      note: line
-        ? `line through ${line.passes} reduced pass times; white ${(line.sigmaWhite_s * 1e6).toFixed(2)} µs, walk ${(line.sigmaWalk_s * 1e6).toFixed(3)} µs per pass`
-        : `${stat.used} periods`,
+      note: line ? { kind: 't0-line', passes: line.passes, white_s: line.sigmaWhite_s, walk_s: line.sigmaWalk_s } : { kind: 'periods', count: stat.used },
     });
-  rows.push({ id: 'clock', name: `device clock (${clock.source})`, u_rel_g: 2 * uClock, note: `${clock.ppm.toFixed(2)} ± ${clock.u_ppm.toPrecision(2)} ppm` });
+  rows.push({ id: 'clock', name: `device clock (${clock.source})`, u_rel_g: 2 * uClock, note: { kind: 'clock-rate', ppm: clock.ppm, u_ppm: clock.u_ppm } });
   if (rig) {
-    rows.push({ id: 'flag-width', name: 'flag width (amplitude reduction)', u_rel_g: 2 * uRedW, note: `w = ${(rig.flag_width_m * 1000).toFixed(2)} ± ${(rig.flag_width_u_m * 1000).toFixed(2)} mm` });
-    rows.push({ id: 'delay-difference', name: 'sensor on/off delay difference (amplitude reduction)', u_rel_g: 2 * uRedD, note:
-        dl.source === 'run'
-          ? `fitted from the run: ${(dl.difference_s * 1e6).toFixed(2)} ± ${(dl.difference_u_s * 1e6).toPrecision(2)} µs`
-          : `assumed ${(dl.difference_s * 1e6).toFixed(1)} ± ${(dl.difference_u_s * 1e6).toPrecision(2)} µs (common practice, no source)`,
+    rows.push({ id: 'flag-width', name: 'flag width (amplitude reduction)', u_rel_g: 2 * uRedW, note: { kind: 'flag-width', m: rig.flag_width_m, u_m: rig.flag_width_u_m } });
+    rows.push({ id: 'delay-difference', name: 'sensor on/off delay difference (amplitude reduction)', u_rel_g: 2 * uRedD,
+      note: { kind: 'delay-difference', source: dl.source, s: dl.difference_s, u_s: dl.difference_u_s },
     });
   }
   rows.push(...(b.room?.rows.filter((r) => r.id === 'room-T0') ?? []));
   const T0_u = corrected.T0 * Math.hypot(Number.isFinite(stat.rel) ? stat.rel : 0, uClock, uRedW, uRedD, b.room?.T0_rel ?? 0);
   const model = corrected.model;
   if (!rig || !model || corrected.g === null) return { rows, T0_u, g_u: null, statRel: stat.rel };
-  rows.unshift({ id: 'length', name: 'length L (pivot to bob centre)', u_rel_g: rig.length_u_m / model.L_eff_m, note: `L = ${rig.length_m} ± ${rig.length_u_m} m` });
+  rows.unshift({ id: 'length', name: 'length L (pivot to bob centre)', u_rel_g: rig.length_u_m / model.L_eff_m, note: { kind: 'length', symbol: 'L', m: rig.length_m, u_m: rig.length_u_m } });
   rows.push(...(b.room?.rows.filter((r) => r.id === 'room-length') ?? []));
   for (const l of model.lines) if (l.period_rel !== 0) rows.push(correctionRow(l));
   return { rows, T0_u, g_u: corrected.g * combineBudget(rows), statRel: stat.rel };

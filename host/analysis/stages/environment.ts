@@ -184,8 +184,8 @@ export function roomStage(room: readonly RoomReading[] | undefined, passes: Sequ
     const r = coefficientAndT0({ passes, periods, red, rig, sorted, Tref, lengthC, air, cond }, fit0, delayU_s, clockAlphaU(clock, sorted, Tref));
     coeff = r;
     const rows: BudgetLine[] = [
-      { id: 'room-T0', name: 'T0 carried to the reference temperature', u_rel_g: 2 * r.T0_rel, note: `α = ${(r.alpha * 1e6).toFixed(2)} ± ${(r.u * 1e6).toFixed(2)} ppm/K to ${Tref.toFixed(2)} °C` },
-      { id: 'room-length', name: 'length carried to the reference temperature', u_rel_g: r.u * Math.abs(Tref - lengthC), note: `measured at ${lengthC.toFixed(2)} °C, carried ${(Tref - lengthC).toFixed(2)} K` },
+      { id: 'room-T0', name: 'T0 carried to the reference temperature', u_rel_g: 2 * r.T0_rel, note: { kind: 'temperature-coefficient', per_K: r.alpha, u_per_K: r.u, reference_C: Tref } },
+      { id: 'room-length', name: 'length carried to the reference temperature', u_rel_g: r.u * Math.abs(Tref - lengthC), note: { kind: 'length-carried', measured_C: lengthC, reference_C: Tref } },
     ];
     out = { t0: r.t0, rig: { ...rig, length_m: lengthAt(rig.length_m, lengthC, r.alpha, Tref), air_density_kg_m3: rho }, T0_rel: r.T0_rel, rows };
   }

@@ -1,5 +1,5 @@
 // `halfswing analyze`: a journal → summary, JSON, per-swing CSV and HTML report; all outputs or none are written.
-import { warningJson } from '../../output/warning-words.ts';
+import { analysisJson } from '../../output/result-json.ts';
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { basename, dirname, relative, resolve, sep } from 'node:path';
@@ -98,8 +98,7 @@ g = 4π²L_eff/T0² with the uncertainty budget. Uncertainties are standard (k =
     const note = used && args.values.json !== true ? assumedNote(used) : null;
     if (note) io.stderr.write(`halfswing: note: ${note}\n`);
     if (args.values.json === true) {
-      const { swings: _rows, ...rest } = result;
-      io.stdout.write(`${JSON.stringify({ ...rest, warnings: rest.warnings.map(warningJson) })}\n`);
+      io.stdout.write(`${JSON.stringify(analysisJson(result))}\n`);
     } else io.stdout.write(formatSummary(result, name));
     // The "wrote" lines go to stderr when stdout carries JSON for another program.
     const notes = args.values.json === true ? io.stderr : io.stdout;
