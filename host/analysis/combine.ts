@@ -1,8 +1,9 @@
 // `combine`'s pure core: several journals' analyses (each exactly as `analyze` made it) and their rigs → g by the
 // two-length method or by Bessel's formula for the reversible pendulum (one pair, or a tuning series), or one line
-// saying why not. No I/O: the two-length method re-reduces a journal through the injected `reduce`.
+// saying why not (as data: host/analysis/combine-failure.ts). No I/O: the two-length method re-reduces a journal through the injected `reduce`.
 import { isSimpleRig, type AnyRig, type ReversibleRig, type Rig } from '../../protocol/rig.ts';
 import { besselG, type PivotPeriod } from './bessel.ts';
+import { BOB_KEYS, type CombineFailure } from './combine-failure.ts';
 import { pendulumModel } from './pendulum-corrections.ts';
 import type { AnalysisResult, BudgetLine } from './result.ts';
 import { tuningCrossing, type PolyFit, type SeriesPoint } from './tuning-series.ts';
@@ -69,9 +70,9 @@ export interface ReversibleCombined {
 }
 
 export type Combined = TwoLengthCombined | ReversibleCombined;
-export type CombineOutcome = { readonly ok: true; readonly result: Combined } | { readonly ok: false; readonly error: string };
+export type CombineOutcome = { readonly ok: true; readonly result: Combined } | { readonly ok: false; readonly failure: CombineFailure };
 
-const fail = (error: string): CombineOutcome => ({ ok: false, error });
+const fail = (failure: CombineFailure): CombineOutcome => ({ ok: false, failure });
 const rowOf = (r: AnalysisResult, id: string): number => r.budget.find((b) => b.id === id)?.u_rel_g ?? 0;
 
 /**
@@ -90,33 +91,29 @@ export function periodParts(r: AnalysisResult): Required<PivotPeriod> {
   };
 }
 
-/** The method from the rigs, or the line that says why these journals cannot be combined. */
+/** The method from the rigs, or why these journals cannot be combined. */
 export function combineRuns(runs: readonly CombineRun[], reduce: Reduce): CombineOutcome {
-  if (runs.length < 2) return fail(`combine needs two or more journals (got ${runs.length}): two lengths of one bob, or a reversible pendulum about both knife edges`);
+  if (runs.length < 2) return fail({ kind: 'too-few-journals', count: runs.length });
   const short = runs.find((r) => r.result.T0_s === null || r.result.T0_u_s === null);
-  if (short) return fail(`${short.file} has too few passes for a period (${short.result.passes} passes): record a longer run, then combine again`);
+  if (short) return fail({ kind: 'too-few-passes', file: short.file, passes: short.result.passes });
   const simple = runs.filter((r) => isSimpleRig(r.rig));
   if (simple.length > 0 && simple.length < runs.length) {
     const rev = runs.find((r) => !isSimpleRig(r.rig))!;
-    return fail(`${simple[0]!.file} is an ordinary pendulum and ${rev.file} a reversible one: combine journals of one kind`);
+    return fail({ kind: 'mixed-pendulums', ordinary: simple[0]!.file, reversible: rev.file });
   }
   // Normal gravity at the first rig's latitude and elevation, as analyze gives it.
   const expected = runs[0]!.result.expected_g_m_s2;
   return simple.length ? combineTwoLength(runs as readonly (CombineRun & { rig: Rig })[], reduce, expected) : combineReversible(runs as readonly (CombineRun & { rig: ReversibleRig })[], expected);
 }
 
-/** Rig keys that say which bob and string hang there; every length must have the same. */
-const BOB_KEYS = ['bob_diameter_m', 'bob_mass_kg', 'bob_density_kg_m3', 'string_mass_kg', 'flag_width_m'] as const;
-
-function twoLengthChecks(runs: readonly (CombineRun & { rig: Rig })[]): string | null {
+function twoLengthChecks(runs: readonly (CombineRun & { rig: Rig })[]): CombineFailure | null {
   const first = runs[0]!;
   for (const r of runs.slice(1))
     for (const k of BOB_KEYS)
-      if (r.rig[k] !== first.rig[k])
-        return `${first.file} and ${r.file} have different bobs (${k} ${String(first.rig[k] ?? 'not given')} and ${String(r.rig[k] ?? 'not given')}): the two-length method needs the same bob at every length`;
-  if (new Set(runs.map((r) => r.rig.length_m)).size < 2) return `every journal reads length_m ${first.rig.length_m}: the two-length method needs at least two different lengths`;
+      if (r.rig[k] !== first.rig[k]) return { kind: 'different-bobs', first: first.file, other: r.file, key: k, values: [first.rig[k], r.rig[k]] };
+  if (new Set(runs.map((r) => r.rig.length_m)).size < 2) return { kind: 'one-length', length_m: first.rig.length_m };
   const noStep = runs.find((r) => r.rig.length_step_u_m === undefined);
-  if (noStep) return `${noStep.file}: its rig gives no length_step_u_m (the standard uncertainty of a difference between two readings of the scale): add it to each rig with --rig or in the journal`;
+  if (noStep) return { kind: 'no-length-step', file: noStep.file };
   return null;
 }
 
@@ -131,12 +128,12 @@ function combineTwoLength(runs: readonly (CombineRun & { rig: Rig })[], reduce: 
   // The reading alone moves a 0.6 m run's T0 by up to 8e-6 at 5° (issue #17); a few µm of offset change is far below that.
   for (let offset = 0; iterations < 5; iterations++) {
     fit = fitLengths(runs, results, step);
-    if (!fit) return fail('the two-length fit failed: the periods do not grow with the length readings (are the length_m values right?)');
+    if (!fit) return fail({ kind: 'two-length-fit-failed' });
     if (iterations > 0 && Math.abs(fit.offset_m - offset) < 1e-6) break;
     offset = fit.offset_m;
     results = runs.map((r, i) => reduce(i, r.rig.length_m + offset));
     const lost = results.findIndex((r) => r.T0_s === null);
-    if (lost >= 0) return fail(`${runs[lost]!.file} gives no period when reduced at length ${(runs[lost]!.rig.length_m + offset).toFixed(4)} m`);
+    if (lost >= 0) return fail({ kind: 'no-period-at-length', file: runs[lost]!.file, length_m: runs[lost]!.rig.length_m + offset });
   }
   fit = fit!;
   const journals = runs.map((r, i) => ({ file: r.file, T0_s: results[i]!.T0_s!, T0_u_s: results[i]!.T0_u_s!, length_m: r.rig.length_m }));
@@ -179,17 +176,21 @@ function fitLengths(runs: readonly (CombineRun & { rig: Rig })[], results: reado
 }
 
 /** What must agree between the journals of one bar. */
-function reversibleChecks(runs: readonly (CombineRun & { rig: ReversibleRig })[]): string | null {
+function reversibleChecks(runs: readonly (CombineRun & { rig: ReversibleRig })[]): CombineFailure | null {
   const first = runs[0]!;
   const other = runs.find((r) => r.rig.edge_distance_m !== first.rig.edge_distance_m || r.rig.flag_width_m !== first.rig.flag_width_m);
   if (other)
-    return `${first.file} and ${other.file} describe different bars (edge_distance_m ${first.rig.edge_distance_m} and ${other.rig.edge_distance_m}, flag_width_m ${first.rig.flag_width_m} and ${other.rig.flag_width_m}): combine journals of one bar`;
-  for (const p of [1, 2] as const)
-    if (!runs.some((r) => r.rig.pivot === p)) return `every journal swings about pivot ${p === 1 ? 2 : 1}: time the bar about pivot ${p} too (turn it over), then combine both`;
+    return {
+      kind: 'different-bars',
+      first: first.file,
+      other: other.file,
+      edge_distance_m: [first.rig.edge_distance_m, other.rig.edge_distance_m],
+      flag_width_m: [first.rig.flag_width_m, other.rig.flag_width_m],
+    };
+  for (const p of [1, 2] as const) if (!runs.some((r) => r.rig.pivot === p)) return { kind: 'one-pivot', missing: p };
   const withX = runs.filter((r) => r.rig.mass_position_m !== undefined).length;
   if (withX > 0 && withX < runs.length) {
-    const missing = runs.find((r) => r.rig.mass_position_m === undefined)!;
-    return `${missing.file} gives no mass_position_m but other journals do: a tuning series needs the mass position of every journal`;
+    return { kind: 'mass-position-missing', file: runs.find((r) => r.rig.mass_position_m === undefined)!.file };
   }
   return null;
 }
@@ -213,16 +214,16 @@ function combineReversible(runs: readonly (CombineRun & { rig: ReversibleRig })[
   const rig = runs[0]!.rig;
   const parts = runs.map((r) => periodParts(r.result));
   if (rig.mass_position_m !== undefined) return tuningSeries(runs, journals, parts, expected);
-  const one = (p: 1 | 2): { period: PivotPeriod; rig: ReversibleRig } | string => {
+  const one = (p: 1 | 2): { period: PivotPeriod; rig: ReversibleRig } | CombineFailure => {
     const idx = runs.map((r, i) => (r.rig.pivot === p ? i : -1)).filter((i) => i >= 0);
     const h = new Set(idx.map((i) => runs[i]!.rig.cm_distance_m));
-    if (h.size > 1) return `the journals about pivot ${p} give different cm_distance_m (${[...h].join(', ')}): a moved mass makes a tuning series, give each journal its mass_position_m`;
+    if (h.size > 1) return { kind: 'pivot-cm-distances-differ', pivot: p, values: [...h] };
     return { period: meanPeriod(idx.map((i) => parts[i]!)), rig: runs[idx[0]!]!.rig };
   };
   const p1 = one(1);
   const p2 = one(2);
-  if (typeof p1 === 'string') return fail(p1);
-  if (typeof p2 === 'string') return fail(p2);
+  if ('kind' in p1) return fail(p1);
+  if ('kind' in p2) return fail(p2);
   const b = besselG({
     pivot1: p1.period,
     pivot2: p2.period,
@@ -234,7 +235,7 @@ function combineReversible(runs: readonly (CombineRun & { rig: ReversibleRig })[
     clock_u_rel: 0,
     buoyancy_rel: buoyancyRel(runs),
   });
-  if (!b) return fail(`Bessel's formula has no solution here: h1 = ${p1.rig.cm_distance_m} m and h2 = ${p2.rig.cm_distance_m} m must differ (check cm_distance_m of both pivots)`);
+  if (!b) return fail({ kind: 'bessel-no-solution', h1_m: p1.rig.cm_distance_m, h2_m: p2.rig.cm_distance_m });
   return {
     ok: true,
     result: {
@@ -269,8 +270,10 @@ function tuningSeries(
 ): CombineOutcome {
   const pts = (p: 1 | 2): SeriesPoint[] =>
     runs.flatMap((r, i) => (r.rig.pivot === p ? [{ x_m: r.rig.mass_position_m!, T_s: parts[i]!.T_s, u_s: Math.hypot(parts[i]!.u_stat_s, parts[i]!.u_clock_s) }] : []));
-  for (const p of [1, 2] as const)
-    if (new Set(pts(p).map((q) => q.x_m)).size < 2) return fail(`a tuning series needs at least two mass positions timed about pivot ${p} (the journals give ${new Set(pts(p).map((q) => q.x_m)).size})`);
+  for (const p of [1, 2] as const) {
+    const positions = new Set(pts(p).map((q) => q.x_m)).size;
+    if (positions < 2) return fail({ kind: 'tuning-too-few-positions', pivot: p, positions });
+  }
   const last = runs[runs.length - 1]!.rig.mass_position_m!;
   const t = tuningCrossing({
     pivot1: pts(1),

@@ -3,6 +3,7 @@
 // (docs/references.md#ref-reversible-pendulum).
 import { invertSmall } from './least-squares.ts';
 import type { BudgetLine } from './result.ts';
+import type { TuningFailure } from './combine-failure.ts';
 import { combineBudget } from './uncertainty-budget.ts';
 
 /** One run of the series: the mass position (any fixed mark on the bar), the period and its independent u (statistics and the run's own clock calibration). */
@@ -49,7 +50,7 @@ export type TuningResult =
       /** Signed move from last_x_m to the crossing, m (in the coordinate of mass_position_m). */
       readonly next_move_m: number;
     }
-  | { readonly ok: false; readonly reason: string };
+  | { readonly ok: false; readonly reason: TuningFailure };
 
 export const polyAt = (f: Pick<PolyFit, 'centre_m' | 'coef'>, x: number): number => f.coef.reduceRight((s, c) => s * (x - f.centre_m) + c, 0);
 
@@ -101,7 +102,7 @@ function crossing(f1: Pick<PolyFit, 'centre_m' | 'coef'>, f2: Pick<PolyFit, 'cen
 export function tuningCrossing(x: TuningInput): TuningResult {
   const f1 = fitPoly(x.pivot1);
   const f2 = fitPoly(x.pivot2);
-  if (!f1 || !f2) return { ok: false, reason: 'a tuning series needs at least two mass positions per pivot, each with a period and its uncertainty' };
+  if (!f1 || !f2) return { ok: false, reason: { kind: 'tuning-too-few-points' } };
   const xs = [...x.pivot1, ...x.pivot2].map((p) => p.x_m);
   const span = Math.max(...xs) - Math.min(...xs);
   const start = xs.reduce((s, v) => s + v, 0) / xs.length;
@@ -116,7 +117,7 @@ export function tuningCrossing(x: TuningInput): TuningResult {
   const v0 = [...f1.coef, ...f2.coef];
   const c0 = at(v0);
   if (!Number.isFinite(c0.xc) || Math.abs(c0.xc - start) > 10 * Math.max(span, 1e-3))
-    return { ok: false, reason: 'T1 and T2 do not cross near the measured mass positions (their slopes are too alike): move the mass further' };
+    return { ok: false, reason: { kind: 'tuning-no-crossing' } };
   const cov = (i: number, j: number): number =>
     i < n1 && j < n1 ? f1.cov[i]![j]! : i >= n1 && j >= n1 ? f2.cov[i - n1]![j - n1]! : 0;
   const jx: number[] = [];

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fitPoly, polyAt, tuningCrossing, type SeriesPoint } from '../../host/analysis/tuning-series.ts';
 import { TestRng } from './seeded-rng.ts';
+import { combineFailureText } from '../../host/output/combine-words.ts';
 
 // A Kater-style bar written out here (independently of the simulator): a uniform 1.2 m, 1 kg bar with knife edges
 // 0.1 m and 1.1 m from its top end (l = 1 m), a fixed 1.5 kg mass at 1.16 m and a movable 0.5 kg mass at x, both
@@ -48,7 +49,7 @@ describe('tuning series of a reversible pendulum', () => {
   it('noise-free runs give the crossing, and g there, to far below any real uncertainty', () => {
     const { p1, p2 } = series(null, 3e-7);
     const r = tuningCrossing({ pivot1: p1, pivot2: p2, l_m: 1, l_u_m: 0, clock_u_rel: 0, amp_u_rel: 0, last_x_m: 0.06 });
-    if (!r.ok) throw new Error(r.reason);
+    if (!r.ok) throw new Error(combineFailureText(r.reason));
     expect(Math.abs(r.crossing_m - xc)).toBeLessThan(1e-6);
     expect(Math.abs(r.g_m_s2 / G - 1)).toBeLessThan(3e-7);
     // The mass was last at 0.06 m and the crossing is near 0.035 m: move it toward smaller positions.
@@ -72,7 +73,7 @@ describe('tuning series of a reversible pendulum', () => {
       const { p1, p2 } = series(rng, 3e-7);
       const l = 1 + 2e-5 * rng.normal();
       const r = tuningCrossing({ pivot1: p1, pivot2: p2, l_m: l, l_u_m: 2e-5, clock_u_rel: 0, amp_u_rel: 0, last_x_m: 0.06 });
-      if (!r.ok) throw new Error(r.reason);
+      if (!r.ok) throw new Error(combineFailureText(r.reason));
       if (Math.abs(r.crossing_m - xc) <= 2 * r.crossing_u_m) inX++;
       if (Math.abs(r.g_m_s2 - G) <= 2 * r.g_u_m_s2) inG++;
     }
@@ -86,6 +87,7 @@ describe('tuning series of a reversible pendulum', () => {
     const p1 = [0.0, 0.01].map((x) => ({ x_m: x, T_s: 2 + x, u_s: 1e-6 }));
     const p2 = [0.0, 0.01].map((x) => ({ x_m: x, T_s: 2.1 + x, u_s: 1e-6 }));
     const r = tuningCrossing({ pivot1: p1, pivot2: p2, l_m: 1, l_u_m: 0, clock_u_rel: 0, amp_u_rel: 0, last_x_m: 0 });
-    expect(r.ok).toBe(false);
+    expect(r).toEqual({ ok: false, reason: { kind: 'tuning-no-crossing' } });
+    expect(combineFailureText({ kind: 'tuning-no-crossing' })).toMatch(/do not cross near the measured mass positions .*: move the mass further$/);
   });
 });

@@ -1,6 +1,7 @@
 // Simulated sessions (two lengths, the reversible bar, a tuning series) combined in-process, against their truth.
 import { combineLoaded, loadJournalEntries, type LoadedJournal } from '../../host/pipeline/combine-entries.ts';
 import type { CombineOutcome } from '../../host/analysis/combine.ts';
+import { combineFailureText } from '../../host/output/combine-words.ts';
 import { parseJournalLine } from '../../protocol/journal.ts';
 import { loadSession } from '../../sim/outlets/scenario-files.ts';
 import { sessionRuns, type SessionTruth } from '../../sim/session.ts';
@@ -34,7 +35,7 @@ export function coverageOver(
   let z2 = 0;
   for (let seed = 1; seed <= seeds; seed++) {
     const s = combineSession(session, seed);
-    if (!s.outcome.ok) throw new Error(s.outcome.error);
+    if (!s.outcome.ok) throw new Error(combineFailureText(s.outcome.failure));
     const { v, u, truth } = pick(s as CombinedSession & { outcome: { ok: true } });
     if (Math.abs(v - truth) <= 2 * u) inside++;
     z2 += ((v - truth) / u) ** 2;

@@ -6,6 +6,7 @@ import type { Combined } from '../../analysis/combine.ts';
 import { UserError } from '../../errors.ts';
 import { guardOutputs, writeWhole } from '../../files/safe-output.ts';
 import { readJournalBatches } from '../../journal/read-journal.ts';
+import { combineFailureText } from '../../output/combine-words.ts';
 import { combineJson, formatCombine } from '../../output/format-combine.ts';
 import { combineLoaded, loadJournalEntries, type LoadedJournal } from '../../pipeline/combine-entries.ts';
 import { optNumber, optString, type Command, type CommandIo } from '../command.ts';
@@ -74,7 +75,7 @@ standard (k = 1) unless marked k = 2.`,
       status.show(`halfswing combine: reducing ${i + 1}/${files.length} ${basename(files[i]!)} again at ${length_m.toFixed(5)} m (pass ${pass})`);
     });
     status.done();
-    if (!outcome.ok) throw new UserError(outcome.error);
+    if (!outcome.ok) throw new UserError(combineFailureText(outcome.failure));
     if (reportPath !== undefined) await writeWhole([{ path: resolve(io.cwd, reportPath), chunks: [await reportHtml(outcome.result, loaded)] }]);
     io.stdout.write(args.values.json === true ? `${JSON.stringify(combineJson(outcome.result))}\n` : formatCombine(outcome.result));
     if (reportPath !== undefined) (args.values.json === true ? io.stderr : io.stdout).write(`halfswing combine: wrote ${reportPath}\n`);
