@@ -1,5 +1,5 @@
 // Scenario files: a rig, its true physics, gate, device, host link and faults, validated strictly.
-import { isSimpleRig, parseRig, rigJson, type ReversibleRig, type Rig } from '../protocol/rig.ts';
+import { isSimpleRig, parseRig, rigJson, type AnyRig, type ReversibleRig, type Rig } from '../protocol/rig.ts';
 import type { RoomSetup } from './room.ts';
 import {
   CH0_MIN_PULSE_TICKS,
@@ -114,6 +114,12 @@ export interface Scenario {
   readonly plane?: PlaneSetup;
   /** The room: temperature, pressure and humidity over the run, the length following the temperature, and room readings from the device. */
   readonly room?: RoomSetup;
+  /**
+   * The journal's rig as a user would measure it (sim/measured-rig.ts), while the physics keeps `rig`: true draws
+   * each measured value about the truth with its stated u from the run's seed; a rig is that file as given (a
+   * session draws the measurements its runs share once). Absent: the journal states the true rig.
+   */
+  readonly measured_rig?: true | AnyRig;
 }
 
 export interface PlaneSetup {
@@ -294,6 +300,9 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
         [],
       ),
       plane: sub({ azimuth_deg: num(-360, 360), transverse_m_s: num(-10, 10), stiff_axis_deg: num(-360, 360), frequency_split: num(-0.5, 0.5), earth_rotation: bool }),
+      measured_rig: (v, at) => {
+        if (typeof v !== 'boolean' && (typeof v !== 'object' || v === null || Array.isArray(v))) fail(at, 'must be true, false or a rig as measured');
+      },
     },
     ['rig', 'duration_s', 'physics'],
   );
@@ -319,6 +328,7 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
   const plane = o.plane !== undefined || beams.length === 2 || beams[0].angle_deg !== 0 ? { ...PLANE_DEFAULTS, ...o.plane } : undefined;
   if (plane && (physics.quadratic_per_rad || physics.coulomb_rad))
     fail('scenario.physics', 'of a two-direction (spherical) swing takes linear_q only: drop quadratic_per_rad and coulomb_rad');
+  const measured = measuredRigOf(o.measured_rig, anyRig.rig);
   return {
     name: typeof o.name === 'string' ? (o.name as unknown as string) : fallbackName,
     description: typeof o.description === 'string' ? (o.description as unknown as string) : '',
@@ -332,7 +342,18 @@ export function parseScenario(value: unknown, fallbackName = 'scenario'): Scenar
     faults: (o.faults ?? {}) as Faults,
     ...(plane ? { plane } : {}),
     ...(o.room !== undefined ? { room: { ...ROOM_DEFAULTS, ...o.room } as RoomSetup } : {}),
+    ...(measured !== undefined ? { measured_rig: measured } : {}),
   };
+}
+
+/** The scenario's `measured_rig`: true, a rig of the same kind as the true one, or absent (false). */
+function measuredRigOf(v: unknown, truth: AnyRig): true | AnyRig | undefined {
+  if (v === undefined || v === false) return undefined;
+  if (v === true) return true;
+  const r = parseRig(v);
+  if (!r.ok) return fail('scenario.measured_rig', `is not a valid rig: ${r.error}`);
+  if (isSimpleRig(r.rig) !== isSimpleRig(truth)) fail('scenario.measured_rig', 'must be the same kind of pendulum as scenario.rig');
+  return r.rig;
 }
 
 /** A room with a ±2 K day, a 9 hPa falling front at mid-run and a brass-ish string (18 ppm/K, from memory: docs/references.md#ref-air-density). */
@@ -369,6 +390,8 @@ export interface ScenarioOverrides {
   readonly start?: string;
   /** Drop every fault of the scenario. */
   readonly no_faults?: boolean;
+  /** Write the rig as measured into the journal (drawn from the run's seed), unless the scenario gives its own. */
+  readonly measured_rig?: boolean;
 }
 
 /** A scenario with overrides applied, validated again. */
@@ -400,8 +423,15 @@ export function applyOverrides(s: Scenario, o: ScenarioOverrides): Scenario {
     faults: o.no_faults ? {} : s.faults,
     ...(s.plane ? { plane: s.plane } : {}),
     ...(s.room ? { room: s.room } : {}),
+    ...(measuredRigJson(s, o) !== undefined ? { measured_rig: measuredRigJson(s, o) } : {}),
   };
   return parseScenario(JSON.parse(JSON.stringify(raw)), s.name);
+}
+
+/** The scenario's measured rig as JSON for a re-parse: its own, else true when asked for. */
+function measuredRigJson(s: Scenario, o: ScenarioOverrides): true | object | undefined {
+  if (s.measured_rig !== undefined && s.measured_rig !== true) return JSON.parse(rigJson(s.measured_rig)) as object;
+  return s.measured_rig === true || o.measured_rig ? true : undefined;
 }
 
 /** A reversible pendulum's rig as its file has it (it has no length to override). */

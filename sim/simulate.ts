@@ -8,8 +8,9 @@ import { initialLevel, pinEdges, type OpticsSetup, type PinEdge } from './optics
 import { swingSetup, truePhysics } from './physics.ts';
 import { omega0SquaredAt } from './room.ts';
 import { beamsBlockedAtStart, emptyPlaneTruth, otherBeamLevels, planeEdges, sphericalSetup } from './plane-run.ts';
+import { drawMeasuredRig, drawsBetween, type MeasuredRig } from './measured-rig.ts';
 import { Rng } from './prng.ts';
-import { applyOverrides, type Scenario, type ScenarioOverrides } from './scenario.ts';
+import { applyOverrides, ScenarioError, type Scenario, type ScenarioOverrides } from './scenario.ts';
 import { bobEvents, inZone, type BobEvent } from './swing.ts';
 import { emptyCounts, type Truth } from './truth.ts';
 
@@ -111,9 +112,11 @@ export function prepareRun(base: Scenario, opts: SimOptions): Run {
     t0,
   };
   const tBob = Math.max(0, tEnd - t0);
+  const measured = rigAsMeasured(scenario, opts.seed);
+  if (measured) truth.measured_rig = { draws: measured.draws };
   const header = journalHeader({
     start: new Date(scenario.host.start),
-    rigJson: rigJson(scenario.rigid ?? scenario.rig),
+    rigJson: rigJson(measured?.rig ?? scenario.rigid ?? scenario.rig),
     source: `halfswing sim scenario=${scenario.name} seed=${opts.seed} (simulated rig, not a measurement)`,
     withMagic: true,
   });
@@ -130,6 +133,21 @@ export function prepareRun(base: Scenario, opts: SimOptions): Run {
     initialLevel: initialLevel(optics),
     otherLevels: sph ? otherBeamLevels(scenario, sph, optics) : [],
   };
+}
+
+/** The rig the journal states when the scenario asks for it as measured: drawn from the seed, or the scenario's own. */
+function rigAsMeasured(scenario: Scenario, seed: number): MeasuredRig | undefined {
+  const truth = scenario.rigid ?? scenario.rig;
+  const m = scenario.measured_rig;
+  if (m === undefined) return undefined;
+  if (m !== true) return { rig: m, draws: drawsBetween(truth, m) };
+  // One substream per key: a key added later does not move the draws of the others.
+  const rng = new Rng(seed).fork('measured-rig');
+  try {
+    return drawMeasuredRig(truth, (key) => rng.fork(key).normal());
+  } catch (e) {
+    throw new ScenarioError(`scenario.measured_rig: seed ${seed}: ${(e as Error).message}`);
+  }
 }
 
 /** The link from the device to the journal: serial timing, USB, the scenario's wire faults and unplugs. */

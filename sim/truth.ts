@@ -1,5 +1,6 @@
 // What really happened in a simulated run: the true parameters, the swing, and every fault with exact counts.
 import type { FaultSchedule } from './fault-schedule.ts';
+import type { MeasuredDraw } from './measured-rig.ts';
 import type { TruePhysics } from './physics.ts';
 
 /** Exact fault counts, filled in while the run's lines are iterated. */
@@ -107,6 +108,8 @@ export interface Truth {
   readonly faults: { readonly schedule: FaultSchedule; readonly counts: FaultCounts };
   /** True once the whole run has been generated. */
   complete: boolean;
+  /** The rig values the journal states as measured (scenario measured_rig), beside their truth; absent: the journal states the true rig. */
+  measured_rig?: { readonly draws: MeasuredDraw[] };
   /** Absent: the device model (sim/device.ts). 'emulated firmware': the shipped firmware in simavr. */
   device?: 'emulated firmware';
 }

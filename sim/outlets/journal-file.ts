@@ -96,9 +96,17 @@ export async function writeScenarioJournal(scenario: Scenario, opts: JournalFile
  */
 export async function writeSessionJournals(
   spec: SessionSpec,
-  opts: { readonly seed: number; readonly dir: string; readonly durationS?: number; readonly signal?: AbortSignal; readonly onRun?: (path: string, i: number, n: number) => void },
+  opts: {
+    readonly seed: number;
+    readonly dir: string;
+    readonly durationS?: number;
+    readonly signal?: AbortSignal;
+    readonly onRun?: (path: string, i: number, n: number) => void;
+    /** Journals state the rig as measured (sim/measured-rig.ts). */
+    readonly measured_rig?: boolean;
+  },
 ): Promise<{ paths: string[]; truthPath: string; truth: SessionTruth }> {
-  const { runs, truth } = sessionRuns(spec, opts.seed);
+  const { runs, truth } = sessionRuns(spec, opts.seed, { measured_rig: opts.measured_rig });
   const paths = runs.map((r) => join(opts.dir, `${r.name}.journal`));
   const truthPath = join(opts.dir, `${spec.name}.session-truth.json`);
   const taken = [...paths.flatMap((p) => [p, truthPathFor(p)]), truthPath].find((p) => existsSync(p));

@@ -62,6 +62,7 @@ async function runSession(spec: SessionSpec, args: ParsedArgs, io: CommandIo): P
       seed,
       dir: resolve(io.cwd, dir),
       durationS: dur !== undefined ? parseDuration(dur) : undefined,
+      measured_rig: args.values['measured-rig'] === true,
       onRun: (p, i, n) => io.stderr.write(`halfswing sim: session ${spec.name} run ${i + 1}/${n} → ${p}\n`),
     });
     io.stderr.write(`halfswing sim: wrote ${r.paths.length} journals and ${r.truthPath}\n`);
@@ -90,6 +91,7 @@ function simOptions(args: ParsedArgs): SimOptions {
     gate_offset_m: offsetMm !== undefined ? offsetMm / 1000 : undefined,
     start: optString(args, 'start'),
     no_faults: args.values['no-faults'] === true,
+    measured_rig: args.values['measured-rig'] === true,
   };
   return o;
 }
@@ -198,6 +200,10 @@ export const command: Command = {
     'offset-mm': { type: 'string', arg: 'MM', description: 'beam offset from the lowest point (mm, + toward the release side)' },
     start: { type: 'string', arg: 'ISO', description: 'the journal\'s #start time (ISO-8601 UTC)' },
     'no-faults': { type: 'boolean', description: 'drop every fault of the scenario' },
+    'measured-rig': {
+      type: 'boolean',
+      description: 'the journal states the rig as measured: each value with a stated u drawn about the truth from --seed (the truth file keeps both); a session measures what its runs share once',
+    },
     force: { type: 'boolean', description: 'with --journal: replace an existing file (never a recorded journal)' },
   },
   details: `
@@ -205,6 +211,8 @@ Scenarios are JSON files (rig, physics, gate, device, host, faults); see sim/sce
 With neither --journal nor --pty the journal streams to stdout, e.g.  halfswing sim --duration 10m | halfswing analyze -
 With --firmware the scenario's edges (with its bounce and objects) drive the real firmware in simavr and
 its own serial lines are the journal; lost and corrupted lines and unplugs still come from the scenario.
+Without --measured-rig the journal states the true rig (exact lengths and widths), so no figure's
+uncertainty budget is tested on its rig terms; with it, coverage over seeds tests them (sim/measured-rig.ts).
 Everything is simulated: no hardware is touched.`,
   async run(args, io) {
     if (args.values.list) {
