@@ -17,6 +17,11 @@ export interface PivotPeriod {
   readonly u_amp_s: number;
   /** This journal's own clock calibration, s: each journal estimates the rate afresh, so independent between pivots. */
   readonly u_clock_s?: number;
+  /**
+   * The amplitude reduction's part from this pivot's own flag radius, s (measured from this edge, so independent
+   * between pivots; the transit reads w/R, so it is the radius's share of the flag term). Not in u_amp_s.
+   */
+  readonly u_radius_s?: number;
 }
 
 export interface BesselInput {
@@ -95,6 +100,15 @@ export function besselG(x: BesselInput): BesselResult | null {
       note: { kind: 'pivot-clocks', pivot1_u_s: x.pivot1.u_clock_s ?? 0, pivot2_u_s: x.pivot2.u_clock_s ?? 0, common_u_rel: x.clock_u_rel },
     },
   ];
+  const r1 = x.pivot1.u_radius_s ?? 0;
+  const r2 = x.pivot2.u_radius_s ?? 0;
+  if (r1 > 0 || r2 > 0)
+    budget.push({
+      id: 'flag-radius',
+      name: 'flag radius of each pivot (amplitude reduction, measured apart)',
+      u_rel_g: Math.hypot(rel(dA_dT1 * r1), rel(dA_dT2 * r2)),
+      note: { kind: 'each-pivot', pivot1_u_s: r1, pivot2_u_s: r2 },
+    });
   // Applied only with the body's volume and mass; 10 % of it as its u (common practice, no source).
   if (air < 1) {
     const shift = ((1 - air) * Math.abs(T1 * T1 - T2 * T2)) / (2 * Math.abs(dh)) / A;

@@ -40,6 +40,8 @@ export type BudgetNote =
   | { readonly kind: 'period'; readonly symbol: 'T' | 'T1' | 'T2'; readonly s: number; readonly u_s: number }
   /** One input's u on each pivot's period, the two taken together (same flag and gate). */
   | { readonly kind: 'both-pivots'; readonly pivot1_u_s: number; readonly pivot2_u_s: number }
+  /** One input's u on each pivot's period, independent between the pivots (each pivot's own flag radius). */
+  | { readonly kind: 'each-pivot'; readonly pivot1_u_s: number; readonly pivot2_u_s: number }
   /** Each pivot's clock calibration (u of its period) and any part common to both (relative). */
   | { readonly kind: 'pivot-clocks'; readonly pivot1_u_s: number; readonly pivot2_u_s: number; readonly common_u_rel: number }
   /** A clock error common to every run (relative). */

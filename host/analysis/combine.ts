@@ -80,15 +80,27 @@ const rowOf = (r: AnalysisResult, id: string): number => r.budget.find((b) => b.
  * statistics and damping are its own; the amplitude reduction (flag width, sensor delays) is shared by journals
  * timed with the same flag and gate; the clock rate is estimated afresh from each journal, so its error is the
  * journal's own (on simulated sessions the runs' T0 errors scatter by that ~1e-7, far above their statistics).
+ * A reversible pendulum's flag radius is measured from each edge apart: its share of the flag row (the transit
+ * reads w/R, protocol/rig.ts swingView) is common to one pivot's journals only, so it is kept apart as u_radius_s.
  */
-export function periodParts(r: AnalysisResult): Required<PivotPeriod> {
+export function periodParts(r: AnalysisResult, rig?: AnyRig): Required<PivotPeriod> {
   const T = r.T0_s!;
+  const flag = rowOf(r, 'flag-width');
+  const radiusShare = rig && !isSimpleRig(rig) ? radiusVarianceShare(rig) : 0;
   return {
     T_s: T,
     u_stat_s: (T * Math.hypot(rowOf(r, 'statistics'), rowOf(r, 'damping'))) / 2,
-    u_amp_s: (T * Math.hypot(rowOf(r, 'flag-width'), rowOf(r, 'delay-difference'))) / 2,
+    u_amp_s: (T * Math.hypot(flag * Math.sqrt(1 - radiusShare), rowOf(r, 'delay-difference'))) / 2,
     u_clock_s: T * (r.clock_u_ppm ?? 0) * 1e-6,
+    u_radius_s: (T * flag * Math.sqrt(radiusShare)) / 2,
   };
+}
+
+/** The flag radius's share of the variance of w/R (the flag row is linear in it for errors this small). */
+function radiusVarianceShare(rig: ReversibleRig): number {
+  const byRadius = (rig.flag_width_m * (rig.flag_radius_u_m ?? 0)) / rig.flag_radius_m;
+  const total = rig.flag_width_u_m ** 2 + byRadius ** 2;
+  return total > 0 ? byRadius ** 2 / total : 0;
 }
 
 /** The method from the rigs, or why these journals cannot be combined. */
@@ -161,7 +173,7 @@ function combineTwoLength(runs: readonly (CombineRun & { rig: Rig })[], reduce: 
 /** One pass of the fit on the current reductions; the corrections come from the rig at each true length. */
 function fitLengths(runs: readonly (CombineRun & { rig: Rig })[], results: readonly AnalysisResult[], step: number): TwoLengthResult | null {
   const rig0 = runs[0]!.rig;
-  const parts = results.map(periodParts);
+  const parts = results.map((r) => periodParts(r));
   const model = pendulumModel(rig0, (2 * Math.PI) / parts[0]!.T_s, null);
   const air = model.lines.find((l) => l.id === 'air')!;
   return twoLengthFit({
@@ -212,7 +224,7 @@ function combineReversible(runs: readonly (CombineRun & { rig: ReversibleRig })[
     ...(r.rig.mass_position_m !== undefined ? { mass_position_m: r.rig.mass_position_m } : {}),
   }));
   const rig = runs[0]!.rig;
-  const parts = runs.map((r) => periodParts(r.result));
+  const parts = runs.map((r) => periodParts(r.result, r.rig));
   if (rig.mass_position_m !== undefined) return tuningSeries(runs, journals, parts, expected);
   const one = (p: 1 | 2): { period: PivotPeriod; rig: ReversibleRig } | CombineFailure => {
     const idx = runs.map((r, i) => (r.rig.pivot === p ? i : -1)).filter((i) => i >= 0);
@@ -258,7 +270,12 @@ function meanPeriod(ps: readonly Required<PivotPeriod>[]): PivotPeriod {
   const mean = (f: (p: Required<PivotPeriod>) => number): number => ps.reduce((s, p, i) => s + w[i]! * f(p), 0) / W;
   // Weights ∝ 1/(u_stat² + u_clock²): each part's variance in the mean is Σ w_i² u_i² / W².
   const part = (f: (p: Required<PivotPeriod>) => number): number => Math.sqrt(ps.reduce((s, p, i) => s + (w[i]! * f(p)) ** 2, 0)) / W;
-  return { T_s: mean((p) => p.T_s), u_stat_s: part((p) => p.u_stat_s), u_clock_s: part((p) => p.u_clock_s), u_amp_s: mean((p) => p.u_amp_s) };
+  return { T_s: mean((p) => p.T_s), u_stat_s: part((p) => p.u_stat_s), u_clock_s: part((p) => p.u_clock_s), u_amp_s: mean((p) => p.u_amp_s), u_radius_s: mean((p) => p.u_radius_s) };
+}
+
+/** The relative u of one pivot's periods from its flag radius (the largest of its journals). */
+function pivotRadiusRel(runs: readonly (CombineRun & { rig: ReversibleRig })[], parts: readonly Required<PivotPeriod>[], pivot: 1 | 2): number {
+  return Math.max(0, ...parts.filter((_, i) => runs[i]!.rig.pivot === pivot).map((p) => p.u_radius_s / p.T_s));
 }
 
 /** T1 and T2 against the mass position, their crossing and g there. */
@@ -282,6 +299,7 @@ function tuningSeries(
     l_u_m: Math.max(...runs.map((r) => r.rig.edge_distance_u_m)),
     clock_u_rel: 0,
     amp_u_rel: Math.max(...parts.map((p) => p.u_amp_s / p.T_s)),
+    pivot_u_rel: [pivotRadiusRel(runs, parts, 1), pivotRadiusRel(runs, parts, 2)],
     last_x_m: last,
   });
   if (!t.ok) return fail(t.reason);

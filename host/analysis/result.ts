@@ -58,6 +58,7 @@ export type BudgetId =
   | 'pivot-1-statistics'
   | 'pivot-2-statistics'
   | 'amplitude-reduction'
+  | 'flag-radius'
   | 'crossing-period'
   | 'length-differences'
   | 'length-t0'

@@ -22,6 +22,11 @@ export interface TuningInput {
   readonly clock_u_rel: number;
   /** Relative u of the periods from the amplitude reduction (same flag and gate for every run: common). */
   readonly amp_u_rel: number;
+  /**
+   * Relative u of each pivot's periods common to that pivot's runs only (its own flag radius: the flag does not move
+   * with the mass), [pivot 1, pivot 2]; it shifts that pivot's fit as a whole, and so the crossing (absent: 0).
+   */
+  readonly pivot_u_rel?: readonly [number, number];
   /** Where the mass was last (the next move is given from here). */
   readonly last_x_m: number;
 }
@@ -83,6 +88,13 @@ export function fitPoly(pts: readonly SeriesPoint[]): PolyFit | null {
   return { centre_m: centre, coef, cov: inv, chi2, dof: pts.length - p };
 }
 
+/** A shift common to every point moves only the constant of a centred fit, by exactly that shift: its variance adds there. */
+function withCommonShift(f: PolyFit | null, pts: readonly SeriesPoint[], uRel: number): PolyFit | null {
+  if (!f || uRel === 0) return f;
+  const u = uRel * (pts.reduce((s, p) => s + p.T_s, 0) / pts.length);
+  return { ...f, cov: f.cov.map((row, i) => row.map((v, j) => (i === 0 && j === 0 ? v + u * u : v))) };
+}
+
 /** Root of f1 − f2 nearest the data: Newton from the crossing of the tangents at the fits' centre. */
 function crossing(f1: Pick<PolyFit, 'centre_m' | 'coef'>, f2: Pick<PolyFit, 'centre_m' | 'coef'>, start: number): number {
   let x = start;
@@ -100,8 +112,8 @@ function crossing(f1: Pick<PolyFit, 'centre_m' | 'coef'>, f2: Pick<PolyFit, 'cen
 
 /** The crossing of T1(x) and T2(x), g there and the next move, with first-order propagation of both fits. */
 export function tuningCrossing(x: TuningInput): TuningResult {
-  const f1 = fitPoly(x.pivot1);
-  const f2 = fitPoly(x.pivot2);
+  const f1 = withCommonShift(fitPoly(x.pivot1), x.pivot1, x.pivot_u_rel?.[0] ?? 0);
+  const f2 = withCommonShift(fitPoly(x.pivot2), x.pivot2, x.pivot_u_rel?.[1] ?? 0);
   if (!f1 || !f2) return { ok: false, reason: { kind: 'tuning-too-few-points' } };
   const xs = [...x.pivot1, ...x.pivot2].map((p) => p.x_m);
   const span = Math.max(...xs) - Math.min(...xs);
@@ -138,7 +150,7 @@ export function tuningCrossing(x: TuningInput): TuningResult {
   const uT = Math.sqrt(vt);
   const budget: BudgetLine[] = [
     { id: 'knife-edge-distance', name: 'knife-edge distance l', u_rel_g: x.l_u_m / x.l_m, note: { kind: 'length', symbol: 'l', m: x.l_m, u_m: x.l_u_m } },
-    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2: statistics, clock calibration of each run)', u_rel_g: (2 * uT) / c0.T, note: { kind: 'period', symbol: 'T', s: c0.T, u_s: uT } },
+    { id: 'crossing-period', name: 'period at the crossing (fits of T1 and T2: statistics, clock calibration of each run, flag radius of each pivot)', u_rel_g: (2 * uT) / c0.T, note: { kind: 'period', symbol: 'T', s: c0.T, u_s: uT } },
     { id: 'amplitude-reduction', name: 'amplitude reduction (every run, same flag and gate)', u_rel_g: 2 * x.amp_u_rel },
     ...(x.clock_u_rel > 0 ? [{ id: 'clock', name: 'device clock (common to every run)', u_rel_g: 2 * x.clock_u_rel, note: { kind: 'common-clock', u_rel: x.clock_u_rel } } satisfies BudgetLine] : []),
   ];

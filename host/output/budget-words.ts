@@ -48,6 +48,7 @@ const WORDS: Words = {
   'centre-of-mass': (n) => `h1 − h2 = ${plusMinus(n.m, n.u_m, ' m')}; T1 − T2 = ${us(n.period_difference_s)}`,
   period: (n) => `${n.symbol} = ${plusMinus(n.s, n.u_s, ' s')}`,
   'both-pivots': (n) => `${uUs(n.pivot1_u_s)} and ${uUs(n.pivot2_u_s)}, taken together`,
+  'each-pivot': (n) => `${uUs(n.pivot1_u_s)} and ${uUs(n.pivot2_u_s)}, independent`,
   'pivot-clocks': (n) => `${uUs(n.pivot1_u_s)} and ${uUs(n.pivot2_u_s)}${n.common_u_rel > 0 ? `; common ${uPpm(n.common_u_rel)}` : ''}`,
   'common-clock': (n) => `common ${uPpm(n.u_rel)}`,
   'buoyancy-difference': (n) => `ρ_air·V/M = ${three(n.ratio)}, moves g by ${three(n.g_rel)}`,

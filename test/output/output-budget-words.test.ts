@@ -65,6 +65,8 @@ const EXAMPLES: readonly { readonly from: string; readonly note: BudgetNote; rea
     note: { kind: 'both-pivots', pivot1_u_s: 0.000001513356085449189, pivot2_u_s: 0.0000013945004870377327 },
     words: '1.5 µs and 1.4 µs, taken together',
   },
+  // The bundled bar's flag radii (0.5 mm on 1.08 m) on each pivot's period, seed 1.
+  { from: 'reversible-bar', note: { kind: 'each-pivot', pivot1_u_s: 1.401456642001346e-7, pivot2_u_s: 1.291627641891593e-7 }, words: '0.14 µs and 0.13 µs, independent' },
   {
     from: 'reversible-bar',
     note: { kind: 'pivot-clocks', pivot1_u_s: 2.0432099132046982e-7, pivot2_u_s: 1.745152600023289e-7, common_u_rel: 0 },
@@ -99,7 +101,7 @@ describe('budget notes in words: worked examples', () => {
     const kinds: Record<BudgetNoteKind, true> = {
       'bob-radius': true, 'string-to-bob-mass': true, 'air-to-bob-density': true, 'q-measured': true, 'not-applied': true, length: true,
       'flag-width': true, 't0-line': true, periods: true, 'clock-rate': true, 'delay-difference': true, 'temperature-coefficient': true,
-      'length-carried': true, 'centre-of-mass': true, period: true, 'both-pivots': true, 'pivot-clocks': true, 'common-clock': true,
+      'length-carried': true, 'centre-of-mass': true, period: true, 'both-pivots': true, 'each-pivot': true, 'pivot-clocks': true, 'common-clock': true,
       'buoyancy-difference': true, 'scale-reading': true, lengths: true, 'correction-fraction': true,
     };
     expect(new Set(EXAMPLES.map((e) => e.note.kind))).toEqual(new Set(Object.keys(kinds)));
