@@ -58,8 +58,8 @@ describe("Bessel's formula for the reversible pendulum", () => {
     const T1 = period(0.6, 0.2395, 9.81);
     const T2 = period(0.4, 0.2395, 9.81);
     const x = input(T1, T2, {
-      pivot1: { T_s: T1, u_stat_s: 3e-7, u_amp_s: 2e-7 },
-      pivot2: { T_s: T2, u_stat_s: 4e-7, u_amp_s: 1e-7 },
+      pivot1: { T_s: T1, u_stat_s: 3e-7, u_amp_s: 2e-7, u_radius_s: 5e-8 },
+      pivot2: { T_s: T2, u_stat_s: 4e-7, u_amp_s: 1e-7, u_radius_s: 6e-8 },
       l_u_m: 2e-5,
       dh_u_m: 2e-3,
       clock_u_rel: 1e-6,
@@ -74,6 +74,8 @@ describe("Bessel's formula for the reversible pendulum", () => {
     expect(line('T1')).toBeCloseTo(rel(gOf(T1 + 3e-7, T2, 1, 0.2)), 10);
     expect(line('T2')).toBeCloseTo(rel(gOf(T1, T2 + 4e-7, 1, 0.2)), 10);
     expect(line('amplitude')).toBeCloseTo(rel(gOf(T1 + 2e-7, T2 + 1e-7, 1, 0.2)), 10);
+    // Each pivot's own flag radius moves its period alone: the two effects add in quadrature.
+    expect(line('flag radius')).toBeCloseTo(Math.hypot(rel(gOf(T1 + 5e-8, T2, 1, 0.2)), rel(gOf(T1, T2 + 6e-8, 1, 0.2))), 11);
     expect(line('device clock')).toBeCloseTo(rel(gOf(T1 * (1 + 1e-6), T2 * (1 + 1e-6), 1, 0.2)), 10);
     // The small second term (T1 − T2 ≈ 0.4 ms) is about 1e-3 of 4π²/g.
     expect(Math.abs(r.difference_term / (r.sum_term + r.difference_term))).toBeLessThan(2e-3);

@@ -13,9 +13,9 @@ export interface CombinedSession {
   readonly outcome: CombineOutcome;
 }
 
-/** Every run of a bundled session for one seed, each simulated for `durationS` (default: the scenario's). */
-export function combineSession(name: string, seed: number, durationS?: number): CombinedSession {
-  const { runs, truth } = sessionRuns(loadSession(name), seed);
+/** Every run of a bundled session for one seed, each simulated for `durationS` (default: the scenario's); `measured`: journals state the rig as measured. */
+export function combineSession(name: string, seed: number, durationS?: number, measured = false): CombinedSession {
+  const { runs, truth } = sessionRuns(loadSession(name), seed, { measured_rig: measured });
   const loaded = runs.map((r) => {
     const { lines } = simulateJournal(r.scenario, { seed: r.seed, ...(durationS !== undefined ? { durationS } : {}) });
     const l = loadJournalEntries(r.name, [...lines].map(parseJournalLine));
@@ -25,20 +25,25 @@ export function combineSession(name: string, seed: number, durationS?: number): 
   return { truth, loaded, outcome: combineLoaded(loaded) };
 }
 
-/** How many of `seeds` put the truth inside ± 2u, and the rms of (value − truth)/u (1 when the budget is right). */
-export function coverageOver(
-  session: string,
-  seeds: number,
-  pick: (s: CombinedSession & { outcome: { ok: true } }) => { v: number; u: number; truth: number },
-): { inside: number; rms: number } {
-  let inside = 0;
-  let z2 = 0;
+type Picked = { v: number; u: number; truth: number };
+type Pick = (s: CombinedSession & { outcome: { ok: true } }) => Picked;
+
+/**
+ * How many of `seeds` put the truth inside ± 2u, and the rms of (value − truth)/u (1 when the budget is right), for
+ * each figure `picks` names; `measured`: the journals state the rig as measured (sim/measured-rig.ts).
+ */
+export function coverageOf<K extends string>(session: string, seeds: number, picks: Record<K, Pick>, measured = false): Record<K, { inside: number; rms: number; z: number[] }> {
+  const z = Object.fromEntries(Object.keys(picks).map((k) => [k, [] as number[]])) as Record<K, number[]>;
   for (let seed = 1; seed <= seeds; seed++) {
-    const s = combineSession(session, seed);
+    const s = combineSession(session, seed, undefined, measured);
     if (!s.outcome.ok) throw new Error(combineFailureText(s.outcome.failure));
-    const { v, u, truth } = pick(s as CombinedSession & { outcome: { ok: true } });
-    if (Math.abs(v - truth) <= 2 * u) inside++;
-    z2 += ((v - truth) / u) ** 2;
+    for (const k of Object.keys(picks) as K[]) {
+      const { v, u, truth } = picks[k](s as CombinedSession & { outcome: { ok: true } });
+      z[k].push((v - truth) / u);
+    }
   }
-  return { inside, rms: Math.sqrt(z2 / seeds) };
+  const out = {} as Record<K, { inside: number; rms: number; z: number[] }>;
+  for (const k of Object.keys(picks) as K[])
+    out[k] = { inside: z[k].filter((v) => Math.abs(v) <= 2).length, rms: Math.sqrt(z[k].reduce((a, v) => a + v * v, 0) / seeds), z: z[k] };
+  return out;
 }
