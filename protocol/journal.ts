@@ -78,6 +78,17 @@ export function journalAnnotation(hostUs: number, word: AnnotationWord, text = '
   return `#@${Math.max(0, Math.round(hostUs))} ${word}${t ? ` ${t}` : ''}`;
 }
 
+/** The `baud=N` field a `connect` annotation ends with: the serial rate the host opened the port at. */
+export function connectBaudField(baud: number): string {
+  return `baud=${baud}`;
+}
+
+/** The serial rate a `connect` annotation states (`baud=N`), or null when its writer did not say (older journals). */
+export function connectBaud(text: string): number | null {
+  const m = /(?:^| )baud=([1-9][0-9]{2,7})(?: |$)/.exec(text);
+  return m ? Number(m[1]) : null;
+}
+
 /** True when the first line of a file marks it as a journal of a version this code reads. */
 export function isJournalMagic(firstLine: string): boolean {
   const e = parseJournalLine(firstLine);

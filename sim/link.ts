@@ -1,5 +1,5 @@
 // From the device's UART to journal entries: serial timing, wire faults, USB frames and latency, disconnects.
-import type { AnnotationWord } from '../protocol/journal.ts';
+import { connectBaudField, type AnnotationWord } from '../protocol/journal.ts';
 import type { DeviceLine } from './device.ts';
 import type { Window } from './fault-schedule.ts';
 import type { Rng } from './prng.ts';
@@ -67,7 +67,7 @@ export class LinkModel {
   }
 
   open(): SimEntry[] {
-    return [{ kind: 'annotation', hostUs: 0, word: 'connect', text: `${this.o.portName} (simulated rig)` }];
+    return [{ kind: 'annotation', hostUs: 0, word: 'connect', text: `${this.o.portName} (simulated rig) ${connectBaudField(this.o.baud)}` }];
   }
 
   /** The entries one device line leads to; undefined once the line would reach the host after the run. */
@@ -91,7 +91,7 @@ export class LinkModel {
       if (this.inside && w.end <= host) {
         this.inside = false;
         this.di++;
-        out.push({ kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated)` });
+        out.push({ kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated) ${connectBaudField(o.baud)}` });
         continue;
       }
       break;
@@ -126,7 +126,7 @@ export class LinkModel {
         out.push({ kind: 'annotation', hostUs: us(w.start), word: 'disconnect', text: 'port lost (simulated)' });
       }
       this.inside = false;
-      if (w.end <= o.tEnd) out.push({ kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated)` });
+      if (w.end <= o.tEnd) out.push({ kind: 'annotation', hostUs: us(w.end), word: 'connect', text: `${o.portName} reopened (simulated) ${connectBaudField(o.baud)}` });
     }
     return out;
   }

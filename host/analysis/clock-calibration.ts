@@ -1,12 +1,14 @@
 // Device clock rate against the host clock (lower envelope of one-sided USB latency) or against a 1 PPS input.
 //
-// Each heartbeat gives x = ticks/hz (nominal device seconds) and the host receive time h. With the true tick rate
-// hz·(1 + p), h = offset + x/(1 + p) + latency, latency ≥ 0 and one-sided (USB polling, OS scheduling). A plain
-// least-squares line through all points is biased by latency that changes over the run and is spoilt by long
-// stalls, so we fit the lower envelope instead: minimum-delay filtering (the minimum of y = h − x within windows
-// of the run) followed by a line through the minima with upward outliers removed. This is the minimum-delay idea
-// of S. B. Moon, P. Skelly, D. Towsley, "Estimation and removal of clock skew from network delay measurements",
-// IEEE INFOCOM 1999 (from memory), done with window minima so that the scatter of the minima gives an uncertainty.
+// Each heartbeat gives x = ticks/hz (nominal device seconds) and the host time h at which its line began to be
+// sent (its LF's arrival less the line's wire time, host/pipeline/line-wire-time.ts: the line grows during a run,
+// and its wire time would read as a rate). With the true tick rate hz·(1 + p), h = offset + x/(1 + p) + latency,
+// latency ≥ 0 and one-sided (USB polling, OS scheduling). A plain least-squares line through all points is biased
+// by latency that changes over the run and is spoilt by long stalls, so we fit the lower envelope instead:
+// minimum-delay filtering (the minimum of y = h − x within windows of the run) followed by a line through the
+// minima with upward outliers removed. This is the minimum-delay idea of S. B. Moon, P. Skelly, D. Towsley,
+// "Estimation and removal of clock skew from network delay measurements", IEEE INFOCOM 1999 (from memory), done
+// with window minima so that the scatter of the minima gives an uncertainty.
 import { linearFit } from './least-squares.ts';
 import { robustSigma } from './stats.ts';
 

@@ -1,7 +1,7 @@
 // The device link: owns a serial port, frames and timestamps lines, waits for the hello, and survives unplugs and reboots.
 import type { BindingInterface } from './binding-types.ts';
 import { decodeLine } from '../../protocol/decode.ts';
-import type { AnnotationWord } from '../../protocol/journal.ts';
+import { connectBaudField, type AnnotationWord } from '../../protocol/journal.ts';
 import { PROTOCOL_VERSION, type HelloRecord } from '../../protocol/records.ts';
 import { UserError } from '../errors.ts';
 import { DEFAULT_BAUD, HEARTBEAT_DEFAULT_MS } from '../../protocol/link-defaults.ts';
@@ -409,7 +409,7 @@ class Link implements DeviceLink {
     this.clearTimers();
     const reconnect = this.everConnected;
     if (reconnect) this.counts.reconnects++;
-    this.emit({ type: 'annotation', hostUs, word: 'connect', text: `${this.currentPath} fw=${h.fw} boot=${h.boot.toString(16).padStart(4, '0')}` });
+    this.emit({ type: 'annotation', hostUs, word: 'connect', text: `${this.currentPath} fw=${h.fw} boot=${h.boot.toString(16).padStart(4, '0')} ${connectBaudField(this.baud)}` });
     this.attempt = 0;
     this.emit({ type: 'state', hostUs, state: 'connected', path: this.currentPath!, hello: h, reconnects: this.counts.reconnects });
     if (!reconnect) {

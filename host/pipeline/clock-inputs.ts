@@ -18,7 +18,7 @@ export interface RunClock {
   readonly since: ((boot: number, ticks: number) => number) | null;
 }
 
-/** Heartbeats (boot, ticks, host µs) and PPS pulses (boot, ticks) in arrival order, as compact columns. */
+/** Heartbeats (boot, ticks, host µs of the line's send start) and PPS pulses (boot, ticks) in arrival order, as compact columns. */
 export class ClockInputs {
   private readonly hb = { boot: new I32Column(), ticks: new F64Column(), hostUs: new F64Column() };
   private readonly pps = { boot: new I32Column(), ticks: new F64Column() };

@@ -5,6 +5,7 @@ import type { RoomReading } from '../analysis/room-drift.ts';
 import { Beams, type EdgeThresholds } from './beams.ts';
 import { BootTimebase } from './boot-timebase.ts';
 import { ClockInputs } from './clock-inputs.ts';
+import { LinkBaud } from './line-wire-time.ts';
 import { LinkHealth } from './link-health.ts';
 import type { LiveHello } from './live-state.ts';
 import type { Warning } from '../analysis/warning.ts';
@@ -22,6 +23,8 @@ export class DeviceIntake {
   readonly timebase = new BootTimebase();
   readonly health = new LinkHealth();
   readonly clockInputs = new ClockInputs();
+  /** The section's serial rate: ticks are read before a line is sent, so device times pair with its send start. */
+  readonly link = new LinkBaud();
   readonly beams: Beams;
   /** A readings with the boot and ticks at which the sensor was read (placed on the passes' timebase by `roomOn`). */
   readonly room: (Omit<RoomReading, 't_s'> & { readonly boot: number; readonly ticks: number })[] = [];
@@ -38,7 +41,7 @@ export class DeviceIntake {
    * on both clocks; null when no hello came or a line was lost or rejected before it): the gate side's evidence.
    */
   quietBeforeFirstPass_s: number | null | undefined;
-  private helloHostUs: number | null = null;
+  private helloSentUs: number | null = null;
   private lossSeen = false;
 
   constructor(
@@ -50,15 +53,19 @@ export class DeviceIntake {
     this.beams = new Beams(opts, (b) => this.timebase.hz(b) * (1 + opts.givenPpm * 1e-6));
   }
 
-  /** One device line received at `hostUs`. */
+  /**
+   * One device line whose LF arrived at `hostUs`. Where host time is paired with the line's ticks (the clock inputs,
+   * each boot's first anchor, the quiet time before the first pass), it is the line's send start (line-wire-time.ts).
+   */
   data(hostUs: number, line: string): void {
     this.beams.ensure(this.rig());
+    const sentUs = this.link.sentUs(hostUs, line);
     const rec = this.health.decode(line);
     if (!rec) return void (this.lossSeen = true);
     const tr = this.health.track(rec);
     if (tr.gap) this.lossSeen = true;
     if (tr.newBoot) {
-      this.helloHostUs = null;
+      this.helloSentUs = null;
       this.beams.each((p) => p.newBoot());
       const w = this.timebase.newBoot(tr.bootIndex, rec.kind === 'H' ? rec : null);
       if (w) this.warnings.push(w);
@@ -66,7 +73,7 @@ export class DeviceIntake {
     switch (rec.kind) {
       case 'H':
         this.timebase.hello(rec.hz);
-        this.helloHostUs = hostUs;
+        this.helloSentUs = sentUs;
         this.hello = { fw: rec.fw, mcu: rec.mcu, hz: rec.hz, ch: rec.ch, proto: rec.proto, boot: rec.boot.toString(16).padStart(4, '0') };
         // A device with a room sensor interface follows every hello with its state; one without never sends it.
         this.sensorState = null;
@@ -75,15 +82,15 @@ export class DeviceIntake {
         this.sensorState = rec.state;
         return;
       case 'E':
-        return this.edge(hostUs, rec);
+        return this.edge(hostUs, sentUs, rec);
       case 'A': {
-        const ticks = this.timebase.timed(hostUs, rec.ticks);
+        const ticks = this.timebase.timed(sentUs, rec.ticks);
         this.room.push({ boot: this.timebase.boot, ticks, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
         this.lastRoomHostUs = hostUs;
         return;
       }
       case 'T':
-        return this.heartbeat(hostUs, rec);
+        return this.heartbeat(hostUs, sentUs, rec);
       default:
         return;
     }
@@ -94,21 +101,21 @@ export class DeviceIntake {
     return this.room.map(({ boot, ticks, ...r }) => ({ ...r, t_s: joined(boot, ticks) }));
   }
 
-  private edge(hostUs: number, rec: EdgeRecord): void {
-    const ticks = this.timebase.timed(hostUs, rec.ticks);
+  private edge(hostUs: number, sentUs: number, rec: EdgeRecord): void {
+    const ticks = this.timebase.timed(sentUs, rec.ticks);
     const rig = this.rig();
     const boot = this.timebase.boot;
     if (this.quietBeforeFirstPass_s === undefined && rec.ch === (rig ? rig.beams[0].channel : 0))
-      this.quietBeforeFirstPass_s = this.helloHostUs !== null && !this.lossSeen ? Math.min(ticks / this.timebase.hz(boot), (hostUs - this.helloHostUs) / 1e6) : null;
+      this.quietBeforeFirstPass_s = this.helloSentUs !== null && !this.lossSeen ? Math.min(ticks / this.timebase.hz(boot), (sentUs - this.helloSentUs) / 1e6) : null;
     if (this.beams.edge(rig, rec, boot, ticks, hostUs)) return;
     const ch = this.opts.ppsChannel;
     if (rec.ch === ch && rec.edge === 'r' && !rig?.beams.some((b) => b.channel === ch)) this.clockInputs.pulse(boot, ticks);
   }
 
-  private heartbeat(hostUs: number, rec: HeartbeatRecord): void {
-    const ticks = this.timebase.timed(hostUs, rec.ticks);
+  private heartbeat(hostUs: number, sentUs: number, rec: HeartbeatRecord): void {
+    const ticks = this.timebase.timed(sentUs, rec.ticks);
     const boot = this.timebase.boot;
-    this.clockInputs.beat(boot, ticks, hostUs);
+    this.clockInputs.beat(boot, ticks, sentUs);
     this.health.deviceLost(boot, rec.lost);
     this.levels = rec.levels;
     this.lastBeatHostUs = hostUs;

@@ -5,7 +5,7 @@
 // `live`) at any moment never changes later numbers. `live` runs the same stages on the newest passes with the
 // clock `result` would choose at that moment (host/pipeline/live-estimator.ts says where the two may differ).
 import type { Warning } from '../analysis/warning.ts';
-import type { JournalEntry } from '../../protocol/journal.ts';
+import { connectBaud, type JournalEntry } from '../../protocol/journal.ts';
 import { parseRig, swingView, type AnyRig, type Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import { batchResult } from './batch-result.ts';
@@ -79,6 +79,7 @@ export function createRunPipeline(opts: PipelineOptions = {}): RunPipeline {
         case 'annotation':
           head.lastHostUs = entry.hostUs;
           if (entry.word === 'disconnect') intake.health.disconnect();
+          else if (entry.word === 'connect') intake.link.connect(connectBaud(entry.text));
           return;
         case 'start':
           head.startIso ??= entry.iso;
