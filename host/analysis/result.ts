@@ -1,4 +1,5 @@
-// The analysis result: what `analyze --json` prints, what the report draws and what the live view shows.
+// The analysis result: what `analyze --json` prints (with its warnings and notes in words: host/output/result-json.ts),
+// what the report draws and what the live view shows.
 // SI units throughout; every `_u` is a standard uncertainty (k = 1).
 import type { GateSide, Warning } from './warning.ts';
 import type { RejectReason } from '../../protocol/records.ts';
