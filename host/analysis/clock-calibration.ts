@@ -41,18 +41,25 @@ interface Minimum {
   readonly h: number;
 }
 
-function windowMinima(boots: readonly BootHeartbeats[], windowS: number): Minimum[] {
+/**
+ * Each window's lowest y = h − k·x: with k near the rate, where in its window a minimum falls is down to the latency.
+ * A boot's windows tile its span exactly (about `windowS` each): a last window of a beat or two would add a
+ * minimum at the very end, whose leverage tilts the line where the rate drifts (+0.06 ppm at 20 ppm/h over 20 min).
+ */
+function windowMinima(boots: readonly BootHeartbeats[], windowS: number, k: number): Minimum[] {
   const out: Minimum[] = [];
   for (const b of boots) {
     const n = b.deviceS.length;
     if (n === 0) continue;
     const x0 = b.deviceS[0]!;
+    const len = b.deviceS[n - 1]! - x0;
+    const windows = Math.max(1, Math.round(len / windowS));
     let cur = -1;
     let best: Minimum | null = null;
     for (let i = 0; i < n; i++) {
       const x = b.deviceS[i]!;
-      const y = b.hostS[i]! - x;
-      const w = Math.floor((x - x0) / windowS);
+      const y = b.hostS[i]! - k * x;
+      const w = len > 0 ? Math.min(windows - 1, Math.floor(((x - x0) / len) * windows)) : 0;
       if (w !== cur) {
         if (best) out.push(best);
         cur = w;
@@ -80,6 +87,25 @@ function pooledFit(ms: readonly Minimum[], quadratic: boolean) {
   return fit ? { fit, nb: boots.length, xBar, boots } : null;
 }
 
+/**
+ * The lower envelope's line y = h − k·x = a_boot + β·x through window minima with upward outliers removed, so that
+ * dh/dx = k + β; null when too few windows remain.
+ */
+function envelopeFit(boots: readonly BootHeartbeats[], windowS: number, k: number) {
+  let ms = windowMinima(boots, windowS, k);
+  // Remove windows whose minimum sits far above the envelope (a window where every line came late), twice.
+  for (let pass = 0; pass < 2; pass++) {
+    const pf = pooledFit(ms, false);
+    if (!pf || pf.fit.dof < 2) return null;
+    const res = ms.map((m) => m.y - predict(pf, m, false));
+    const sig = Math.max(robustSigma(res), 1e-7);
+    ms = ms.filter((_, i) => res[i]! < 4 * sig);
+  }
+  const pf = pooledFit(ms, false);
+  if (!pf || pf.fit.dof < 2) return null;
+  return { ms, pf, beta: pf.fit.params[pf.nb]!, uBeta: Math.sqrt(pf.fit.cov[pf.nb]![pf.nb]!) };
+}
+
 /** Estimates the device clock rate from heartbeats; null when fewer than 4 windows with 3 beats each are available. */
 export function clockRateFromHost(boots: readonly BootHeartbeats[]): ClockRate | null {
   let span = 0;
@@ -92,22 +118,18 @@ export function clockRateFromHost(boots: readonly BootHeartbeats[]): ClockRate |
   if (beats < 12 || !(span > 0)) return null;
   const spacing = span / Math.max(1, beats - boots.length);
   const windowS = Math.max(5 * spacing, span / 48);
-  let ms = windowMinima(boots, windowS);
-  // Remove windows whose minimum sits far above the envelope (a window where every line came late), twice.
-  for (let pass = 0; pass < 2; pass++) {
-    const pf = pooledFit(ms, false);
-    if (!pf || pf.fit.dof < 2) return null;
-    const res = ms.map((m) => m.y - predict(pf, m, false));
-    const sig = Math.max(robustSigma(res), 1e-7);
-    ms = ms.filter((_, i) => res[i]! < 4 * sig);
-  }
-  const pf = pooledFit(ms, false);
-  if (!pf || pf.fit.dof < 2) return null;
-  const iB = pf.nb;
-  const beta = pf.fit.params[iB]!;
-  const uBeta = Math.sqrt(pf.fit.cov[iB]![iB]!);
-  const ppm = (-beta / (1 + beta)) * 1e6;
-  const u_ppm = (uBeta / (1 + beta) ** 2) * 1e6;
+  // Minima of h − x sit at one end of every window when the rate is off (3000 ppm: 75 ms over 25 s, against ~1 ms
+  // of latency), so they sample the run half a window late, and a drifting rate came out as the rate there
+  // (+0.13 ppm at 20 ppm/h over 20 minutes). The minima of h − x/(1 + ppm) from a first fit do not lean.
+  const first = envelopeFit(boots, windowS, 1);
+  if (!first) return null;
+  const k = 1 + first.beta;
+  const env = envelopeFit(boots, windowS, k);
+  if (!env) return null;
+  const { ms, pf } = env;
+  const slope = k + env.beta;
+  const ppm = (1 / slope - 1) * 1e6;
+  const u_ppm = (env.uBeta / slope ** 2) * 1e6;
   let drift: number | null = null;
   let driftU: number | null = null;
   if (span >= 1800 && ms.length >= 8) {

@@ -56,6 +56,22 @@ describe('device clock rate from heartbeats (lower envelope of one-sided latency
     expect(off.get(1)! - off.get(0)!).toBeCloseTo(6000, 2);
   });
 
+  it('gives a drifting rate as its mean over the heartbeats, exactly when there is no latency', () => {
+    // A device second at a time, rate 1 + (ppm + drift·h/3600)·1e-6 at host time h: device seconds x(h) =
+    // (1 + p)h + q·h²/2, so the rate's mean over the beats is p + q·(h_first + h_last)/2 (exact for a linear drift).
+    // Window minima of h − x sat at one end of each window (75 ms across 25 s at 3000 ppm) and a last window of one
+    // beat added a point at the end: +0.126 ppm at +20 ppm/h over 20 minutes, where this asks for 1e-3.
+    for (const [ppm, drift] of [[3000, 20], [3000, -20], [0, 20], [-3000, 20]] as const) {
+      const p = ppm * 1e-6;
+      const q = (drift * 1e-6) / 3600;
+      const deviceS: number[] = [];
+      const hostS: number[] = [];
+      for (let n = 1; n < 1200; n++) deviceS.push(n), hostS.push((-(1 + p) + Math.sqrt((1 + p) ** 2 + 2 * q * n)) / q);
+      const truth = ppm + (drift * (hostS[0]! + hostS.at(-1)!)) / 2 / 3600;
+      expect(Math.abs(clockRateFromHost([{ boot: 0, deviceS, hostS }])!.ppm - truth), `${ppm} ppm, ${drift} ppm/h`).toBeLessThan(1e-3);
+    }
+  });
+
   it('is null when there are too few heartbeats', () => {
     expect(clockRateFromHost([{ boot: 0, deviceS: [1, 2, 3], hostS: [1, 2, 3] }])).toBeNull();
   });
