@@ -14,9 +14,20 @@ export interface WorkerWithFallback {
   push(entry: JournalEntry): void;
   /** The worker's full result, or undefined when there is no worker (any more): compute it in-thread then. */
   result(opts?: { rows?: boolean }): Promise<AnalysisResult | undefined>;
-  /** Drops the worker after `e`, warning once. */
-  fail(e: unknown): void;
   close(): Promise<void>;
+}
+
+/** In-thread, the full analysis blocks the caller: redo it at most as often as it stays under a tenth of the time. */
+const IN_THREAD_COST_FACTOR = 10;
+/** In a worker it blocks nothing: keep the worker under about a quarter of a core. */
+const WORKER_COST_FACTOR = 4;
+
+/**
+ * How long to wait before the next full result, in the unit of `minGap` and `cost` (the last one's duration): the
+ * analysis grows with the run, so its pace follows its cost, and never faster than `minGap`.
+ */
+export function refreshGap(minGap: number, cost: number, inWorker: boolean): number {
+  return Math.max(minGap, (inWorker ? WORKER_COST_FACTOR : IN_THREAD_COST_FACTOR) * cost);
 }
 
 export function workerWithFallback(source: ResultSource | null, warn: (line: string) => void): WorkerWithFallback {
@@ -44,7 +55,6 @@ export function workerWithFallback(source: ResultSource | null, warn: (line: str
         return undefined;
       }
     },
-    fail,
     async close() {
       const w = worker;
       worker = null;

@@ -4,7 +4,7 @@ import type { DeviceLink } from '../link/device-link.ts';
 import type { MicrosClock } from '../link/monotonic-clock.ts';
 import type { RunPipeline } from '../pipeline/run-pipeline.ts';
 import { createResultSource, type ResultSource } from '../pipeline/result-client.ts';
-import { workerWithFallback, type WorkerWithFallback } from '../pipeline/result-fallback.ts';
+import { refreshGap, workerWithFallback, type WorkerWithFallback } from '../pipeline/result-fallback.ts';
 import { systemTimers, type Timers } from '../link/timers.ts';
 import type { BlockHeader, JournalWriter } from '../journal/journal-writer.ts';
 import { startRecording } from './recording-session.ts';
@@ -62,10 +62,7 @@ function gRefresher(o: RecorderOptions, results: WorkerWithFallback) {
     const fromWorker = await results.result({ rows: false });
     const r = fromWorker ?? o.pipeline.result({ rows: false });
     g = { value: r.g_m_s2, u: r.g_u_m_s2, delayS: r.gate_delay?.difference_s ?? 0 };
-    // The full analysis grows with the run: in-thread, redo g at most as often as it stays under a tenth of
-    // the time; in the worker, under about a quarter of a core.
-    const costUs = o.now() - t0;
-    dueUs = t + Math.max(o.statusEveryMs * 1000, (fromWorker ? 4 : 10) * costUs);
+    dueUs = t + refreshGap(o.statusEveryMs * 1000, o.now() - t0, fromWorker !== undefined);
   };
   return {
     g: (): G => g,

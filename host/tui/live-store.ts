@@ -5,7 +5,8 @@ import { parseSimpleRig, type Rig } from '../../protocol/rig.ts';
 import type { AnalysisResult } from '../analysis/result.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
 import type { ResultSource } from '../pipeline/result-client.ts';
-import { workerWithFallback } from '../pipeline/result-fallback.ts';
+import { refreshGap, workerWithFallback } from '../pipeline/result-fallback.ts';
+import type { Timers as LinkTimers } from '../link/timers.ts';
 
 /** The part of the run pipeline (`createRunPipeline`) the store drives. */
 export interface PipelineLike {
@@ -39,10 +40,8 @@ export interface StoreSnapshot {
   readonly version: number;
 }
 
-export interface Timers {
-  setInterval(fn: () => void, ms: number): unknown;
-  clearInterval(handle: unknown): void;
-}
+/** The publish timer (tests move it by hand). */
+export type Timers = Pick<LinkTimers, 'setInterval' | 'clearInterval'>;
 
 export interface LiveStoreOptions {
   readonly createPipeline: () => PipelineLike;
@@ -82,10 +81,6 @@ export interface LiveStore {
 export const LIVE_HZ = 5;
 /** Longest time between publishes while no line arrives. */
 const IDLE_PUBLISH_MS = 1000;
-/** The full result is recomputed no sooner than this many times its last cost. */
-const RESULT_COST_FACTOR = 10;
-/** In a worker the cost does not block the screen: keep the worker under about a quarter of a core. */
-const WORKER_COST_FACTOR = 4;
 /** Heartbeat arrivals kept for the spacing estimate. */
 const BEATS_KEPT = 9;
 
@@ -126,19 +121,28 @@ export function mergeLive(whole: LiveState, since: LiveState): LiveState {
   };
 }
 
-/** Creates a store; the publish timer runs until `stop()`. */
-export function createLiveStore(opts: LiveStoreOptions): LiveStore {
-  const liveMs = 1000 / (opts.liveHz ?? LIVE_HZ);
-  const resultMs = 1000 / (opts.resultHz ?? 2);
-  const whole = opts.createPipeline();
-  let since: PipelineLike | null = null;
+/** What a restart replays to a fresh pipeline: the latest journal header block and the device's last hello. */
+function restartReplay() {
   const header: JournalEntry[] = [];
   let lastHello: JournalEntry | null = null;
-  let dirty = false;
-  let resultStale = false;
-  let lastResultMs = -Infinity;
-  let resultGapMs = resultMs;
-  let lastPublishMs = -Infinity;
+  return {
+    note(entry: JournalEntry): void {
+      if (isHeader(entry)) {
+        // A resumed journal opens a new host time base: keep only the latest header block.
+        if (entry.kind === 'magic') header.length = 0;
+        else if (entry.kind === 'start') header.splice(0, header.length, ...header.filter((c) => c.kind === 'magic'));
+        header.push(entry);
+      } else if (entry.kind === 'data' && isHello(entry.line)) lastHello = entry;
+    },
+    entries: (): JournalEntry[] => (lastHello ? [...header, lastHello] : [...header]),
+  };
+}
+
+/** The snapshot's facts about the run itself, beside the pipelines' state. */
+type RunFacts = Omit<StoreSnapshot, 'live' | 'result' | 'version'>;
+
+/** Times, entry count, heartbeat spacing and rig of the entries pushed, for the snapshot. */
+function runFacts(nowMs: () => number) {
   let entries = 0;
   let lastHost: number | null = null;
   let firstHost: number | null = null;
@@ -146,70 +150,28 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
   let lastArrival: number | null = null;
   const beats: number[] = [];
   let rig: Rig | null = null;
-  let result = whole.result();
-  let snap: StoreSnapshot = {
-    live: whole.live(),
-    result,
-    lastHost_s: null,
-    firstHost_s: null,
-    restartedAt_s: null,
-    lastArrivalMs: null,
-    entries: 0,
-    heartbeatInterval_s: null,
-    rig: null,
-    version: 0,
-  };
-  const listeners = new Set<() => void>();
-  const fallback = workerWithFallback(opts.createResults?.() ?? null, (line) => opts.warn?.(line));
-  // Bumped on restart, so an answer about the entries before it is dropped.
-  let generation = 0;
-  let inFlight = false;
-  let stopped = false;
-
-  /** Asks the worker for the full result of everything pushed so far; resolves once it is shown. */
-  const request = async (r: ResultSource): Promise<void> => {
-    const gen = generation;
-    const t0 = opts.nowMs();
-    resultStale = false;
-    lastResultMs = t0;
-    const fresh = await r.result({ rows: false });
-    if (gen !== generation || stopped) return;
-    result = fresh;
-    resultGapMs = Math.max(resultMs, WORKER_COST_FACTOR * (opts.nowMs() - t0));
-    publish(false);
-  };
-
-  const publish = (forceResult: boolean): void => {
-    const now = opts.nowMs();
-    const results = fallback.worker;
-    if (results) {
-      if (!inFlight && (forceResult || (resultStale && now - lastResultMs >= resultGapMs))) {
-        inFlight = true;
-        const r = results;
-        request(r).then(
-          () => (inFlight = false),
-          (e: unknown) => {
-            inFlight = false;
-            if (!stopped) {
-              fallback.fail(e);
-              publish(true);
-            }
-          },
-        );
+  return {
+    note(entry: JournalEntry): void {
+      if (entry.kind === 'rig') {
+        const r = parseSimpleRig(entry.json);
+        rig = r.ok ? r.rig : null;
+      } else if (entry.kind === 'data' && entry.line.startsWith('T ')) {
+        beats.push(entry.hostUs / 1e6);
+        if (beats.length > BEATS_KEPT) beats.shift();
       }
-    } else if (forceResult || (resultStale && now - lastResultMs >= resultGapMs)) {
-      result = (since ?? whole).result({ rows: false });
-      resultStale = false;
-      lastResultMs = now;
-      // The full analysis grows with the run: keep it under about a tenth of the time.
-      resultGapMs = Math.max(resultMs, RESULT_COST_FACTOR * (opts.nowMs() - now));
-    }
-    // The live amplitudes use the gate delay the shown result calibrated (it may come from the worker).
-    const d = result.gate_delay?.difference_s ?? 0;
-    const live = since ? mergeLive(whole.live(undefined, d), since.live(undefined, d)) : whole.live(undefined, d);
-    snap = {
-      live,
-      result,
+      entries++;
+      if (entry.kind === 'data' || entry.kind === 'annotation') {
+        lastHost = entry.hostUs / 1e6;
+        firstHost ??= lastHost;
+        lastArrival = nowMs();
+      }
+    },
+    /** The estimates restart at the newest line. */
+    restarted(): void {
+      restartedAt = lastHost;
+      firstHost = lastHost;
+    },
+    get: (): RunFacts => ({
       lastHost_s: lastHost,
       firstHost_s: firstHost,
       restartedAt_s: restartedAt,
@@ -217,46 +179,124 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
       entries,
       heartbeatInterval_s: medianSpacing(beats),
       rig,
-      version: snap.version + 1,
-    };
+    }),
+  };
+}
+
+/**
+ * The full result shown: from the worker while it works, else computed in-thread from `pipeline()` (the estimates
+ * since the last restart); recomputed no sooner than its cost allows (`refreshGap`). `publish` shows a fresh result.
+ */
+function resultRefresher(opts: LiveStoreOptions, pipeline: () => PipelineLike, publish: (force: boolean) => void) {
+  const minGapMs = 1000 / (opts.resultHz ?? 2);
+  const fallback = workerWithFallback(opts.createResults?.() ?? null, (line) => opts.warn?.(line));
+  let result = pipeline().result();
+  let stale = false;
+  let lastMs = -Infinity;
+  let gapMs = minGapMs;
+  // Bumped on restart, so an answer about the entries before it is dropped.
+  let generation = 0;
+  let inFlight = false;
+  let stopped = false;
+
+  /** Asks the worker for the full result of everything pushed so far; resolves once it is shown. */
+  const request = async (): Promise<void> => {
+    const gen = generation;
+    const t0 = opts.nowMs();
+    stale = false;
+    lastMs = t0;
+    const fresh = await fallback.result({ rows: false });
+    // The worker failed (warned once): in-thread from now on. Closed by stop(): nothing to show.
+    if (fresh === undefined) {
+      if (!stopped) publish(true);
+      return;
+    }
+    if (gen !== generation || stopped) return;
+    result = fresh;
+    gapMs = refreshGap(minGapMs, opts.nowMs() - t0, true);
+    publish(false);
+  };
+
+  return {
+    current: (): AnalysisResult => result,
+    stale: (): boolean => stale,
+    push(entry: JournalEntry): void {
+      fallback.push(entry);
+      stale = true;
+    },
+    /** Starts a worker request, or recomputes in-thread, when forced or when the last result is stale and due. */
+    refresh(force: boolean, now: number): void {
+      const due = force || (stale && now - lastMs >= gapMs);
+      if (fallback.worker) {
+        if (due && !inFlight) {
+          inFlight = true;
+          void request().finally(() => (inFlight = false));
+        }
+      } else if (due) {
+        result = pipeline().result({ rows: false });
+        stale = false;
+        lastMs = now;
+        gapMs = refreshGap(minGapMs, opts.nowMs() - now, false);
+      }
+    },
+    /** The worker starts over from `replay` (its answers about the entries before are dropped). */
+    restart(replay: readonly JournalEntry[]): void {
+      const w = fallback.worker;
+      if (!w) return;
+      generation++;
+      inFlight = false;
+      w.reset();
+      for (const e of replay) w.push(e);
+    },
+    async flush(): Promise<void> {
+      if (!fallback.worker) return publish(true);
+      await request();
+    },
+    stop(): void {
+      stopped = true;
+      void fallback.close();
+    },
+  };
+}
+
+/** Creates a store; the publish timer runs until `stop()`. */
+export function createLiveStore(opts: LiveStoreOptions): LiveStore {
+  const whole = opts.createPipeline();
+  let since: PipelineLike | null = null;
+  const replay = restartReplay();
+  const facts = runFacts(opts.nowMs);
+  const results = resultRefresher(opts, () => since ?? whole, publish);
+  const listeners = new Set<() => void>();
+  let snap: StoreSnapshot = { live: whole.live(), result: results.current(), ...facts.get(), version: 0 };
+  let dirty = false;
+  let lastPublishMs = -Infinity;
+
+  function publish(forceResult: boolean): void {
+    const now = opts.nowMs();
+    results.refresh(forceResult, now);
+    const result = results.current();
+    // The live amplitudes use the gate delay the shown result calibrated (it may come from the worker).
+    const d = result.gate_delay?.difference_s ?? 0;
+    const live = since ? mergeLive(whole.live(undefined, d), since.live(undefined, d)) : whole.live(undefined, d);
+    snap = { live, result, ...facts.get(), version: snap.version + 1 };
     dirty = false;
     lastPublishMs = now;
     for (const l of listeners) l();
-  };
+  }
 
   // Publishing also when nothing arrived keeps time-based warnings (a stalled device) moving.
   const timer = opts.timers.setInterval(() => {
-    if (dirty || resultStale || opts.nowMs() - lastPublishMs >= IDLE_PUBLISH_MS) publish(false);
-  }, liveMs);
+    if (dirty || results.stale() || opts.nowMs() - lastPublishMs >= IDLE_PUBLISH_MS) publish(false);
+  }, 1000 / (opts.liveHz ?? LIVE_HZ));
 
   return {
     push(entry) {
-      if (isHeader(entry)) {
-        // A resumed journal opens a new host time base: keep only the latest header block.
-        if (entry.kind === 'magic') header.length = 0;
-        else if (entry.kind === 'start') header.splice(0, header.length, ...header.filter((c) => c.kind === 'magic'));
-        header.push(entry);
-        if (entry.kind === 'rig') {
-          const r = parseSimpleRig(entry.json);
-          rig = r.ok ? r.rig : null;
-        }
-      } else if (entry.kind === 'data') {
-        if (entry.line.startsWith('T ')) {
-          beats.push(entry.hostUs / 1e6);
-          if (beats.length > BEATS_KEPT) beats.shift();
-        } else if (isHello(entry.line)) lastHello = entry;
-      }
+      replay.note(entry);
       whole.push(entry);
       since?.push(entry);
-      fallback.push(entry);
-      entries++;
-      if (entry.kind === 'data' || entry.kind === 'annotation') {
-        lastHost = entry.hostUs / 1e6;
-        firstHost ??= lastHost;
-        lastArrival = opts.nowMs();
-      }
+      results.push(entry);
+      facts.note(entry);
       dirty = true;
-      resultStale = true;
     },
     subscribe(listener) {
       listeners.add(listener);
@@ -265,35 +305,17 @@ export function createLiveStore(opts: LiveStoreOptions): LiveStore {
     getSnapshot: () => snap,
     restart() {
       since = opts.createPipeline();
-      const again = lastHello ? [...header, lastHello] : [...header];
+      const again = replay.entries();
       for (const e of again) since.push(e);
-      const results = fallback.worker;
-      if (results) {
-        generation++;
-        inFlight = false;
-        results.reset();
-        for (const e of again) results.push(e);
-      }
-      restartedAt = lastHost;
-      firstHost = lastHost;
+      results.restart(again);
+      facts.restarted();
       publish(true);
     },
-    async flush() {
-      const r = fallback.worker;
-      if (!r) return publish(true);
-      try {
-        await request(r);
-      } catch (e) {
-        if (stopped) return;
-        fallback.fail(e);
-        publish(true);
-      }
-    },
+    flush: () => results.flush(),
     stop() {
-      stopped = true;
       opts.timers.clearInterval(timer);
       listeners.clear();
-      void fallback.close();
+      results.stop();
     },
   };
 }

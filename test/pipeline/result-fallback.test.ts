@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import type { AnalysisResult } from '../../host/analysis/result.ts';
 import type { ResultSource } from '../../host/pipeline/result-client.ts';
-import { workerWithFallback } from '../../host/pipeline/result-fallback.ts';
+import { refreshGap, workerWithFallback } from '../../host/pipeline/result-fallback.ts';
 import type { JournalEntry } from '../../protocol/journal.ts';
 
 /** A worker stand-in that answers `answers` times, then fails. */
@@ -20,7 +20,7 @@ function flakyWorker(answers: number) {
     },
     close: async () => void closes++,
   };
-  return { src, pushed, closes: () => closes };
+  return { src, pushed, closes: () => closes, asked: () => asked };
 }
 
 const entry: JournalEntry = { kind: 'data', hostUs: 1, line: 'T 0 0 0 1 *00' };
@@ -36,12 +36,12 @@ describe('workerWithFallback', () => {
     expect(lines).toEqual(['full analysis now runs on the main thread (result worker failed: worker died)']);
     expect(f.worker).toBeNull();
     expect(w.closes()).toBe(1);
-    // After the failure nothing more goes to the dead worker, and a second failure says nothing.
+    // After the failure nothing more goes to the dead worker, nor is it asked again, and nothing more is said.
     f.push(entry);
-    f.fail(new Error('again'));
-    expect(w.pushed).toHaveLength(1);
-    expect(lines).toHaveLength(1);
     expect(await f.result()).toBeUndefined();
+    expect(w.pushed).toHaveLength(1);
+    expect(w.asked()).toBe(2);
+    expect(lines).toHaveLength(1);
   });
 
   it('without a worker: results are always in-thread (undefined), and nothing is warned', async () => {
@@ -63,5 +63,14 @@ describe('workerWithFallback', () => {
     reject(new Error('result worker stopped'));
     expect(await pending).toBeUndefined();
     expect(lines).toEqual([]);
+  });
+});
+
+describe('refreshGap', () => {
+  it('paces the next full result by its cost: 10× in-thread, 4× in a worker, never under the minimum', () => {
+    expect(refreshGap(500, 20, false)).toBe(500);
+    expect(refreshGap(500, 80, false)).toBe(800);
+    expect(refreshGap(500, 80, true)).toBe(500);
+    expect(refreshGap(500, 300, true)).toBe(1200);
   });
 });

@@ -5,7 +5,7 @@ import { parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
 import { createLiveStore, medianSpacing, type LiveStoreOptions, type PipelineLike } from '../../host/tui/live-store.ts';
-import { workerResultSource } from '../../host/pipeline/result-client.ts';
+import { inThreadResultSource, workerResultSource, type ResultSource } from '../../host/pipeline/result-client.ts';
 
 function journal(seconds: number, scenario = 'demo-low-q', seed = 7): { entries: JournalEntry[]; T0: number } {
   const { lines, truth } = simulateJournal(loadScenario(scenario), { seed, durationS: seconds });
@@ -82,6 +82,35 @@ describe.each(resultModes)('live store, full result %s', (_mode, results) => {
 });
 
 describe('live store', () => {
+  it('a result worker that fails mid-run is dropped with one line; the store goes on in-thread to the same end', async () => {
+    const { entries } = journal(300);
+    const m = manualTime();
+    const lines: string[] = [];
+    // A worker stand-in (the same analysis) that answers twice, then fails as a crashed worker does.
+    let asked = 0;
+    const flaky = (): ResultSource => {
+      const local = inThreadResultSource();
+      return { ...local, inThread: false, result: async (o) => (asked++ < 2 ? local.result(o) : Promise.reject(new Error('worker died'))) };
+    };
+    const store = createLiveStore({ createPipeline: () => createRunPipeline(), nowMs: () => m.t.now, timers: m.timers, createResults: flaky, warn: (l) => lines.push(l) });
+    const third = Math.floor(entries.length / 3);
+    entries.slice(0, third).forEach((e) => store.push(e));
+    await store.flush();
+    await store.flush();
+    expect(lines).toEqual([]);
+    await store.flush();
+    expect(asked).toBe(3);
+    expect(lines).toEqual(['full analysis now runs on the main thread (result worker failed: worker died)']);
+    expect(store.getSnapshot().result).toEqual({ ...analyzeEntries(entries.slice(0, third)), swings: [] });
+    // From now on the timer's publishes compute the result in-thread, at once, and the worker is not asked again.
+    entries.slice(third).forEach((e) => store.push(e));
+    m.advance(1000);
+    expect(store.getSnapshot().result).toEqual({ ...analyzeEntries(entries), swings: [] });
+    await store.flush();
+    expect(asked).toBe(3);
+    expect(lines).toHaveLength(1);
+    store.stop();
+  });
 
   it('publishes at most once per timer tick and recomputes the full result at most twice a second', () => {
     const { entries } = journal(300);
