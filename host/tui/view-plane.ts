@@ -33,6 +33,12 @@ function minorText(b_m: number | undefined): string {
   return `${mm} mm${turn}`;
 }
 
+/** `−11.52 + 0.04` (°/h): the Foucault rate (null without a latitude: `—`) and the Airy precession, each signed as the turning rate. */
+export function expectedText(foucault: number | null, airy: number | null): string {
+  const a = airy === null ? '—' : `${airy < 0 ? '-' : '+'} ${formatFixed(Math.abs(airy), 2)}`;
+  return `${foucault === null ? '—' : formatFixed(foucault, 2, true)} ${a}`;
+}
+
 /** Null for a one-beam run (no live plane). The turning rate is the full result's (`plane`), '—' until it has one. */
 export function planeView(plane: LivePlane | null, result: AnalysisResult, rig: Rig | null): PlaneView | null {
   if (!plane) return null;
@@ -47,6 +53,8 @@ export function planeView(plane: LivePlane | null, result: AnalysisResult, rig: 
     { label: 'azimuth', value: n ? `${formatFixed(plane.azimuth_deg[n - 1], 1, true)}°` : '—' },
     // The unit in the label: a rate known to 1e-3 °/h still fits beside the top view.
     { label: 'turn°/h', value: s ? formatWithU(s.precession_deg_per_h, s.precession_u_deg_per_h, 2) : '—' },
+    // What physics expects beside it (#16): Foucault at the rig's latitude + the Airy term of the measured axes.
+    { label: 'Fou+Airy', value: s ? expectedText(s.foucault_deg_per_h, s.airy_deg_per_h) : '—' },
     { label: 'minor', value: minorText(plane.minor_axis_m.at(-1)) },
     { label: 'box', value: `±${formatFixed(halfSpan_m * 1000, 0)} mm, 0° →` },
   ];
