@@ -15,8 +15,8 @@
 
 static edge_t ring[EDGE_RING_SIZE];
 // Single producer (the capture ISRs, which never nest) and single consumer (main): head by ISR, tail by main.
-static volatile uint8_t ring_head;
-static volatile uint8_t ring_tail;
+volatile uint8_t capture_ring_head;
+volatile uint8_t capture_ring_tail;
 static volatile uint32_t overflows;
 static volatile uint32_t lost;
 static uint8_t ch1_level;
@@ -25,16 +25,16 @@ static volatile uint16_t ch1_stamp;
 volatile uint8_t capture_alarm_flag;
 
 static inline __attribute__((always_inline)) void ring_push(uint8_t flags, uint16_t lo, uint32_t hi) {
-  uint8_t h = ring_head;
+  uint8_t h = capture_ring_head;
   uint8_t next = (uint8_t)((h + 1) & RING_MASK);
-  if (next == ring_tail) {
+  if (next == capture_ring_tail) {
     lost++;
     return;
   }
   ring[h].lo = lo;
   ring[h].hi = hi;
   ring[h].flags = flags;
-  ring_head = next;
+  capture_ring_head = next;
 }
 
 // Upper 32 bits for a 16-bit Timer1 value taken with interrupts off. TOV1 still pending means the
@@ -78,13 +78,11 @@ void capture_set_mask(uint8_t mask) {
   SREG = s;
 }
 
-uint8_t capture_pending(void) { return ring_head != ring_tail; }
-
 uint8_t capture_pop(edge_t *e) {
-  uint8_t t = ring_tail;
-  if (t == ring_head) return 0;
+  uint8_t t = capture_ring_tail;
+  if (t == capture_ring_head) return 0;
   *e = ring[t];
-  ring_tail = (uint8_t)((t + 1) & RING_MASK);
+  capture_ring_tail = (uint8_t)((t + 1) & RING_MASK);
   return 1;
 }
 
@@ -116,6 +114,18 @@ void capture_set_alarm(uint16_t lo) {
   OCR1A = lo;
   TIFR1 = _BV(OCF1A);
   TIMSK1 |= _BV(OCIE1A);
+  SREG = s;
+}
+
+void capture_set_wake(uint16_t lo, uint8_t on) {
+  uint8_t s = SREG;
+  cli();
+  OCR1B = lo;
+  TIFR1 = _BV(OCF1B);
+  if (on)
+    TIMSK1 |= _BV(OCIE1B);
+  else
+    TIMSK1 &= (uint8_t)~_BV(OCIE1B);
   SREG = s;
 }
 
@@ -289,3 +299,7 @@ ISR(TIMER1_COMPA_vect, ISR_NAKED) {
       "pop r24\n\t"
       "reti\n\t" ::[flag] "i"(&capture_alarm_flag));
 }
+// The room sensor's wake-up does the same, so one vector serves both. Both rank below the capture and INT0
+// vectors, so it can hold up an edge's vector only by its own length (11 cycles with RETI), less than the
+// overflow vector's 34: a pending edge vector goes before any other lower one.
+ISR(TIMER1_COMPB_vect, ISR_ALIASOF(TIMER1_COMPA_vect));

@@ -22,7 +22,9 @@ void capture_init(void);
 void capture_set_mask(uint8_t mask);
 // Takes the oldest edge; returns 0 when the ring is empty.
 uint8_t capture_pop(edge_t *e);
-uint8_t capture_pending(void);
+// The ring's indices (head by the ISRs, tail by main), for the inline check: see uart.h.
+extern volatile uint8_t capture_ring_head, capture_ring_tail;
+static inline uint8_t capture_pending(void) { return capture_ring_head != capture_ring_tail; }
 // Present tick count (callable with interrupts on or off).
 ticks48_t capture_now(void);
 // Edges dropped since boot: ring full, or a pulse too short for the edge-select flip.
@@ -31,7 +33,9 @@ uint32_t capture_lost(void);
 uint8_t capture_levels(void);
 // Arms the Timer1 compare-A wake-up at this low 16-bit tick value (it fires every 4.096 ms at that phase).
 void capture_set_alarm(uint16_t lo);
-// Set by the compare-A interrupt; the main loop clears it.
+// Arms (on = 1) or disarms the Timer1 compare-B wake-up at this low 16-bit tick value, as compare-A.
+void capture_set_wake(uint16_t lo, uint8_t on);
+// Set by the compare-A and compare-B interrupts; the main loop clears it.
 extern volatile uint8_t capture_alarm_flag;
 
 #endif

@@ -29,6 +29,9 @@ static uint64_t next_heartbeat;
 static command_line_t command_line;
 static command_t pending_command;
 static uint8_t command_waiting;
+// The room sensor's wake-up as armed on Timer1 compare-B: the phase, and whether it is on.
+static uint16_t wake_lo;
+static uint8_t wake_on;
 
 static uint64_t as_u64(ticks48_t t) { return ((uint64_t)t.hi << 16) | t.lo; }
 
@@ -134,11 +137,27 @@ static uint8_t service_room(uint64_t now) {
   return progressed;
 }
 
+// Without a timer wake-up a reading would start at the first interrupt after its due time: up to one Timer1
+// overflow (4.1 ms) late. Compare-B is armed in the overflow period before the due time, at its phase, so the
+// loop looks again at the due time itself. A change counts as work: the loop sleeps only after a pass that did
+// none, which reads the counter after this write, so a due time that passed before the write is seen there and
+// one still ahead gets its match.
+static uint8_t arm_room_wake(ticks48_t now) {
+  uint16_t lo = wake_lo;
+  uint8_t on = room_wake_phase(now.hi, &lo);
+  if (lo == wake_lo && on == wake_on) return 0;
+  wake_lo = lo;
+  wake_on = on;
+  capture_set_wake(lo, on);
+  return 1;
+}
+
 // Sleep in idle mode until the next interrupt, unless an ISR left work since the last look. The check and
 // the sleep instruction run with interrupts off; `sei` lets one more instruction (sleep) run first.
 static void idle(void) {
+  if (room_busy()) return;  // main's own state: no interrupt changes it
   cli();
-  uint8_t work = capture_alarm_flag || uart_rx_pending() || room_busy() || (capture_pending() && uart_tx_free() >= REPORT_MAX_EDGE);
+  uint8_t work = capture_alarm_flag || uart_rx_pending() || (capture_pending() && uart_tx_free() >= REPORT_MAX_EDGE);
   capture_alarm_flag = 0;
   if (!work) {
     sleep_enable();
@@ -168,6 +187,7 @@ int main(void) {
     progressed |= service_heartbeat(now);
     progressed |= service_edges();
     progressed |= service_room(as_u64(now));
+    progressed |= arm_room_wake(now);
     if (!progressed) idle();
   }
 }

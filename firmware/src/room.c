@@ -124,7 +124,8 @@ uint8_t room_service(uint64_t now) {
       if (!interval_s || reading_ready || now < due) return 0;
       start_reading(now);
       return 1;
-    case ST_PROBE:  // at boot
+    case ST_PROBE:  // at boot: the reading schedule starts here
+      due = now;
       start_reading(now);
       return 1;
     case ST_MEASURE:
@@ -145,13 +146,34 @@ uint8_t room_service(uint64_t now) {
       reading.at = to_ticks48(taken);
       reading_ready = 1;
       set_state(interval_s ? 0 : ROOM_OFF);
-      // Readings keep the device's own cadence; after a long pause (interval changed) the next comes at once.
-      due = taken + (uint64_t)interval_s * TICKS_PER_S;
-      if (due < now) due = now;
+      // Each reading is due one interval after the previous one was due, not after its (slightly late) start,
+      // so the schedule keeps the device's own cadence. Slots that already went by (a reading held up longer
+      // than an interval) are skipped, as the device model skips them; A <s> restarts the schedule at once.
+      if (interval_s) {
+        uint64_t every = (uint64_t)interval_s * TICKS_PER_S;
+        do due += every;
+        while (due < now);
+      }
       step = ST_IDLE;
       return 1;
   }
   return 0;
+}
+
+uint8_t room_wake_phase(uint32_t now_hi, uint16_t *lo) {
+  ticks48_t at;
+  if (in_transfer) return 0;
+  if (step == ST_MEASURE)
+    at = to_ticks48(taken + MEASURE_TICKS);
+  else if (step == ST_IDLE && interval_s && !reading_ready)
+    at = to_ticks48(due);
+  else
+    return 0;
+  // Only in the overflow period before that time (or the one that holds it), so the match is that time itself
+  // (or at worst one period early, once); a time further off costs no wake-up every period.
+  if (at.hi - now_hi > 1) return 0;
+  *lo = at.lo;
+  return 1;
 }
 
 uint8_t room_busy(void) { return in_transfer || step == ST_PROBE || step == ST_TEMP || step == ST_PRESS || step == ST_HUM; }

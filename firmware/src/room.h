@@ -26,6 +26,10 @@ typedef struct {
 
 // Advances by at most one step (one bus step or one part of the compensation). Returns 1 if it did work.
 uint8_t room_service(uint64_t now);
+// For the main loop's timer wake-up: 1 and the low 16 bits of the tick at which the next step falls due (a
+// reading, or the end of a measurement) when that lies in the present or the next Timer1 overflow period
+// (now_hi: the present one's number, the tick count's upper 32 bits); 0 otherwise.
+uint8_t room_wake_phase(uint32_t now_hi, uint16_t *lo);
 // 1 while a step can run now (a transfer in progress or a computation waiting): the loop must not sleep.
 uint8_t room_busy(void);
 // Interval in seconds, 0 = off; takes effect at once.

@@ -26,11 +26,11 @@
 #define RX_MASK (RX_RING_SIZE - 1)
 
 static char tx[TX_RING_SIZE];
-static volatile uint8_t tx_head;  // written by main
-static volatile uint8_t tx_tail;  // written by the UDRE ISR
+volatile uint8_t uart_tx_head;  // written by main
+volatile uint8_t uart_tx_tail;  // written by the UDRE ISR
 static uint8_t rx[RX_RING_SIZE];
-static volatile uint8_t rx_head;  // written by the RX ISR
-static volatile uint8_t rx_tail;  // written by main
+volatile uint8_t uart_rx_head;  // written by the RX ISR
+volatile uint8_t uart_rx_tail;  // written by main
 
 void uart_init(void) {
   UBRR0 = UART_UBRR;
@@ -39,44 +39,40 @@ void uart_init(void) {
   UCSR0B = _BV(RXEN0) | _BV(TXEN0) | _BV(RXCIE0);
 }
 
-uint8_t uart_tx_free(void) { return (uint8_t)(TX_MASK - ((tx_head - tx_tail) & TX_MASK)); }
-
 void uart_write(const char *s, uint8_t n) {
-  uint8_t h = tx_head;
+  uint8_t h = uart_tx_head;
   while (n--) {
     tx[h] = *s++;
     h = (uint8_t)((h + 1) & TX_MASK);
   }
-  tx_head = h;
+  uart_tx_head = h;
   UCSR0B |= _BV(UDRIE0);
 }
 
-uint8_t uart_rx_pending(void) { return rx_head != rx_tail; }
-
 uint8_t uart_read(uint8_t *byte) {
-  uint8_t t = rx_tail;
-  if (t == rx_head) return 0;
+  uint8_t t = uart_rx_tail;
+  if (t == uart_rx_head) return 0;
   *byte = rx[t];
-  rx_tail = (uint8_t)((t + 1) & RX_MASK);
+  uart_rx_tail = (uint8_t)((t + 1) & RX_MASK);
   return 1;
 }
 
 ISR(USART_UDRE_vect) {
-  uint8_t t = tx_tail;
-  if (t == tx_head) {
+  uint8_t t = uart_tx_tail;
+  if (t == uart_tx_head) {
     UCSR0B &= (uint8_t)~_BV(UDRIE0);
     return;
   }
   UDR0 = tx[t];
-  tx_tail = (uint8_t)((t + 1) & TX_MASK);
+  uart_tx_tail = (uint8_t)((t + 1) & TX_MASK);
 }
 
 ISR(USART_RX_vect) {
   uint8_t b = UDR0;
-  uint8_t h = rx_head;
+  uint8_t h = uart_rx_head;
   uint8_t next = (uint8_t)((h + 1) & RX_MASK);
-  if (next != rx_tail) {  // a full ring drops the byte; the line then fails to parse and gets an err reply
+  if (next != uart_rx_tail) {  // a full ring drops the byte; the line then fails to parse and gets an err reply
     rx[h] = b;
-    rx_head = next;
+    uart_rx_head = next;
   }
 }

@@ -667,14 +667,14 @@ int main(int argc, char **argv) {
           HZ, (uint64_t)avr->cycle, timer1_start == UINT64_MAX ? (int64_t)-1 : (int64_t)timer1_start,
           tifr_fix ? "true" : "false", state, ubrr, (avr->data[ADDR_UCSR0A] >> 1) & 1, bytes_out, next_change);
   // Final values of the registers that say which interrupt sources and peripherals the firmware left on,
-  // and OCR1A (the phase of the main loop's compare wake-up).
+  // and OCR1A and OCR1B (the phases of the main loop's compare wake-ups: heartbeat, room sensor).
   static const struct {
     const char *name;
     unsigned addr;
   } regs[] = {{"EIMSK", 0x3d},  {"EECR", 0x3f},   {"SPCR", 0x4c},   {"ACSR", 0x50},  {"SMCR", 0x53},
               {"SPMCSR", 0x57}, {"WDTCSR", 0x60}, {"PCICR", 0x68},  {"PRR", 0x64},   {"TIMSK0", 0x6e},
               {"TIMSK1", 0x6f}, {"TIMSK2", 0x70}, {"ADCSRA", 0x7a}, {"TCCR1B", 0x81}, {"OCR1AL", 0x88},
-              {"OCR1AH", 0x89}, {"TWCR", 0xbc},   {"UCSR0B", 0xc1}};
+              {"OCR1AH", 0x89}, {"OCR1BL", 0x8a}, {"OCR1BH", 0x8b}, {"TWCR", 0xbc},   {"UCSR0B", 0xc1}};
   fseek(info, -2, SEEK_CUR);  // reopen the JSON object: drop "}\n"
   fprintf(info, ",\"registers\":{");
   for (size_t i = 0; i < sizeof regs / sizeof regs[0]; i++)

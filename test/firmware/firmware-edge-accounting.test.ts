@@ -2,8 +2,8 @@
 // applied edge either comes back exact (tick and polarity) or is counted in `lost`, never both, never neither.
 import { expect, it } from 'vitest';
 import { CH0_UNCOUNTED_PAIR_TICKS } from '../../protocol/link-defaults.ts';
-import { EMULATOR_HZ, runFirmware, type FirmwareEdge } from '../../sim/emulator/run-firmware.ts';
-import { decodeRun, edgesOf, heartbeatsOf } from './emulator-helpers.ts';
+import { EMULATOR_HZ, runFirmware, type FirmwareEdge, type RunFirmwareOptions } from '../../sim/emulator/run-firmware.ts';
+import { decodeRun, edgesOf, heartbeatsOf, readingsEverySecond } from './emulator-helpers.ts';
 import { describeFirmware } from './toolchain-gate.ts';
 
 const GAPS = [5, 8, 10, 15, 20, 25, 30, 40, 60, 90, 130, 180, 250, 400];
@@ -51,8 +51,8 @@ function schedule(minPair: number, shortPairs: boolean, first: number, slot: num
 }
 
 /** Both channels share `lost`, so the count is over every applied change; the tick check is ch0's. */
-async function check(edges: FirmwareEdge[], end: number, label: string) {
-  const run = await runFirmware({ edges, durationS: end / EMULATOR_HZ + 1.1 });
+async function check(edges: FirmwareEdge[], end: number, label: string, options: Partial<RunFirmwareOptions> = {}) {
+  const run = await runFirmware({ edges, durationS: end / EMULATOR_HZ + 1.1, ...options });
   const records = decodeRun(run);
   const applied = run.applied.filter((a) => a.cycle > 0);
   const got = edgesOf(records);
@@ -79,6 +79,14 @@ describeFirmware('ch0 edge accounting: returned + lost = applied', () => {
     const { edges, end } = schedule(OVERFLOW_PAIR, false, start + 20 * 65536, 2 * 65536, (i) => (i % 61) - 30);
     await check(edges, end, 'overflows');
   });
+
+  it('the same trains from 30 cycles before to 30 after the room sensor\'s compare-B wake-up, a reading every second', async () => {
+    // Compare-B wakes the loop at each reading's due time (firmware/src/main.c arm_room_wake). Its vector ranks
+    // below the capture vector and is shorter than the overflow's, so the overflow's trains must add up here too.
+    const { options, start, due } = await readingsEverySecond();
+    const { edges, end } = schedule(OVERFLOW_PAIR, false, start + due(4), EMULATOR_HZ, (i) => (i % 61) - 30);
+    await check(edges, end, 'compare-B', options);
+  }, 60_000);
 
   it('ch1: two changes after the vector was entered are counted, not merged into one edge', async () => {
     // Rise, fall, rise with the fall and the second rise 20-30 cycles after the first: both come while the
