@@ -49,7 +49,8 @@ export type Warning =
   // The live view: things that depend on the time now
   | { readonly kind: 'disconnected' }
   | { readonly kind: 'no-passes'; readonly silent_s: number; readonly periods: number; readonly why: 'blocked' | 'small-swing' | 'dying' | 'unknown'; readonly swing_mm?: number; readonly flag_mm?: number }
-  | { readonly kind: 'heartbeats-missing'; readonly gap_s: number };
+  | { readonly kind: 'heartbeats-missing'; readonly gap_s: number }
+  | { readonly kind: 'room-reading-stale'; readonly age_s: number; readonly interval_s: number };
 
 export type WarningKind = Warning['kind'];
 
@@ -63,6 +64,8 @@ export const WARN = {
   silentPeriods: 3,
   /** Heartbeats missing for this many of their usual intervals (the same rule as the link's). */
   silentHeartbeats: 3,
+  /** Room readings missing for this many of their intervals while heartbeats come (the heartbeats' rule). */
+  silentRoomReadings: 3,
   /** An amplitude within this factor of the beam's half-angle barely clears the beam: common practice, no source. */
   dyingSwingFactor: 1.5,
   /** Amplitude bias (fraction low) from the swing plane turning from which a one-beam run is warned. */

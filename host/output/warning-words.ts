@@ -57,6 +57,8 @@ const WORDS: Words = {
   disconnected: () => 'device disconnected: check the cable; reconnecting',
   'no-passes': (w) => `no passes for ${int(w.silent_s)} s (${int(w.periods)} periods): ${noPassesWhy(w)}`,
   'heartbeats-missing': (w) => `no heartbeat for ${int(w.gap_s)} s: device stalled or link lost?`,
+  'room-reading-stale': (w) =>
+    `last room reading ${int(w.age_s)} s ago, the board reads every ${int(w.interval_s)} s: check the sensor's wiring (hardware-notes/room-sensor.md); timing goes on`,
 };
 
 function noPassesWhy(w: Extract<Warning, { kind: 'no-passes' }>): string {

@@ -31,8 +31,9 @@ export class DeviceIntake {
   hello: LiveHello | null = null;
   /** The room sensor's state from its last `S` record since the last hello (0: reading; SENSOR_FAULTS bits), or null. */
   sensorState: number | null = null;
-  /** Host time of the last `A` record (the live view shows the reading's age). */
+  /** Host time of the last `A` record (the live view shows the reading's age) and of the one before (its spacing). */
   lastRoomHostUs: number | null = null;
+  prevRoomHostUs: number | null = null;
   /** Input levels bitmask and host time of the last heartbeat. */
   levels: number | null = null;
   lastBeatHostUs: number | null = null;
@@ -86,6 +87,7 @@ export class DeviceIntake {
       case 'A': {
         const ticks = this.timebase.timed(sentUs, rec.ticks);
         this.room.push({ boot: this.timebase.boot, ticks, tempC: rec.temp / 100, pressPa: rec.press, rhPct: rec.hum / 1000 });
+        this.prevRoomHostUs = this.lastRoomHostUs;
         this.lastRoomHostUs = hostUs;
         return;
       }

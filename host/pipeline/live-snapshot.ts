@@ -42,7 +42,8 @@ function liveRoomOf(intake: DeviceIntake): LiveRoom | null {
   if (!last && (intake.sensorState === null || intake.sensorState === SENSOR_FAULTS.absent)) return null;
   const at = intake.lastRoomHostUs;
   const reading = last && at !== null ? { tempC: last.tempC, pressPa: last.pressPa, rhPct: last.rhPct, airDensity_kg_m3: airDensityCipm2007(last), host_s: at / 1e6 } : null;
-  return { sensorState: intake.sensorState, reading };
+  const prev = intake.prevRoomHostUs;
+  return { sensorState: intake.sensorState, reading, spacing_s: at !== null && prev !== null ? (at - prev) / 1e6 : null };
 }
 
 /** Live snapshots of `intake` under the pipeline's clock option and sequencing. */

@@ -51,6 +51,8 @@ export interface LiveRoom {
     /** When it arrived, host seconds since `#start` (the view shows its age against its own "now"). */
     readonly host_s: number;
   } | null;
+  /** Host seconds between the last two readings (the board's interval as seen), null before two. */
+  readonly spacing_s: number | null;
 }
 
 /** The newest pass and what the sequencing made of it (`unsequenced` when the swing no longer clears the beam). */

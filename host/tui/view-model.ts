@@ -281,6 +281,7 @@ export function buildViewModel(input: ViewInput): ViewModel {
     beamHalfAngle_deg: rig ? Math.asin(Math.min(1, rig.flag_width_m / 2 / rig.length_m)) / RAD : null,
     length_m: rig?.length_m ?? null,
     flagWidth_m: rig?.flag_width_m ?? null,
+    room: live.room?.reading && live.room.sensorState === 0 ? { lastReading_s: live.room.reading.host_s, spacing_s: live.room.spacing_s } : null,
     analysis: result.warnings,
   });
 
@@ -292,6 +293,6 @@ export function buildViewModel(input: ViewInput): ViewModel {
     warnings,
     ...plots(result),
     plane: planeView(live.plane, result, rig),
-    room: roomLine(live.room, input.now_s),
+    room: roomLine(live.room, input.now_s, warnings.some((x) => x.kind === 'room-reading-stale')),
   };
 }

@@ -33,7 +33,7 @@ function faultText(state: number): string {
  * Null when the run has no room sensor; the reading's age against the view's `now_s` (host s since `#start`). The reading as sent (°C to hundredths, Pa as hPa to the pascal, %RH to
  * a tenth) and the air density to three decimals: a kelvin moves it by 1/293 of itself, 0.004 kg/m³.
  */
-export function roomLine(room: LiveRoom | null, now_s: number): RoomLine | null {
+export function roomLine(room: LiveRoom | null, now_s: number, stale = false): RoomLine | null {
   if (!room) return null;
   const r = room.reading;
   const faulted = room.sensorState !== null && room.sensorState !== 0;
@@ -48,6 +48,7 @@ export function roomLine(room: LiveRoom | null, now_s: number): RoomLine | null 
     );
   if (r) items.push({ label: 'read', value: `${formatDuration(now_s - r.host_s)} ago` });
   if (!r && !faulted) items.push({ label: 'room', value: 'sensor ready, first reading to come' });
-  const tone: Tone = !faulted ? (r ? 'normal' : 'muted') : room.sensorState === SENSOR_FAULTS.off ? 'muted' : 'bad';
+  // A reading overdue by the warnings' rule (stale) is shown in the warning tone, as a fault is.
+  const tone: Tone = !faulted ? (r ? (stale ? 'bad' : 'normal') : 'muted') : room.sensorState === SENSOR_FAULTS.off ? 'muted' : 'bad';
   return { items, tone };
 }

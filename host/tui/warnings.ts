@@ -2,6 +2,7 @@
 // (a silent device, no passes, a lost link). Thresholds: host/analysis/warning.ts; words: host/output/warning-words.ts.
 import { WARN, type Warning, type WarningKind } from '../analysis/warning.ts';
 import { warningText } from '../output/warning-words.ts';
+import { AIR_DEFAULT_S } from '../../protocol/link-defaults.ts';
 
 export interface ViewWarning {
   readonly kind: WarningKind;
@@ -31,6 +32,11 @@ export interface WarningInput {
   /** Pendulum length and flag width (m), to say the swing's size in millimetres. */
   readonly length_m?: number | null;
   readonly flagWidth_m?: number | null;
+  /**
+   * The room sensor while it reports readings (state 0): the last reading's arrival and the spacing of the last two
+   * (the board's default interval before two came); null without a sensor, or while the sensor says it is faulted.
+   */
+  readonly room?: { readonly lastReading_s: number; readonly spacing_s: number | null } | null;
   /** The analysis' warnings (AnalysisResult.warnings). */
   readonly analysis: readonly Warning[];
 }
@@ -59,6 +65,12 @@ function staleWarnings(w: WarningInput): Warning[] {
   if (w.lastHeartbeat_s !== null && w.heartbeatInterval_s !== null && w.heartbeatInterval_s > 0) {
     const gap = w.now_s - w.lastHeartbeat_s;
     if (gap > WARN.silentHeartbeats * w.heartbeatInterval_s) out.push({ kind: 'heartbeats-missing', gap_s: gap });
+  }
+  // A silent board is already said; the room is worth a line of its own only while the heartbeats come.
+  if (w.room && !out.some((x) => x.kind === 'heartbeats-missing')) {
+    const interval = w.room.spacing_s ?? AIR_DEFAULT_S;
+    const age = w.now_s - w.room.lastReading_s;
+    if (interval > 0 && age > WARN.silentRoomReadings * interval) out.push({ kind: 'room-reading-stale', age_s: age, interval_s: interval });
   }
   return out;
 }

@@ -35,6 +35,10 @@ describe('the live room', () => {
     const room = p.live().room!;
     expect(room.sensorState).toBe(0);
     expect(room.reading).toMatchObject({ tempC: a.temp / 100, pressPa: a.press, rhPct: a.hum / 1000, host_s: lastA.e.hostUs / 1e6 });
+    // The spacing of the last two arrivals: the simulated board's 10 s interval, within the link's latency.
+    const [prevA] = rec.filter((x) => x.r.kind === 'A').slice(-2);
+    expect(room.spacing_s).toBe((lastA.e.hostUs - prevA!.e.hostUs) / 1e6);
+    expect(Math.abs(room.spacing_s! - 10)).toBeLessThan(0.05);
   });
 
   it('a fault keeps the last reading; a new reading at 20 °C, 101325 Pa, 50 %RH gives 1.19931 kg/m³; a new hello clears the state', () => {
@@ -47,9 +51,9 @@ describe('the live room', () => {
     let seq = last.r.seq;
     let hostUs = last.e.hostUs;
     const send = (r: DeviceRecord): void => p.push({ kind: 'data', hostUs: (hostUs += 1000), line: encodeRecord({ ...r, seq: ++seq % 0x10000 }) });
-    const before = p.live().room!.reading!;
+    const { reading: before, spacing_s } = p.live().room!;
     send({ kind: 'S', seq: 0, state: SENSOR_FAULTS.absent });
-    expect(p.live().room).toEqual({ sensorState: SENSOR_FAULTS.absent, reading: before });
+    expect(p.live().room).toEqual({ sensorState: SENSOR_FAULTS.absent, reading: before, spacing_s });
     send({ kind: 'S', seq: 0, state: 0 });
     send({ kind: 'A', seq: 0, ticks: beat.ticks + 1000, temp: 2000, press: 101325, hum: 50000 });
     const now = p.live().room!;

@@ -67,7 +67,7 @@ describe('room line (view model)', () => {
   };
 
   it('the reading as sent, the CIPM-2007 air density and its age', () => {
-    const line = roomLine({ sensorState: 0, reading: reading() }, 172.4)!;
+    const line = roomLine({ sensorState: 0, reading: reading(), spacing_s: null }, 172.4)!;
     // 20 °C, 101325 Pa, 50 %RH: 1.19931 kg/m³ (docs/references.md#ref-air-density), shown to three decimals.
     expect(line.items).toEqual([
       { label: 'room', value: '20.00 °C · 1013.25 hPa · 50.0 %RH' },
@@ -92,21 +92,42 @@ describe('room line (view model)', () => {
   });
 
   it('a faulted sensor: its fault first, then only the last temperature and its age', () => {
-    const absent = roomLine({ sensorState: SENSOR_FAULTS.absent, reading: reading() }, 700)!;
+    const absent = roomLine({ sensorState: SENSOR_FAULTS.absent, reading: reading(), spacing_s: null }, 700)!;
     expect(absent.items).toEqual([
       { label: 'sensor', value: 'not answering (retrying)' },
       { label: 'last', value: '20.00 °C' },
       { label: 'read', value: '10:00 ago' },
     ]);
     expect(absent.tone).toBe('bad');
-    const two = roomLine({ sensorState: SENSOR_FAULTS.bus | SENSOR_FAULTS.chip, reading: null }, 0)!;
+    const two = roomLine({ sensorState: SENSOR_FAULTS.bus | SENSOR_FAULTS.chip, reading: null, spacing_s: null }, 0)!;
     expect(two.items).toEqual([{ label: 'sensor', value: 'bus fault, wrong chip (retrying)' }]);
-    const off = roomLine({ sensorState: SENSOR_FAULTS.off, reading: null }, 0)!;
+    const off = roomLine({ sensorState: SENSOR_FAULTS.off, reading: null, spacing_s: null }, 0)!;
     expect(off).toEqual({ items: [{ label: 'sensor', value: 'readings off' }], tone: 'muted' });
   });
 
+  it('a reading overdue by the warnings\' rule is shown in the warning tone, the rest of the line unchanged', () => {
+    const fresh = roomLine({ sensorState: 0, reading: reading(), spacing_s: 10 }, 125)!;
+    const stale = roomLine({ sensorState: 0, reading: reading(), spacing_s: 10 }, 135, true)!;
+    expect(fresh.tone).toBe('normal');
+    expect(stale.tone).toBe('bad');
+    expect(stale.items.map((x) => x.label)).toEqual(['room', 'air', 'read']);
+    expect(stale.items[2]).toEqual({ label: 'read', value: '0:35 ago' });
+  });
+
+  it('the recorded two-beam run: its readings come every 10 s, so its room line is not stale at the snapshot', () => {
+    const i = input('snapshot-plane-room');
+    const vm = buildViewModel(i);
+    expect(vm.room!.tone).toBe('normal');
+    expect(vm.warnings.map((w) => w.kind)).not.toContain('room-reading-stale');
+    // The same run with its last reading 40 s old (three 10 s intervals and more) and the heartbeats still coming.
+    const room = i.live.room!;
+    const late = buildViewModel({ ...i, live: { ...i.live, room: { ...room, reading: { ...room.reading!, host_s: room.reading!.host_s - 40 } } } });
+    expect(late.room!.tone).toBe('bad');
+    expect(late.warnings.map((w) => w.kind)).toContain('room-reading-stale');
+  });
+
   it('a sensor that has not read yet, and no line at all without a sensor', () => {
-    expect(roomLine({ sensorState: 0, reading: null }, 0)).toEqual({ items: [{ label: 'room', value: 'sensor ready, first reading to come' }], tone: 'muted' });
+    expect(roomLine({ sensorState: 0, reading: null, spacing_s: null }, 0)).toEqual({ items: [{ label: 'room', value: 'sensor ready, first reading to come' }], tone: 'muted' });
     expect(roomLine(null, 0)).toBeNull();
     expect(buildViewModel(input('snapshot-night-reboot')).room).toBeNull();
   });

@@ -52,6 +52,21 @@ describe('live warnings', () => {
     expect(open).toBe(t);
   });
 
+  it('room readings missing for more than three of their intervals, while the board still talks', () => {
+    // Readings every 10 s (the spacing of the last two): 30 s is three intervals, the heartbeats' rule.
+    expect(kinds({ room: { lastReading_s: 70.5, spacing_s: 10 } })).toEqual([]);
+    expect(kinds({ room: { lastReading_s: 69.5, spacing_s: 10 } })).toEqual(['room-reading-stale']);
+    // One reading so far: the board's default interval (10 s, protocol/link-defaults.ts) stands in for the spacing.
+    expect(kinds({ room: { lastReading_s: 69.5, spacing_s: null } })).toEqual(['room-reading-stale']);
+    // A board set to read every 60 s is not late after 40 s.
+    expect(kinds({ room: { lastReading_s: 60, spacing_s: 60 } })).toEqual([]);
+    // A finished recording says nothing about the room; a silent board is said once, by its heartbeats.
+    expect(kinds({ room: { lastReading_s: 0, spacing_s: 10 }, expectingLines: false })).toEqual([]);
+    expect(kinds({ room: { lastReading_s: 0, spacing_s: 10 }, lastHeartbeat_s: 90 })).toEqual(['heartbeats-missing']);
+    const t = warningsFor({ ...base, room: { lastReading_s: 55, spacing_s: 10 } })[0]!.text;
+    expect(t).toBe("last room reading 45 s ago, the board reads every 10 s: check the sensor's wiring (hardware-notes/room-sensor.md); timing goes on");
+  });
+
   it('heartbeats missing for more than three intervals', () => {
     expect(kinds({ lastHeartbeat_s: 97.1 })).toEqual([]);
     expect(kinds({ lastHeartbeat_s: 96.9 })).toEqual(['heartbeats-missing']);
