@@ -78,10 +78,33 @@ export function rateExcursion(tr: RateTrack, t: number): number {
   return tr.e[i]! * (1 - f) + tr.e[i + 1]! * f;
 }
 
-/** E(t) = ∫ e dt from the first knot to host time t (s). */
+/** Per track, C[i] = Σ_{j<i} e_j·(area of hat j, whole): E(t) then needs only the hats around t (once per pass). */
+const wholeHats = new WeakMap<RateTrack, Float64Array>();
+
+function wholeHatSums(tr: RateTrack): Float64Array {
+  let c = wholeHats.get(tr);
+  if (c) return c;
+  const last = tr.e.length - 1;
+  const d = tr.knots_s[1]! - tr.knots_s[0]!;
+  c = new Float64Array(tr.e.length + 1);
+  for (let j = 0; j < tr.e.length; j++) c[j + 1] = c[j]! + tr.e[j]! * d * ((j > 0 ? 0.5 : 0) + (j < last ? 0.5 : 0));
+  wholeHats.set(tr, c);
+  return c;
+}
+
+/**
+ * E(t) = ∫ e dt from the first knot to host time t (s). The hats ending at or before t count whole (j + 1 ≤ ⌊u⌋ − 1,
+ * never the last, whose flat continuation grows with t); those starting after t count nothing (j ≥ ⌊u⌋ + 2).
+ */
 export function excursionIntegral(tr: RateTrack, t: number): number {
-  let s = 0;
-  for (let j = 0; j < tr.e.length; j++) if (tr.e[j] !== 0) s += tr.e[j]! * hatIntegral(tr.knots_s, j, t);
+  const knots = tr.knots_s;
+  const last = tr.e.length - 1;
+  if (last < 1) return tr.e.length ? tr.e[0]! * hatIntegral(knots, 0, t) : 0;
+  const fu = Math.floor((t - knots[0]!) / (knots[1]! - knots[0]!));
+  const lo = Math.min(last, Math.max(0, fu - 1));
+  const hi = Math.min(last, Math.max(0, fu + 1));
+  let s = wholeHatSums(tr)[lo]!;
+  for (let j = lo; j <= hi; j++) if (tr.e[j] !== 0) s += tr.e[j]! * hatIntegral(knots, j, t);
   return s;
 }
 

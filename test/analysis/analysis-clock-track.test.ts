@@ -46,6 +46,22 @@ describe('tracked clock rate: the spline', () => {
     );
   });
 
+  it('E summed from whole hats and the few around t equals the sum over every hat (any knots, any t)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: -2e-5, max: 2e-5, noNaN: true }), { minLength: 2, maxLength: 40 }),
+        fc.double({ min: 60, max: 7200, noNaN: true }),
+        fc.double({ min: -3, max: 45, noNaN: true }),
+        (e, d, at) => {
+          const tr = track(e, d);
+          const t = 50 + at * d;
+          const every = e.reduce((s, ej, j) => s + ej * hatIntegral(tr.knots_s, j, t), 0);
+          expect(Math.abs(excursionIntegral(tr, t) - every)).toBeLessThanOrEqual(1e-12 * (1 + Math.abs(every)));
+        },
+      ),
+    );
+  });
+
   it('E is the integral of e (midpoints of the pieces between knots), and trackedSeconds removes it from x/k0', () => {
     const tr = track([3e-6, -5e-6, 8e-6, 1e-6]);
     fc.assert(
