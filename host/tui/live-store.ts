@@ -6,6 +6,7 @@ import type { AnalysisResult } from '../analysis/result.ts';
 import type { LiveState } from '../pipeline/live-state.ts';
 import type { ResultSource } from '../pipeline/result-client.ts';
 import { refreshGap, workerWithFallback } from '../pipeline/result-fallback.ts';
+import { heartbeatCadence } from './heartbeat-cadence.ts';
 import type { Timers as LinkTimers } from '../link/timers.ts';
 
 /** The part of the run pipeline (`createRunPipeline`) the store drives. */
@@ -81,19 +82,6 @@ export interface LiveStore {
 export const LIVE_HZ = 5;
 /** Longest time between publishes while no line arrives. */
 const IDLE_PUBLISH_MS = 1000;
-/** Heartbeat arrivals kept for the spacing estimate. */
-const BEATS_KEPT = 9;
-
-/** Median of the spacings of increasing times (a lost or late heartbeat does not move it). */
-export function medianSpacing(times: readonly number[]): number | null {
-  if (times.length < 2) return null;
-  const d = times
-    .slice(1)
-    .map((t, i) => t - times[i]!)
-    .filter((x) => x > 0)
-    .sort((a, b) => a - b);
-  return d.length ? d[Math.floor((d.length - 1) / 2)]! : null;
-}
 
 /** Entries a restarted pipeline must see again: the journal header block. */
 function isHeader(e: JournalEntry): boolean {
@@ -148,17 +136,15 @@ function runFacts(nowMs: () => number) {
   let firstHost: number | null = null;
   let restartedAt: number | null = null;
   let lastArrival: number | null = null;
-  const beats: number[] = [];
+  const beats = heartbeatCadence();
   let rig: Rig | null = null;
   return {
     note(entry: JournalEntry): void {
       if (entry.kind === 'rig') {
         const r = parseSimpleRig(entry.json);
         rig = r.ok ? r.rig : null;
-      } else if (entry.kind === 'data' && entry.line.startsWith('T ')) {
-        beats.push(entry.hostUs / 1e6);
-        if (beats.length > BEATS_KEPT) beats.shift();
       }
+      beats.see(entry);
       entries++;
       if (entry.kind === 'data' || entry.kind === 'annotation') {
         lastHost = entry.hostUs / 1e6;
@@ -177,7 +163,7 @@ function runFacts(nowMs: () => number) {
       restartedAt_s: restartedAt,
       lastArrivalMs: lastArrival,
       entries,
-      heartbeatInterval_s: medianSpacing(beats),
+      heartbeatInterval_s: beats.interval_s(),
       rig,
     }),
   };

@@ -4,7 +4,8 @@ import { loadScenario, simulateJournal } from '../../sim/index.ts';
 import { parseJournalLine, type JournalEntry } from '../../protocol/journal.ts';
 import { createRunPipeline } from '../../host/pipeline/run-pipeline.ts';
 import { analyzeEntries } from '../../host/pipeline/analyze-entries.ts';
-import { createLiveStore, medianSpacing, type LiveStoreOptions, type PipelineLike } from '../../host/tui/live-store.ts';
+import { createLiveStore, type LiveStoreOptions, type PipelineLike } from '../../host/tui/live-store.ts';
+import { medianSpacing } from '../../host/tui/heartbeat-cadence.ts';
 import { inThreadResultSource, workerResultSource, type ResultSource } from '../../host/pipeline/result-client.ts';
 
 function journal(seconds: number, scenario = 'demo-low-q', seed = 7): { entries: JournalEntry[]; T0: number } {

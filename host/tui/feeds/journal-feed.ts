@@ -8,7 +8,7 @@
 import type { JournalEntry } from '../../../protocol/journal.ts';
 import type { FollowOptions } from '../../journal/follow-journal.ts';
 import { WARN } from '../../analysis/warning.ts';
-import { medianSpacing } from '../live-store.ts';
+import { heartbeatCadence } from '../heartbeat-cadence.ts';
 import type { ConnectionState, Feed, FeedStatus } from '../feed.ts';
 
 export interface JournalFeedOptions {
@@ -43,37 +43,31 @@ export interface LastLine {
   readonly afterDisconnect: boolean;
 }
 
-/** Heartbeat arrivals kept for the cadence (as the live store keeps them). */
-const BEATS_KEPT = 9;
-
 /** Tracks the newest section's start, last line, heartbeats and `stop` annotation over the entries, in order (pure). */
 export function recordingEndTracker(): { see(e: JournalEntry): void; end(): RecordingEnd | null; last(): LastLine | null } {
   let startMs: number | null = null;
   let end: RecordingEnd | null = null;
   let last: { hostUs: number; afterDisconnect: boolean } | null = null;
-  const beats: number[] = [];
+  const beats = heartbeatCadence();
   return {
     see(e) {
       if (e.kind === 'start') {
         startMs = Number.isFinite(e.epochMs) ? e.epochMs : null;
         end = null;
         last = null;
-        beats.length = 0;
+        beats.reset();
       } else if (e.kind === 'annotation') {
         if (e.word === 'stop') end = { at_s: e.hostUs / 1e6, why: e.text, iso: startMs !== null ? new Date(startMs + e.hostUs / 1000).toISOString() : null };
         last = { hostUs: e.hostUs, afterDisconnect: e.word === 'disconnect' };
       } else if (e.kind === 'data') {
         end = null;
         last = { hostUs: e.hostUs, afterDisconnect: false };
-        if (e.line.startsWith('T ')) {
-          beats.push(e.hostUs / 1e6);
-          if (beats.length > BEATS_KEPT) beats.shift();
-        }
+        beats.see(e);
       }
     },
     end: () => end,
     last: () =>
-      last && { host_s: last.hostUs / 1e6, wallMs: startMs !== null ? startMs + last.hostUs / 1000 : null, heartbeat_s: medianSpacing(beats), afterDisconnect: last.afterDisconnect },
+      last && { host_s: last.hostUs / 1e6, wallMs: startMs !== null ? startMs + last.hostUs / 1000 : null, heartbeat_s: beats.interval_s(), afterDisconnect: last.afterDisconnect },
   };
 }
 
